@@ -1,0 +1,438 @@
+"""Build: syntax Document -> validated Member model in exact SI; every problem is reported."""
+
+from __future__ import annotations
+
+import difflib
+from fractions import Fraction
+
+from . import model as m
+from . import syntax as s
+from .errors import Collector
+from .sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
+from .source import Span
+from .units import STANDARD_GRAVITY, UnitProblem, is_us, to_si
+
+FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
+MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "density": "density"}
+SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
+          s.Section: "section"}
+
+
+def build(doc: s.Document) -> m.Member:
+    """Validate a parsed file and convert it to the exact SI member model."""
+    b = _Builder(doc)
+    member = b.run()
+    b.errors.raise_if_any()
+    assert member is not None
+    return member
+
+
+class _Builder:
+    def __init__(self, doc: s.Document):
+        self.doc = doc
+        self.errors = Collector(doc.source)
+        self.length: Fraction | None = None
+
+    # -- helpers ---------------------------------------------------------------------------
+    def si(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
+        try:
+            return to_si(q, kind, what, hint)
+        except UnitProblem as exc:
+            d = exc.diagnostic
+            self.errors.error(d.span, d.message, d.hint)
+            return None
+
+    def positive(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
+        value = self.si(q, kind, what, hint)
+        if value is not None and value <= 0:
+            self.errors.error(q.span, f"{what} must be greater than zero")
+            return None
+        return value
+
+    def position(self, p: s.Position, what: str = "position") -> Fraction | None:
+        L = self.length
+        if p.form == "length":
+            x = self.si(p.quantity, "length", what)
+        elif L is None:
+            return None
+        elif p.form == "end":
+            x = L
+        elif p.form == "fraction":
+            divisor = Fraction(p.divisor)
+            if divisor == 0:
+                self.errors.error(p.span, "cannot divide the span by zero")
+                return None
+            x = L / divisor
+        else:
+            d = self.si(p.quantity, "length", what)
+            x = None if d is None else L - d
+        if x is None or L is None:
+            return x
+        if x < 0 or x > L:
+            self.errors.error(p.span, f"{what} {_show(p)} is outside the span (0 to {_show_span(self.doc)})",
+                              "positions are measured from the left end, from 0 to the span")
+            return None
+        return x
+
+    def suggest(self, word: str, choices, what: str) -> str | None:
+        close = difflib.get_close_matches(word, list(choices), n=1, cutoff=0.5)
+        if close:
+            return f"did you mean '{close[0]}'?"
+        return f"the {what} are: {', '.join(choices)}" if choices else None
+
+    # -- the whole file --------------------------------------------------------------------
+    def run(self) -> m.Member | None:
+        stmts = self.doc.statements
+        if not stmts:
+            self.errors.error(Span(self.doc.source.name, 1, 1, 2), "empty file: there is no member to check",
+                              "a member needs `member`, `span`, `material`, `section`, `support` and `case` lines")
+            return None
+        single = self._singletons(stmts)
+        member_span = single["member"].span if "member" in single else stmts[0][1].span
+        for key in ("member", "span", "material", "section"):
+            if key not in single:
+                self.errors.error(member_span, f"this member has no `{key}` line", _EXAMPLES[key])
+        if "span" in single:
+            self.length = self.positive(single["span"].length, "length", "the span")
+        material = self._material(single.get("material"))
+        section = self._section(single.get("section"))
+        supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
+        cases = self._cases(stmts, material, section, member_span)
+        names = self._names(cases)
+        combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
+        targets = names | {c.name for c in combos}
+        limits = self._limits([st for _, st in stmts if isinstance(st, s.Limit)], targets)
+        checks = self._stress_checks([st for _, st in stmts if isinstance(st, s.StressCheck)], targets,
+                                     material, section)
+        reports = self._report_points([st for _, st in stmts if isinstance(st, s.Report)])
+        if self.errors.items or material is None or section is None or self.length is None:
+            return None
+        member = single["member"]
+        fields = tuple((f, st.text) for f in FIELD_ORDER for _, st in stmts if isinstance(st, s.Field) and st.name == f)
+        units = single["units"].system.text if "units" in single else (
+            "us" if is_us(single["span"].length.unit) else "si")
+        return m.Member(member.mark.text, member.title, fields, units, self.length, material, section,
+                        supports, cases, combos, limits, checks, reports,
+                        tuple(st.text for _, st in stmts if isinstance(st, s.Note)), self.doc, member.span)
+
+    def _singletons(self, stmts) -> dict[str, s.Statement]:
+        seen: dict[str, s.Statement] = {}
+        for line, st in stmts:
+            key = SINGLE.get(type(st)) or (st.name if isinstance(st, s.Field) else None)
+            self._check_block(line, st)
+            if key is None:
+                continue
+            if key in seen:
+                self.errors.error(st.span, f"a second `{key}` line; a member has only one",
+                                  f"the first is on line {seen[key].span.line}")
+            else:
+                seen[key] = st
+        return seen
+
+    def _check_block(self, line: s.Line, st: s.Statement) -> None:
+        is_load = isinstance(st, s.LOADS)
+        if is_load and not line.indented:
+            self.errors.error(st.span, "a load must be indented under a `case` line",
+                              "write the case first, e.g. `case dead`, then each load on its own indented line")
+        elif line.indented and not is_load:
+            self.errors.error(st.span, "only loads are indented; this statement starts at the left margin")
+
+    # -- material and section --------------------------------------------------------------
+    def _material(self, st: s.Material | None) -> m.Material | None:
+        if st is None:
+            return None
+        values = self._properties(st.properties, MATERIAL_PROPERTIES, "material properties")
+        if "E" not in values and not any(p.name.text == "E" for p in st.properties):
+            self.errors.error(st.span, "the material has no elastic modulus E", "for example `E 200 GPa`")
+        if any(v is None for v in values.values()) or "E" not in values:
+            return None
+        return m.Material(st.name.text if st.name else None, values["E"], values.get("yield"),
+                          values.get("density"), st.span)
+
+    def _properties(self, props, kinds: dict[str, str], what: str) -> dict[str, Fraction | None]:
+        values: dict[str, Fraction | None] = {}
+        for p in props:
+            name = p.name.text
+            if name not in kinds:
+                self.errors.error(p.name.span, f"unknown {what[:-1]} '{name}'", self.suggest(name, kinds, what))
+                continue
+            if name in values:
+                self.errors.error(p.name.span, f"'{name}' is given twice")
+                continue
+            if p.second is not None and name != "flange":
+                self.errors.error(p.second.span, f"'{name}' takes one value", "only `flange` is written as width x thickness")
+            values[name] = self.positive(p.value, kinds[name], _DESCRIBE.get(name, name))
+        return values
+
+    def _section(self, st: s.Section | None) -> m.SectionProperties | None:
+        if st is None:
+            return None
+        shape = st.shape.text
+        required, optional = SHAPE_DIMENSIONS[shape]
+        kinds = {n: DIMENSION_KIND.get(n, "length") for n in required + optional}
+        values = self._properties(st.properties, kinds, f"dimensions of a {shape}")
+        missing = [n for n in required if n not in values]
+        if missing:
+            self.errors.error(st.span, f"a {shape} section needs {', '.join(missing)}", _SECTION_EXAMPLES[shape])
+            return None
+        flange_t = None
+        if shape == "I-shape":
+            flange = next(p for p in st.properties if p.name.text == "flange")
+            if flange.second is None:
+                self.errors.error(flange.span, "the flange is written as width x thickness",
+                                  "for example `flange 150 mm x 12 mm`")
+                return None
+            flange_t = self.positive(flange.second, "length", "the flange thickness")
+        if any(v is None for v in values.values()) or (shape == "I-shape" and flange_t is None):
+            return None
+        try:
+            props = properties(shape, values, flange_t)
+        except ShapeProblem as exc:
+            where = next(p.span for p in st.properties if p.name.text == exc.name)
+            self.errors.error(where, exc.message, exc.hint)
+            return None
+        dims = tuple((n, values[n]) for n in required + optional if n in values)
+        if flange_t is not None:
+            dims += (("flange thickness", flange_t),)
+        return m.SectionProperties(shape, dims, props["I"], props["A"], props["c"], props["S"],
+                                   props["Q"], props["t"], st.span)
+
+    # -- supports ------------------------------------------------------------------------------
+    def _supports(self, stmts: list[s.Support], member_span: Span) -> tuple[m.Support, ...]:
+        out: list[m.Support] = []
+        for st in stmts:
+            kind = st.kind.text
+            k = None
+            if kind == "spring" and st.stiffness is None:
+                self.errors.error(st.kind.span, "a spring support needs its stiffness",
+                                  "for example `support spring 5 kN/mm at 3 m`")
+            elif kind == "spring":
+                k = self.si(st.stiffness, "force per length", "a spring stiffness")
+            elif st.stiffness is not None:
+                self.errors.error(st.stiffness.span, f"a {kind} support takes no stiffness",
+                                  "only `spring` supports have one")
+            x = self.position(st.at, "support position")
+            if x is None or (kind == "spring" and k is None):
+                continue
+            twin = next((o for o in out if o.x == x), None)
+            if twin is not None:
+                self.errors.error(st.at.span, "two supports at one point",
+                                  f"the other is on line {twin.span.line}; merge them into one support")
+                continue
+            out.append(m.Support(kind, x, k, st.span))
+        if not stmts:
+            self.errors.error(member_span, "this member has no supports, so it cannot carry load",
+                              "add supports, e.g. `support pin at 0 m` and `support roller at span`")
+        elif out and len(out) == len(stmts) and not _stable(out):
+            self.errors.error(out[0].span, "these supports cannot carry load: the beam is a mechanism",
+                              _why_unstable(out))
+        return tuple(sorted(out, key=lambda sp: sp.x))
+
+    # -- cases and loads -------------------------------------------------------------------
+    def _cases(self, stmts, material, section, member_span: Span) -> tuple[m.Case, ...]:
+        cases: list[m.Case] = []
+        current: tuple[s.Case, list[m.Load]] | None = None
+        for line, st in stmts:
+            if isinstance(st, s.Case):
+                if current:
+                    cases.append(self._close_case(*current))
+                current = (st, [])
+            elif isinstance(st, s.LOADS) and line.indented:
+                if current is None:
+                    self.errors.error(st.span, "this load belongs to no case", "put a `case` line above it")
+                    continue
+                load = self._load(st, material, section)
+                if load is not None:
+                    current[1].append(load)
+            elif current and not line.indented:
+                cases.append(self._close_case(*current))
+                current = None
+        if current:
+            cases.append(self._close_case(*current))
+        if not cases and not any(isinstance(st, s.Case) for _, st in stmts):
+            self.errors.error(member_span, "this member has no load cases",
+                              "add e.g. `case dead` with its loads indented below it")
+        return tuple(cases)
+
+    def _close_case(self, st: s.Case, loads: list[m.Load]) -> m.Case:
+        return m.Case(st.name.text, st.title, tuple(loads), st.span)
+
+    def _load(self, st, material, section) -> m.Load | None:
+        if isinstance(st, s.Point):
+            P = self.si(st.force, "force", "a point load", _hint_for(st.force, "force per length",
+                        "for a load per length, did you mean `uniform`?"))
+            x = self.position(st.at, "load position")
+            return None if P is None or x is None else m.PointLoad(x, _sign(st.direction.text) * P, st.span)
+        if isinstance(st, s.Moment):
+            M = self.si(st.moment, "moment", "a moment", "write a moment as force times length, e.g. `3 kN*m`")
+            x = self.position(st.at, "moment position")
+            sign = 1 if st.direction.text == "counterclockwise" else -1
+            return None if M is None or x is None else m.MomentLoad(x, sign * M, st.span)
+        if isinstance(st, s.Uniform):
+            w = self.si(st.intensity, "force per length", "a uniform load",
+                        _hint_for(st.intensity, "force", "for a single force, did you mean `point`?"))
+            x1 = Fraction(0) if st.start is None else self.position(st.start, "load start")
+            x2 = self.length if st.end is None else self.position(st.end, "load end")
+            return self._line_load(st, x1, x2, w, w, "uniform")
+        if isinstance(st, s.Linear):
+            w1 = self.si(st.start_intensity, "force per length", "a linear load")
+            w2 = self.si(st.end_intensity, "force per length", "a linear load")
+            x1, x2 = self.position(st.start, "load start"), self.position(st.end, "load end")
+            return self._line_load(st, x1, x2, w1, w2, "linear")
+        return self._self_weight(st, material, section)
+
+    def _line_load(self, st, x1, x2, w1, w2, origin: str) -> m.LineLoad | None:
+        if None in (x1, x2, w1, w2):
+            return None
+        if x1 >= x2:
+            where = st.end.span if getattr(st, "end", None) is not None else st.span
+            self.errors.error(where, "a distributed load must end to the right of where it starts",
+                              "write `from` the left position `to` the right one")
+            return None
+        sign = _sign(st.direction.text)
+        return m.LineLoad(x1, x2, sign * w1, sign * w2, origin, st.span)
+
+    def _self_weight(self, st: s.SelfWeight, material, section) -> m.LineLoad | None:
+        if material is None or section is None or self.length is None:
+            return None
+        if material.density is None:
+            self.errors.error(st.span, "self-weight needs the material's density",
+                              "add e.g. `density 7850 kg/m^3` to the material line")
+            return None
+        if section.A is None:
+            self.errors.error(st.span, "self-weight needs the section area",
+                              "give the area, e.g. `A 5400 mm^2`, or describe the section by its shape")
+            return None
+        w = material.density * STANDARD_GRAVITY * section.A
+        return m.LineLoad(Fraction(0), self.length, -w, -w, "self-weight", st.span)
+
+    def _names(self, cases: tuple[m.Case, ...]) -> set[str]:
+        seen: dict[str, m.Case] = {}
+        for c in cases:
+            if c.name in seen:
+                self.errors.error(c.span, f"a second case named '{c.name}'",
+                                  f"the first is on line {seen[c.name].span.line}; case names must differ")
+            elif not c.loads:
+                self.errors.error(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
+            seen.setdefault(c.name, c)
+        return set(seen)
+
+    # -- combinations, limits, checks ------------------------------------------------------
+    def _combinations(self, stmts: list[s.Combine], cases: set[str]) -> tuple[m.Combination, ...]:
+        out: list[m.Combination] = []
+        for st in stmts:
+            name = st.name.text
+            if name in cases or any(c.name == name for c in out):
+                self.errors.error(st.name.span, f"the name '{name}' is already used",
+                                  "cases and combinations need names of their own")
+                continue
+            terms, ok = [], True
+            for term in st.terms:
+                factor = Fraction(term.factor) if term.factor is not None else Fraction(1)
+                if term.case.text not in cases:
+                    self.errors.error(term.case.span, f"unknown case '{term.case.text}'",
+                                      self.suggest(term.case.text, sorted(cases), "cases"))
+                    ok = False
+                elif any(t[1] == term.case.text for t in terms):
+                    self.errors.error(term.case.span, f"case '{term.case.text}' appears twice in this combination")
+                    ok = False
+                elif factor == 0:
+                    self.errors.error(term.case.span, "a factor of zero; leave the case out instead")
+                    ok = False
+                terms.append((factor, term.case.text))
+            if ok:
+                out.append(m.Combination(name, tuple(terms), st.span))
+        return tuple(out)
+
+    def _target(self, name: s.Name, targets: set[str]) -> bool:
+        if name.text in targets:
+            return True
+        self.errors.error(name.span, f"unknown case or combination '{name.text}'",
+                          self.suggest(name.text, sorted(targets), "cases and combinations"))
+        return False
+
+    def _limits(self, stmts: list[s.Limit], targets: set[str]) -> tuple[m.DeflectionLimit, ...]:
+        out = []
+        for st in stmts:
+            ok = self._target(st.target, targets)
+            divisor = value = None
+            if st.divisor is not None:
+                divisor = Fraction(st.divisor)
+                if divisor == 0:
+                    self.errors.error(st.span, "a limit of span/0 allows no deflection at all", "write e.g. span/360")
+                    ok = False
+            else:
+                value = self.positive(st.value, "length", "a deflection limit")
+                ok = ok and value is not None
+            if ok:
+                out.append(m.DeflectionLimit(st.target.text, divisor, value, st.span))
+        return tuple(out)
+
+    def _stress_checks(self, stmts, targets, material, section) -> tuple[m.StressCheck, ...]:
+        out = []
+        for st in stmts:
+            ok = self._target(st.target, targets)
+            if material is not None and material.yield_strength is None:
+                self.errors.error(st.span, "a stress check needs the material's yield strength",
+                                  "add e.g. `yield 350 MPa` to the material line")
+                ok = False
+            if section is not None and section.c is None and section.S is None:
+                self.errors.error(st.span, "a stress check needs the section depth, c or S",
+                                  "add e.g. `depth 250 mm` to the section line")
+                ok = False
+            if ok:
+                out.append(m.StressCheck(st.target.text, st.span))
+        return tuple(out)
+
+
+    def _report_points(self, stmts: list[s.Report]) -> tuple[m.ReportPoint, ...]:
+        points = ((self.position(st.at, "report point"), st) for st in stmts)
+        return tuple(m.ReportPoint(x, st.span) for x, st in points if x is not None)
+
+
+def _stable(supports: list[m.Support]) -> bool:
+    """A straight beam under transverse load is stable with one fixed end or two point restraints."""
+    active = [sp for sp in supports if sp.kind != "spring" or sp.stiffness]
+    return any(sp.kind == "fixed" for sp in active) or len(active) >= 2
+
+
+def _why_unstable(supports: list[m.Support]) -> str:
+    if all(sp.kind == "spring" and not sp.stiffness for sp in supports):
+        return "springs of zero stiffness restrain nothing; give them a stiffness or add a support"
+    return "one pin, roller or spring lets the beam turn about it; add a second support or make one fixed"
+
+
+def _sign(direction: str) -> int:
+    return 1 if direction in ("up", "counterclockwise") else -1
+
+
+def _hint_for(q: s.Quantity, kind: str, hint: str) -> str | None:
+    from .units import factor_of
+    f = factor_of(q.unit)
+    return hint if f is not None and f.kind == kind else None
+
+
+def _show(p: s.Position) -> str:
+    return str(p)
+
+
+def _show_span(doc: s.Document) -> str:
+    for _, st in doc.statements:
+        if isinstance(st, s.SpanLength):
+            return str(st.length)
+    return "?"
+
+
+_DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "density": "the density",
+             "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S"}
+_EXAMPLES = {"member": 'start the file with e.g. `member B-1 "Floor beam"`', "span": "for example `span 5.4 m`",
+             "material": "for example `material steel E 200 GPa yield 350 MPa`",
+             "section": "for example `section rectangle width 89 mm depth 235 mm`"}
+_SECTION_EXAMPLES = {
+    "properties": "for example `section properties I 8.5e7 mm^4 depth 250 mm`",
+    "rectangle": "for example `section rectangle width 89 mm depth 235 mm`",
+    "round": "for example `section round diameter 60 mm`",
+    "tube": "for example `section tube diameter 60 mm wall 4 mm`",
+    "box": "for example `section box width 100 mm depth 200 mm wall 6 mm`",
+    "I-shape": "for example `section I-shape depth 250 mm flange 150 mm x 12 mm web 8 mm`",
+}

@@ -1,0 +1,95 @@
+"""Command line: arguments -> the stage functions; exit codes 0 ok, 1 check failed, 2 input error, 3 internal error."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+import traceback
+from pathlib import Path
+
+from . import __version__
+from .errors import BeamError
+
+EXIT_OK, EXIT_FAIL, EXIT_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = _parser()
+    args = parser.parse_args(argv)
+    if not getattr(args, "command", None):
+        parser.print_help(sys.stderr)
+        return EXIT_INPUT
+    try:
+        return args.run(args)
+    except BeamError as exc:
+        print(exc.render(), file=sys.stderr)
+        return EXIT_INPUT
+    except KeyboardInterrupt:
+        return 130
+    except Exception:  # our own bug: never dress it up as the user's mistake
+        if args.debug:
+            traceback.print_exc()
+        else:
+            kind = sys.exc_info()[0].__name__
+            print(f"beamlang: internal error ({kind}); please report it with the input file "
+                  "(run again with --debug to see the traceback)", file=sys.stderr)
+        return EXIT_INTERNAL
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(prog="beamlang", description="Exact beam deflection and stress checks from .beam files.")
+    p.add_argument("--version", action="version", version=f"beamlang {__version__}")
+    p.add_argument("--debug", action="store_true", help="show a traceback on an internal error")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    fmt = sub.add_parser("fmt", help="rewrite .beam files in the canonical layout")
+    fmt.add_argument("paths", nargs="+", metavar="FILES|DIRS")
+    fmt.add_argument("--check", action="store_true", help="change nothing; exit 1 listing files that would change")
+    fmt.set_defaults(run=_run_fmt)
+    for sp in sub.choices.values():
+        sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
+    return p
+
+
+def _each(paths: list[str]):
+    """Load every file, collecting input errors so that all are reported; yields the good ones."""
+    from .frontend import expand, load
+    files = expand(paths)
+    if not files:
+        print("beamlang: no .beam files found in " + " ".join(paths), file=sys.stderr)
+    errors: list[BeamError] = []
+    loaded = []
+    for path in files:
+        try:
+            loaded.append(load(path))
+        except BeamError as exc:
+            errors.append(exc)
+    return loaded, errors, bool(files)
+
+
+def _report(errors: list[BeamError]) -> None:
+    for exc in errors:
+        print(exc.render(), file=sys.stderr)
+
+
+def _run_fmt(args: argparse.Namespace) -> int:
+    from .fmt import format_document
+    loaded, errors, found = _each(args.paths)
+    _report(errors)
+    changed = []
+    for item in loaded:
+        text = format_document(item.document)
+        if text != item.source.text:
+            changed.append(item)
+            if not args.check:
+                Path(item.path).write_text(text, encoding="utf-8", newline="\n")
+    for item in changed:
+        verb = "would reformat" if args.check else "reformatted"
+        print(f"{verb} {item.source.name}", file=sys.stderr)
+    if errors or not found:
+        return EXIT_INPUT
+    return EXIT_FAIL if (args.check and changed) else EXIT_OK
+
+
+if __name__ == "__main__":
+    sys.exit(main())

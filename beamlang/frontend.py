@@ -1,0 +1,70 @@
+"""Front end: a `.beam` path -> (Source, Document, Member); files and folders -> sorted `.beam` paths."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+
+from .build import build
+from .errors import BeamError, Diagnostic
+from .model import Member
+from .parse import parse, read_source
+from .source import Source, Span
+from .syntax import Document
+
+
+@dataclass(frozen=True, slots=True)
+class Loaded:
+    path: Path
+    source: Source
+    document: Document
+    member: Member
+
+
+def load(path: Path) -> Loaded:
+    """Read, parse and validate one file (raises BeamError with every problem found)."""
+    source = read_source(path, shown_as=_shown(path))
+    doc = parse(source)
+    return Loaded(path, source, doc, build(doc))
+
+
+def expand(args: list[str]) -> list[Path]:
+    """Files as given, folders searched for `*.beam` (sorted, so output order is stable)."""
+    out: list[Path] = []
+    for arg in args:
+        p = Path(arg)
+        if p.is_dir():
+            out.extend(sorted(p.rglob("*.beam")))
+        else:
+            out.append(p)
+    return out
+
+
+def check_unique_marks(loaded: list[Loaded]) -> None:
+    """Two files describing the same mark in one run is an error (their output would collide)."""
+    seen: dict[str, Loaded] = {}
+    problems = []
+    for item in loaded:
+        mark = item.member.mark
+        first = seen.get(mark.lower())
+        if first is not None:
+            problems.append(Diagnostic(_mark_span(item), f"member mark '{mark}' is used twice",
+                                       f"also in {_shown(first.path)}:{first.member.span.line}; "
+                                       "marks name the output folders and must differ"))
+        else:
+            seen[mark.lower()] = item
+    if problems:
+        raise BeamError(problems, [item.source for item in loaded])
+
+
+def _mark_span(item: Loaded) -> Span:
+    from .syntax import Member as MemberStmt
+    for _, st in item.document.statements:
+        if isinstance(st, MemberStmt):
+            return st.mark.span
+    return item.member.span
+
+
+def _shown(path: Path) -> str:
+    """Paths are shown as given, relative where they are relative (no absolute paths in output)."""
+    return path.as_posix()

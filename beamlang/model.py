@@ -1,0 +1,151 @@
+"""The member model: frozen, validated, exact SI values (Fractions), each with its source span."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from . import syntax as s
+from .source import Span
+
+
+@dataclass(frozen=True, slots=True)
+class Material:
+    name: str | None
+    E: Fraction  # Pa
+    yield_strength: Fraction | None  # Pa
+    density: Fraction | None  # kg/m^3
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class SectionProperties:
+    """Section properties in SI; `formulas` names how each was found, for the calc package."""
+
+    shape: str
+    dimensions: tuple[tuple[str, Fraction], ...]  # (name, metres), canonical order
+    I: Fraction  # m^4
+    A: Fraction | None  # m^2
+    c: Fraction | None  # m, neutral axis to extreme fibre
+    S: Fraction | None  # m^3, I/c or given
+    Q: Fraction | None  # m^3, first moment of area above the neutral axis
+    t: Fraction | None  # m, width at the neutral axis (for V*Q/(I*t))
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Support:
+    kind: str  # fixed | pin | roller | spring
+    x: Fraction  # m
+    stiffness: Fraction | None  # N/m, springs only
+    span: Span
+
+    @property
+    def restrains_rotation(self) -> bool:
+        return self.kind == "fixed"
+
+
+@dataclass(frozen=True, slots=True)
+class PointLoad:
+    x: Fraction
+    force: Fraction  # N, positive up
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class LineLoad:
+    """Load per length varying linearly from w1 at x1 to w2 at x2 (N/m, positive up)."""
+
+    x1: Fraction
+    x2: Fraction
+    w1: Fraction
+    w2: Fraction
+    origin: str  # uniform | linear | self-weight
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class MomentLoad:
+    x: Fraction
+    moment: Fraction  # N*m, positive counterclockwise
+    span: Span
+
+
+Load = PointLoad | LineLoad | MomentLoad
+
+
+@dataclass(frozen=True, slots=True)
+class Case:
+    name: str
+    title: str | None
+    loads: tuple[Load, ...]
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Combination:
+    name: str
+    terms: tuple[tuple[Fraction, str], ...]  # (factor, case name)
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class DeflectionLimit:
+    target: str
+    divisor: Fraction | None  # span/N
+    value: Fraction | None  # m, absolute
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class StressCheck:
+    target: str
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class ReportPoint:
+    x: Fraction
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Member:
+    mark: str
+    title: str
+    fields: tuple[tuple[str, str], ...]  # title block, canonical order
+    units: str  # si | us
+    length: Fraction  # m
+    material: Material
+    section: SectionProperties
+    supports: tuple[Support, ...]  # sorted by x
+    cases: tuple[Case, ...]
+    combinations: tuple[Combination, ...]
+    limits: tuple[DeflectionLimit, ...]
+    stress_checks: tuple[StressCheck, ...]
+    report_points: tuple[ReportPoint, ...]
+    notes: tuple[str, ...]
+    document: s.Document  # the syntax it was built from: author's units, comments, spans
+    span: Span
+
+    def case(self, name: str) -> Case:
+        for case in self.cases:
+            if case.name == name:
+                return case
+        raise KeyError(name)
+
+    @property
+    def targets(self) -> tuple[str, ...]:
+        """Names that limits and checks may refer to: every case, then every combination."""
+        return tuple(c.name for c in self.cases) + tuple(c.name for c in self.combinations)
+
+
+def essence(obj: object) -> object:
+    """The design content of a model object: nested tuples without spans or syntax (for comparisons)."""
+    if hasattr(obj, "__dataclass_fields__"):
+        return (type(obj).__name__,) + tuple(
+            (name, essence(getattr(obj, name))) for name in obj.__dataclass_fields__
+            if name not in ("span", "document"))
+    if isinstance(obj, tuple):
+        return tuple(essence(item) for item in obj)
+    return obj

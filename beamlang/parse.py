@@ -1,0 +1,311 @@
+"""Parse: source text -> syntax Document (lark, one statement per line), errors with carets."""
+
+from __future__ import annotations
+
+import difflib
+from functools import lru_cache
+from pathlib import Path
+
+from lark import Lark, Token, Transformer, Tree, v_args
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
+
+from . import syntax as s
+from .errors import BeamError, Collector
+from .source import Source, Span
+
+KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
+            "material", "section", "support", "case", "point", "uniform", "linear", "moment",
+            "self-weight", "combine", "limit", "check", "report", "note")
+SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
+SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
+TERMINAL_WORDS = {
+    "NUMBER": "a number", "UNIT": "a unit", "NAME": "a name", "MARK": "a member mark",
+    "STRING": 'a quoted text "..."', "FORCE_DIR": "`down` or `up`",
+    "TURN_DIR": "`clockwise` or `counterclockwise`", "SHAPE": "a section shape",
+    "SUPPORT_KIND": "a support kind", "SYSTEM": "`si` or `us`", "FIELD": "a title-block field",
+    "AT": "`at`", "TO": "`to`", "FROM": "`from`", "SPAN": "`span`", "EQUAL": "`=`", "PLUS": "`+`",
+    "SLASH": "`/`", "MINUS": "`-`", "X": "`x`", "$END": "the end of the line", "COMMENT": "a comment",
+    "DEFLECTION": "`deflection`", "STRESS": "`stress`",
+}
+
+
+def grammar_path() -> Path:
+    """Locate grammar/beam.lark: inside the installed package, or beside it in a source tree."""
+    here = Path(__file__).resolve().parent
+    for candidate in (here / "grammar" / "beam.lark", here.parent / "grammar" / "beam.lark"):
+        if candidate.is_file():
+            return candidate
+    raise RuntimeError("internal error: grammar/beam.lark is missing from this installation")
+
+
+@lru_cache(maxsize=1)
+def _parser() -> Lark:
+    path = grammar_path()
+    return Lark(path.read_text(encoding="utf-8"), parser="lalr", propagate_positions=True,
+                maybe_placeholders=False, cache=True)
+
+
+def parse(source: Source) -> s.Document:
+    """Parse a whole file; every bad line is reported, not only the first."""
+    errors = Collector(source)
+    lines = []
+    for number, text in enumerate(source.text.splitlines(), start=1):
+        line = _parse_line(source, number, text, errors)
+        if line is not None:
+            lines.append(line)
+    errors.raise_if_any()
+    return s.Document(source, tuple(lines))
+
+
+def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.Line | None:
+    indented = text[:1] in (" ", "\t")
+    try:
+        tree = _parser().parse(text)
+    except UnexpectedInput as exc:
+        errors.error(*_explain(source, number, text, exc))
+        return None
+    try:
+        statement, comment = _Build(source, number).transform(tree)
+    except VisitError as exc:  # a bug of ours inside the transformer, never the user's
+        raise exc.orig_exc from exc
+    return s.Line(number, indented, statement, comment)
+
+
+def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tuple[Span, str, str | None]:
+    """Turn a lark error into a message a person can act on."""
+    col = getattr(exc, "column", len(text) + 1)
+    if isinstance(exc, UnexpectedEOF) or col is None or col < 1:
+        col = len(text.rstrip()) + 1
+    word = _word_at(text, col)
+    span = source.span(number, col, col + max(1, len(word)))
+    expected = _accepted(text, exc)
+    if isinstance(exc, UnexpectedToken) and exc.token.type == "$END":
+        word, span = "", source.span(number, col, col + 1)
+    first = len(text) - len(text.lstrip()) + 1
+    if col == first:
+        return span, f"unknown statement '{word}'", _suggest(word, KEYWORDS, "statements")
+    if word.startswith("-") and "NUMBER" in expected | {"NUMBER"} and word[1:2].isdigit():
+        return span, "numbers are written without a sign", "give the sense with a word: `down`/`up` for forces, `clockwise`/`counterclockwise` for moments"
+    if "FORCE_DIR" in expected:
+        return span, "missing direction: a force or line load needs `down` or `up`", "for example `point 12 kN down at 2 m`"
+    if "TURN_DIR" in expected:
+        return span, "missing direction: a moment needs `clockwise` or `counterclockwise`", "for example `moment 3 kN*m clockwise at 0 m`"
+    if expected == {"UNIT"}:
+        return span, "this number needs its unit", "write the unit after the number, for example `5.4 m` or `12 kN`"
+    if "SHAPE" in expected:
+        return span, f"unknown section shape '{word}'", _suggest(word, SHAPES, "shapes")
+    if "SUPPORT_KIND" in expected:
+        return span, f"unknown support kind '{word}'", _suggest(word, SUPPORT_KINDS, "supports")
+    if "SYSTEM" in expected:
+        return span, f"unknown unit system '{word}'", "write `units si` or `units us`"
+    if isinstance(exc, UnexpectedCharacters) and text[col - 1:col] == '"':
+        return source.span(number, col, col + 1), "this text has no closing quote", 'end it with "'
+    if isinstance(exc, UnexpectedCharacters) and not expected & {"NUMBER", "NAME", "MARK", "UNIT"}:
+        shown = text[col - 1] if col <= len(text) else ""
+        return source.span(number, col, col + 1), f"unexpected character '{shown}'", _expected(expected)
+    shown = f"'{word}'" if word else "end of line"
+    return span, f"unexpected {shown}", _expected(expected)
+
+
+def _accepted(text: str, exc: UnexpectedInput) -> set[str]:
+    """The terminals the parser really accepts where it stopped (LALR merges look-aheads)."""
+    fallback = set(getattr(exc, "expected", None) or getattr(exc, "allowed", None) or ())
+    interactive = _parser().parse_interactive(text)
+    try:
+        for _ in interactive.iter_parse():
+            pass
+        interactive.feed_eof()
+    except UnexpectedInput:
+        pass
+    try:
+        return set(interactive.accepts()) or fallback
+    except UnexpectedInput:
+        return fallback
+
+
+def _word_at(text: str, col: int) -> str:
+    rest = text[col - 1:]
+    word = rest.split()[0] if rest.split() else ""
+    return word
+
+
+def _suggest(word: str, choices: tuple[str, ...], what: str) -> str:
+    close = difflib.get_close_matches(word, choices, n=1, cutoff=0.6)
+    if close:
+        return f"did you mean '{close[0]}'?"
+    return f"the {what} are: " + ", ".join(choices)
+
+
+def _expected(expected: set[str]) -> str | None:
+    words = sorted({TERMINAL_WORDS.get(name, f"`{name.lower()}`") for name in expected
+                    if not name.startswith("__") and name != "COMMENT"})
+    if not words:
+        return None
+    return "expected " + (words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1])
+
+
+def _unquote(text: str) -> str:
+    body, out, i = text[1:-1], [], 0
+    while i < len(body):
+        if body[i] == "\\" and i + 1 < len(body):
+            i += 1
+        out.append(body[i])
+        i += 1
+    return "".join(out)
+
+
+@v_args(inline=True, meta=False)
+class _Build(Transformer):
+    """Tree -> (statement or None, comment or None); one method per grammar rule."""
+
+    def __init__(self, source: Source, line: int):
+        super().__init__()
+        self.source, self.line = source, line
+
+    def _span(self, first: Token | Span, last: Token | Span | None = None) -> Span:
+        last = last if last is not None else first
+        col = first.col if isinstance(first, Span) else first.column
+        end = last.end_col if isinstance(last, Span) else last.end_column
+        return Span(self.source.name, self.line, col, end)
+
+    def _name(self, token: Token) -> s.Name:
+        return s.Name(str(token), self._span(token))
+
+    def _stmt_span(self, *parts) -> Span:
+        """The statement's span: from its keyword (first column) to its last part."""
+        text = self.source.line_text(self.line)
+        first = len(text) - len(text.lstrip()) + 1
+        code = text.split("#", 1)[0].rstrip() if '"' not in text else text.rstrip()
+        return Span(self.source.name, self.line, first, max(first + 1, len(code) + 1))
+
+    def start(self, *items):
+        statement = next((i for i in items if not isinstance(i, Token)), None)
+        comment = next((str(i) for i in items if isinstance(i, Token) and i.type == "COMMENT"), None)
+        return statement, comment
+
+    def quantity(self, number: Token, unit: Token) -> s.Quantity:
+        return s.Quantity(str(number), str(unit), self._span(number, unit), self._span(unit))
+
+    def at_length(self, q: s.Quantity) -> s.Position:
+        return s.Position("length", q, None, q.span)
+
+    def at_end(self) -> s.Position:
+        return s.Position("end", None, None, self._find("span"))
+
+    def at_fraction(self, divisor: Token) -> s.Position:
+        start = self._find("span", before=divisor.column)
+        return s.Position("fraction", None, str(divisor), self._span(start, divisor))
+
+    def at_from_end(self, q: s.Quantity) -> s.Position:
+        start = self._find("span", before=q.span.col)
+        return s.Position("from_end", q, None, self._span(start, q.span))
+
+    def _find(self, word: str, before: int | None = None) -> Span:
+        """Span of the last `word` on the line that starts before column `before`."""
+        text = self.source.line_text(self.line)
+        limit = (before - 1) if before else len(text)
+        col = text.rfind(word, 0, limit) + 1
+        return Span(self.source.name, self.line, col, col + len(word))
+
+    def property(self, name: Token, value: s.Quantity, second: s.Quantity | None = None) -> s.Property:
+        end = second.span if second else value.span
+        return s.Property(self._name(name), value, second, self._span(name, end))
+
+    def member(self, mark: Token, title: Token) -> s.Member:
+        return s.Member(self._name(mark), _unquote(str(title)), self._stmt_span())
+
+    def field(self, name: Token, text: Token) -> s.Field:
+        return s.Field(str(name), _unquote(str(text)), self._stmt_span())
+
+    def units(self, system: Token) -> s.Units:
+        return s.Units(self._name(system), self._stmt_span())
+
+    def span(self, q: s.Quantity) -> s.SpanLength:
+        return s.SpanLength(q, self._stmt_span())
+
+    def material(self, *items) -> s.Material:
+        name = self._name(items[0]) if isinstance(items[0], Token) else None
+        props = tuple(i for i in items if isinstance(i, s.Property))
+        return s.Material(name, props, self._stmt_span())
+
+    def section(self, shape: Token, *props: s.Property) -> s.Section:
+        return s.Section(self._name(shape), props, self._stmt_span())
+
+    def support(self, kind: Token, *rest) -> s.Support:
+        stiffness = rest[0] if len(rest) == 2 else None
+        return s.Support(self._name(kind), stiffness, rest[-1], self._stmt_span())
+
+    def case(self, name: Token, title: Token | None = None) -> s.Case:
+        return s.Case(self._name(name), _unquote(str(title)) if title else None, self._stmt_span())
+
+    def point(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Point:
+        return s.Point(q, self._name(direction), at, self._stmt_span())
+
+    def uniform(self, q: s.Quantity, direction: Token, start: s.Position | None = None,
+                end: s.Position | None = None) -> s.Uniform:
+        return s.Uniform(q, self._name(direction), start, end, self._stmt_span())
+
+    def linear(self, q1: s.Quantity, q2: s.Quantity, direction: Token, start: s.Position,
+               end: s.Position) -> s.Linear:
+        return s.Linear(q1, q2, self._name(direction), start, end, self._stmt_span())
+
+    def moment(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Moment:
+        return s.Moment(q, self._name(direction), at, self._stmt_span())
+
+    def selfweight(self) -> s.SelfWeight:
+        return s.SelfWeight(self._stmt_span())
+
+    def term(self, *items: Token) -> s.Term:
+        factor = str(items[0]) if len(items) == 2 else None
+        return s.Term(factor, self._name(items[-1]))
+
+    def combine(self, name: Token, *terms: s.Term) -> s.Combine:
+        return s.Combine(self._name(name), terms, self._stmt_span())
+
+    def span_ratio(self, divisor: Token) -> tuple[str, None]:
+        return str(divisor), None
+
+    def absolute(self, q: s.Quantity) -> tuple[None, s.Quantity]:
+        return None, q
+
+    def limit(self, target: Token, allowance: tuple) -> s.Limit:
+        return s.Limit(self._name(target), allowance[0], allowance[1], self._stmt_span())
+
+    def stress(self, target: Token) -> s.StressCheck:
+        return s.StressCheck(self._name(target), self._stmt_span())
+
+    def report(self, at: s.Position) -> s.Report:
+        return s.Report(at, self._stmt_span())
+
+    def note(self, text: Token) -> s.Note:
+        return s.Note(_unquote(str(text)), self._stmt_span())
+
+
+def read_source(path: str | Path, shown_as: str | None = None) -> Source:
+    """Read a file as UTF-8 text; a missing or undecodable file is a user error."""
+    name = shown_as or str(path)
+    try:
+        data = Path(path).read_bytes()
+    except FileNotFoundError:
+        raise BeamError([_file_diag(name, "no such file")]) from None
+    except IsADirectoryError:
+        raise BeamError([_file_diag(name, "is a folder, not a .beam file")]) from None
+    except OSError as exc:
+        raise BeamError([_file_diag(name, f"cannot read file ({exc.strerror})")]) from None
+    try:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError as exc:
+        line = data[:exc.start].count(b"\n") + 1
+        col = exc.start - (data.rfind(b"\n", 0, exc.start) + 1) + 1
+        raise BeamError([_diag(Span(name, line, col, col + 1), "file is not UTF-8 text",
+                               "save the file as UTF-8")]) from None
+    return Source(name, text.removeprefix("\ufeff"))
+
+
+def _file_diag(name: str, message: str):
+    return _diag(Span(name, 1, 1, 2), message, None)
+
+
+def _diag(span: Span, message: str, hint: str | None):
+    from .errors import Diagnostic
+    return Diagnostic(span, message, hint)

@@ -1,0 +1,216 @@
+"""Syntax objects: what each line of a `.beam` file says, as written, with spans."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from .source import Source, Span
+
+
+@dataclass(frozen=True, slots=True)
+class Name:
+    text: str
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Quantity:
+    """A number and its unit exactly as the author wrote them."""
+
+    number: str
+    unit: str
+    span: Span
+    unit_span: Span
+
+    def __str__(self) -> str:
+        return f"{self.number} {self.unit}"
+
+
+@dataclass(frozen=True, slots=True)
+class Position:
+    """`at 2 m`, `at span`, `at span/2`, `at span - 1.2 m`."""
+
+    form: str  # "length" | "end" | "fraction" | "from_end"
+    quantity: Quantity | None
+    divisor: str | None
+    span: Span
+
+    def __str__(self) -> str:
+        if self.form == "length":
+            return str(self.quantity)
+        if self.form == "end":
+            return "span"
+        if self.form == "fraction":
+            return f"span/{self.divisor}"
+        return f"span - {self.quantity}"
+
+
+@dataclass(frozen=True, slots=True)
+class Property:
+    """`E 200 GPa`, `depth 250 mm`, `flange 150 mm x 12 mm`."""
+
+    name: Name
+    value: Quantity
+    second: Quantity | None
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Member:
+    mark: Name
+    title: str
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Field:
+    name: str  # project | job | by | checked | date | revision
+    text: str
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Units:
+    system: Name  # si | us
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class SpanLength:
+    length: Quantity
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Material:
+    name: Name | None
+    properties: tuple[Property, ...]
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Section:
+    shape: Name
+    properties: tuple[Property, ...]
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Support:
+    kind: Name  # fixed | pin | roller | spring
+    stiffness: Quantity | None
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Case:
+    name: Name
+    title: str | None
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Point:
+    force: Quantity
+    direction: Name
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Uniform:
+    intensity: Quantity
+    direction: Name
+    start: Position | None
+    end: Position | None
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Linear:
+    start_intensity: Quantity
+    end_intensity: Quantity
+    direction: Name
+    start: Position
+    end: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Moment:
+    moment: Quantity
+    direction: Name
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class SelfWeight:
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Term:
+    factor: str | None
+    case: Name
+
+
+@dataclass(frozen=True, slots=True)
+class Combine:
+    name: Name
+    terms: tuple[Term, ...]
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Limit:
+    target: Name
+    divisor: str | None  # span/N
+    value: Quantity | None  # absolute
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class StressCheck:
+    target: Name
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Report:
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Note:
+    text: str
+    span: Span
+
+
+Statement = (
+    Member | Field | Units | SpanLength | Material | Section | Support | Case | Point | Uniform
+    | Linear | Moment | SelfWeight | Combine | Limit | StressCheck | Report | Note
+)
+LOADS = (Point, Uniform, Linear, Moment, SelfWeight)
+
+
+@dataclass(frozen=True, slots=True)
+class Line:
+    """One physical line: its indentation, statement and trailing comment (each may be absent)."""
+
+    number: int
+    indented: bool
+    statement: Statement | None
+    comment: str | None
+
+
+@dataclass(frozen=True, slots=True)
+class Document:
+    source: Source
+    lines: tuple[Line, ...]
+
+    @property
+    def statements(self) -> tuple[tuple[Line, Statement], ...]:
+        return tuple((ln, ln.statement) for ln in self.lines if ln.statement is not None)

@@ -1,0 +1,110 @@
+"""Units at the edge: a quantity as written -> exact SI Fraction (one pint registry, exact factors)."""
+
+from __future__ import annotations
+
+import difflib
+from dataclasses import dataclass
+from fractions import Fraction
+from functools import lru_cache
+
+from .errors import Diagnostic
+from .syntax import Quantity
+
+KINDS = {
+    "length": "[length]",
+    "force": "[force]",
+    "moment": "[force]*[length]",
+    "force per length": "[force]/[length]",
+    "stress": "[pressure]",
+    "density": "[mass]/[length]**3",
+    "second moment of area": "[length]**4",
+    "section modulus": "[length]**3",
+    "area": "[length]**2",
+    "angle": "[]",
+}
+EXAMPLE_UNIT = {
+    "length": "m", "force": "kN", "moment": "kN*m", "force per length": "kN/m", "stress": "MPa",
+    "density": "kg/m^3", "second moment of area": "mm^4", "section modulus": "mm^3", "area": "mm^2",
+    "angle": "rad",
+}
+COMMON_UNITS = ("m", "mm", "cm", "km", "ft", "in", "N", "kN", "MN", "lbf", "kip", "Pa", "kPa", "MPa",
+                "GPa", "psi", "ksi", "kN/m", "N/mm", "kip/ft", "lbf/ft", "lbf/in", "kN*m", "N*m",
+                "kip*ft", "kip*in", "lbf*ft", "kg/m^3", "lb/ft^3", "mm^4", "in^4", "cm^4", "m^4",
+                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad")
+STANDARD_GRAVITY = Fraction(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
+
+
+@dataclass(frozen=True, slots=True)
+class Factor:
+    """How one unit spelling converts to SI: value_SI = number * factor."""
+
+    unit: str
+    si_unit: str
+    factor: Fraction
+    kind: str | None
+
+
+class UnitProblem(Exception):
+    def __init__(self, diagnostic: Diagnostic):
+        super().__init__(diagnostic.message)
+        self.diagnostic = diagnostic
+
+
+@lru_cache(maxsize=1)
+def registry():
+    """The one pint registry of the process, with exact Fraction arithmetic."""
+    import pint
+    return pint.UnitRegistry(non_int_type=Fraction, cache_folder=":auto:")
+
+
+@lru_cache(maxsize=1)
+def _dimensions() -> dict[str, object]:
+    ureg = registry()
+    return {name: ureg.get_dimensionality(dim) for name, dim in KINDS.items()}
+
+
+def _pint_text(unit: str) -> str:
+    return unit.replace("^", "**").replace("\u00b7", "*").replace("\u00b5", "u").replace("\u03bc", "u")
+
+
+@lru_cache(maxsize=512)
+def factor_of(unit: str) -> Factor | None:
+    """The exact SI factor of a unit spelling, or None when pint does not know it."""
+    import pint
+    ureg = registry()
+    try:
+        q = ureg.Quantity(Fraction(1), _pint_text(unit)).to_base_units()
+    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
+            TypeError, ValueError, SyntaxError, AssertionError, KeyError):
+        return None
+    if isinstance(q.magnitude, (int, float)) and not isinstance(q.magnitude, Fraction):
+        magnitude = Fraction(q.magnitude)
+    else:
+        magnitude = Fraction(q.magnitude)
+    kind = next((n for n, d in _dimensions().items() if d == q.dimensionality), None)
+    return Factor(unit, _si_unit(kind), magnitude, kind)
+
+
+def _si_unit(kind: str | None) -> str:
+    return {"length": "m", "force": "N", "moment": "N*m", "force per length": "N/m", "stress": "Pa",
+            "density": "kg/m^3", "second moment of area": "m^4", "section modulus": "m^3",
+            "area": "m^2", "angle": "rad"}.get(kind or "", "?")
+
+
+def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fraction:
+    """Convert a written quantity to exact SI, checking that it is the expected kind."""
+    f = factor_of(q.unit)
+    if f is None:
+        close = difflib.get_close_matches(q.unit, COMMON_UNITS, n=1, cutoff=0.5)
+        extra = f"did you mean '{close[0]}'?" if close else "units are written like m, mm, ft, kN, kip, kN/m, kN*m, MPa, mm^4"
+        raise UnitProblem(Diagnostic(q.unit_span, f"unknown unit '{q.unit}'", extra))
+    if f.kind != kind:
+        got = f"a {f.kind}" if f.kind else "not a unit this language uses"
+        message = f"{what} must be a {kind} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
+        raise UnitProblem(Diagnostic(q.span, message, hint))
+    return Fraction(q.number) * f.factor
+
+
+def is_us(unit: str) -> bool:
+    """True for US customary length spellings (used to pick the default report units)."""
+    return _pint_text(unit).strip() in {"ft", "foot", "feet", "in", "inch", "inches", "yd", "yard"}
