@@ -141,7 +141,7 @@ class _Builder:
     def _material(self, st: s.Material | None) -> m.Material | None:
         if st is None:
             return None
-        values = self._properties(st.properties, MATERIAL_PROPERTIES, "material properties")
+        values = self._properties(st.properties, MATERIAL_PROPERTIES, "material property", "material properties")
         if "E" not in values and not any(p.name.text == "E" for p in st.properties):
             self.errors.error(st.span, "the material has no elastic modulus E", "for example `E 200 GPa`")
         if any(v is None for v in values.values()) or "E" not in values:
@@ -149,19 +149,19 @@ class _Builder:
         return m.Material(st.name.text if st.name else None, values["E"], values.get("yield"),
                           values.get("density"), st.span)
 
-    def _properties(self, props, kinds: dict[str, str], what: str) -> dict[str, Fraction | None]:
+    def _properties(self, props, kinds: dict[str, str], one: str, many: str) -> dict[str, Fraction | None]:
         values: dict[str, Fraction | None] = {}
         for p in props:
             name = p.name.text
             if name not in kinds:
-                self.errors.error(p.name.span, f"unknown {what[:-1]} '{name}'", self.suggest(name, kinds, what))
+                self.errors.error(p.name.span, f"unknown {one} '{name}'", self.suggest(name, kinds, many))
                 continue
             if name in values:
                 self.errors.error(p.name.span, f"'{name}' is given twice")
                 continue
             if p.second is not None and name != "flange":
                 self.errors.error(p.second.span, f"'{name}' takes one value", "only `flange` is written as width x thickness")
-            values[name] = self.positive(p.value, kinds[name], _DESCRIBE.get(name, name))
+            values[name] = self.positive(p.value, kinds[name], _DESCRIBE.get(name, f"the {name}"))
         return values
 
     def _section(self, st: s.Section | None) -> m.SectionProperties | None:
@@ -170,10 +170,11 @@ class _Builder:
         shape = st.shape.text
         required, optional = SHAPE_DIMENSIONS[shape]
         kinds = {n: DIMENSION_KIND.get(n, "length") for n in required + optional}
-        values = self._properties(st.properties, kinds, f"dimensions of a {shape}")
+        values = self._properties(st.properties, kinds, f"{shape} dimension", f"{shape} dimensions")
         missing = [n for n in required if n not in values]
-        if missing:
+        if missing and all(p.name.text in kinds for p in st.properties):
             self.errors.error(st.span, f"a {shape} section needs {', '.join(missing)}", _SECTION_EXAMPLES[shape])
+        if missing:
             return None
         flange_t = None
         if shape == "I-shape":
@@ -264,7 +265,8 @@ class _Builder:
             x = self.position(st.at, "load position")
             return None if P is None or x is None else m.PointLoad(x, _sign(st.direction.text) * P, st.span)
         if isinstance(st, s.Moment):
-            M = self.si(st.moment, "moment", "a moment", "write a moment as force times length, e.g. `3 kN*m`")
+            M = self.si(st.moment, "moment", "a concentrated moment", _hint_for(st.moment, "force",
+                        "for a single force, did you mean `point`?"))
             x = self.position(st.at, "moment position")
             sign = 1 if st.direction.text == "counterclockwise" else -1
             return None if M is None or x is None else m.MomentLoad(x, sign * M, st.span)
@@ -312,10 +314,15 @@ class _Builder:
             if c.name in seen:
                 self.errors.error(c.span, f"a second case named '{c.name}'",
                                   f"the first is on line {seen[c.name].span.line}; case names must differ")
-            elif not c.loads:
+            elif not c.loads and not self._has_load_lines(c):
                 self.errors.error(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
             seen.setdefault(c.name, c)
         return set(seen)
+
+    def _has_load_lines(self, case: m.Case) -> bool:
+        """True when load lines follow the case line (their own errors are reported instead)."""
+        lines = [ln for ln in self.doc.lines if ln.number > case.span.line and ln.statement is not None]
+        return bool(lines) and isinstance(lines[0].statement, s.LOADS)
 
     # -- combinations, limits, checks ------------------------------------------------------
     def _combinations(self, stmts: list[s.Combine], cases: set[str]) -> tuple[m.Combination, ...]:

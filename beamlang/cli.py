@@ -53,7 +53,7 @@ def _parser() -> argparse.ArgumentParser:
 
 def _each(paths: list[str]):
     """Load every file, collecting input errors so that all are reported; yields the good ones."""
-    from .frontend import expand, load
+    from .frontend import check_unique_marks, expand, load
     files = expand(paths)
     if not files:
         print("beamlang: no .beam files found in " + " ".join(paths), file=sys.stderr)
@@ -64,6 +64,10 @@ def _each(paths: list[str]):
             loaded.append(load(path))
         except BeamError as exc:
             errors.append(exc)
+    try:
+        check_unique_marks(loaded)
+    except BeamError as exc:
+        errors.append(exc)
     return loaded, errors, bool(files)
 
 

@@ -85,9 +85,12 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     if col == first:
         return span, f"unknown statement '{word}'", _suggest(word, KEYWORDS, "statements")
     if word.startswith("-") and "NUMBER" in expected | {"NUMBER"} and word[1:2].isdigit():
-        return span, "numbers are written without a sign", "give the sense with a word: `down`/`up` for forces, `clockwise`/`counterclockwise` for moments"
+        return span, "numbers are written without a sign", ("lengths, sizes and positions are positive; loads take a "
+                                                             "direction word: `down`/`up`, `clockwise`/`counterclockwise`")
     if "FORCE_DIR" in expected:
-        return span, "missing direction: a force or line load needs `down` or `up`", "for example `point 12 kN down at 2 m`"
+        keyword = text.split()[0] if text.split() else ""
+        example = _DIRECTION_EXAMPLES.get(keyword, _DIRECTION_EXAMPLES["point"])
+        return span, "missing direction: a force or line load needs `down` or `up`", f"for example `{example}`"
     if "TURN_DIR" in expected:
         return span, "missing direction: a moment needs `clockwise` or `counterclockwise`", "for example `moment 3 kN*m clockwise at 0 m`"
     if expected == {"UNIT"}:
@@ -105,6 +108,10 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
         return source.span(number, col, col + 1), f"unexpected character '{shown}'", _expected(expected)
     shown = f"'{word}'" if word else "end of line"
     return span, f"unexpected {shown}", _expected(expected)
+
+
+_DIRECTION_EXAMPLES = {"point": "point 12 kN down at 2 m", "uniform": "uniform 2.5 kN/m down",
+                       "linear": "linear 0 kN/m to 4 kN/m down from 3 m to 5.4 m"}
 
 
 def _accepted(text: str, exc: UnexpectedInput) -> set[str]:

@@ -77,10 +77,7 @@ def factor_of(unit: str) -> Factor | None:
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
             TypeError, ValueError, SyntaxError, AssertionError, KeyError):
         return None
-    if isinstance(q.magnitude, (int, float)) and not isinstance(q.magnitude, Fraction):
-        magnitude = Fraction(q.magnitude)
-    else:
-        magnitude = Fraction(q.magnitude)
+    magnitude = Fraction(q.magnitude)
     kind = next((n for n, d in _dimensions().items() if d == q.dimensionality), None)
     return Factor(unit, _si_unit(kind), magnitude, kind)
 
@@ -99,10 +96,15 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         extra = f"did you mean '{close[0]}'?" if close else "units are written like m, mm, ft, kN, kip, kN/m, kN*m, MPa, mm^4"
         raise UnitProblem(Diagnostic(q.unit_span, f"unknown unit '{q.unit}'", extra))
     if f.kind != kind:
-        got = f"a {f.kind}" if f.kind else "not a unit this language uses"
-        message = f"{what} must be a {kind} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
+        got = _article(f.kind) if f.kind else "not a unit this language uses"
+        label = "a force times a length" if kind == "moment" else _article(kind)
+        message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
         raise UnitProblem(Diagnostic(q.span, message, hint))
     return Fraction(q.number) * f.factor
+
+
+def _article(kind: str) -> str:
+    return ("an " if kind[0] in "aeiou" else "a ") + kind
 
 
 def is_us(unit: str) -> bool:
