@@ -90,9 +90,13 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     if "FORCE_DIR" in expected:
         keyword = text.split()[0] if text.split() else ""
         example = _DIRECTION_EXAMPLES.get(keyword, _DIRECTION_EXAMPLES["point"])
-        return span, "missing direction: a force or line load needs `down` or `up`", f"for example `{example}`"
+        close = difflib.get_close_matches(word, ("down", "up"), n=1, cutoff=0.5)
+        hint = f"did you mean '{close[0]}'?" if close else f"for example `{example}`"
+        return span, "missing direction: a force or line load needs `down` or `up`", hint
     if "TURN_DIR" in expected:
-        return span, "missing direction: a moment needs `clockwise` or `counterclockwise`", "for example `moment 3 kN*m clockwise at 0 m`"
+        close = difflib.get_close_matches(word, ("clockwise", "counterclockwise"), n=1, cutoff=0.6)
+        hint = f"did you mean '{close[0]}'?" if close else "for example `moment 3 kN*m clockwise at 0 m`"
+        return span, "missing direction: a moment needs `clockwise` or `counterclockwise`", hint
     if expected == {"UNIT"}:
         return span, "this number needs its unit", "write the unit after the number, for example `5.4 m` or `12 kN`"
     if "SHAPE" in expected:
