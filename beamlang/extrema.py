@@ -1,0 +1,79 @@
+"""Extrema: exact piecewise curves -> located maxima (roots of the derivative, exact or isolated), never sampled."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from .poly import Piecewise, Poly
+from .roots import Root, roots_in
+
+SAME = Fraction(1, 10**12)  # two maxima within this relative difference are the same (symmetry)
+
+
+@dataclass(frozen=True, slots=True)
+class Located:
+    """A value of a curve at a place: x exact when rational, else a refined isolating root."""
+
+    x: Fraction
+    value: Fraction
+    root: Root | None  # set when x is an irrational root of the derivative
+    side: str  # "left", "right" or "" (continuous there)
+    x_all: tuple[Fraction, ...]  # every place where the same extreme value is reached
+
+    @property
+    def exact(self) -> bool:
+        return self.root is None or self.root.exact is not None
+
+
+@dataclass(frozen=True, slots=True)
+class Candidate:
+    """A place examined in an extremum search, with the reason it was examined."""
+
+    x: Fraction
+    value: Fraction
+    reason: str  # "segment end" | "derivative zero"
+    root: Root | None
+    side: str
+    segment: int
+
+
+def candidates(curve: Piecewise, derivative: Piecewise, lo: Fraction, hi: Fraction) -> list[Candidate]:
+    """Both one-sided values at every segment end in [lo, hi], and every interior zero of the derivative."""
+    out: list[Candidate] = []
+    for k, p in enumerate(curve.pieces):
+        a, b = curve.xs[k], curve.xs[k + 1]
+        if a < lo or b > hi:
+            continue
+        out.append(Candidate(a, p(a), "segment end", None, "right", k))
+        for r in roots_in(derivative.pieces[k], a, b):
+            out.append(Candidate(r.x, p(r.x), "derivative zero", None if r.exact is not None else r, "", k))
+        out.append(Candidate(b, p(b), "segment end", None, "left", k))
+    return out
+
+
+def largest(cands: list[Candidate], sign: int) -> Located | None:
+    """The candidate with the largest sign*value, if that is above zero; ties collect every place."""
+    best = max((c for c in cands), key=lambda c: sign * c.value, default=None)
+    if best is None or sign * best.value <= 0:
+        return None
+    target = best.value
+    ties = sorted({c.x for c in cands if abs(c.value - target) <= SAME * abs(target)})
+    first = min((c for c in cands if abs(c.value - target) <= SAME * abs(target)), key=lambda c: c.x)
+    return Located(first.x, first.value, first.root, first.side if _jumps(cands, first.x) else "", tuple(ties))
+
+
+def largest_abs(cands: list[Candidate]) -> Located | None:
+    up, down = largest(cands, 1), largest(cands, -1)
+    if up is None or (down is not None and -down.value > up.value):
+        return down
+    return up
+
+
+def _jumps(cands: list[Candidate], x: Fraction) -> bool:
+    values = {c.value for c in cands if c.x == x}
+    return len(values) > 1
+
+
+def derivative_of(curve: Piecewise) -> Piecewise:
+    return curve.map(Poly.derivative)

@@ -1,0 +1,140 @@
+"""Exact polynomials and piecewise polynomials over Fraction (coefficients ascending, global x)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+from typing import Iterable, Sequence
+
+Number = Fraction | int
+ZERO = Fraction(0)
+
+
+def _trim(coeffs: Iterable) -> tuple:
+    out = list(coeffs)
+    while out and out[-1] == 0:
+        out.pop()
+    return tuple(out)
+
+
+@dataclass(frozen=True, slots=True)
+class Poly:
+    """c0 + c1 x + c2 x^2 + ...; the zero polynomial has no coefficients."""
+
+    coeffs: tuple = ()
+
+    @staticmethod
+    def of(*coeffs) -> "Poly":
+        return Poly(_trim(Fraction(c) for c in coeffs))
+
+    @staticmethod
+    def line_through(x1, y1, x2, y2) -> "Poly":
+        slope = (y2 - y1) / (x2 - x1)
+        return Poly.of(y1 - slope * x1, slope)
+
+    @property
+    def degree(self) -> int:
+        return len(self.coeffs) - 1
+
+    def __bool__(self) -> bool:
+        return bool(self.coeffs)
+
+    def __add__(self, other: "Poly") -> "Poly":
+        n = max(len(self.coeffs), len(other.coeffs))
+        a = self.coeffs + (ZERO,) * (n - len(self.coeffs))
+        b = other.coeffs + (ZERO,) * (n - len(other.coeffs))
+        return Poly(_trim(x + y for x, y in zip(a, b)))
+
+    def __neg__(self) -> "Poly":
+        return Poly(tuple(-c for c in self.coeffs))
+
+    def __sub__(self, other: "Poly") -> "Poly":
+        return self + (-other)
+
+    def __mul__(self, other: "Poly | Number") -> "Poly":
+        if not isinstance(other, Poly):
+            return Poly(_trim(c * other for c in self.coeffs)) if other else Poly()
+        if not self.coeffs or not other.coeffs:
+            return Poly()
+        out = [Fraction(0)] * (len(self.coeffs) + len(other.coeffs) - 1)
+        for i, a in enumerate(self.coeffs):
+            for j, b in enumerate(other.coeffs):
+                out[i + j] += a * b
+        return Poly(_trim(out))
+
+    __rmul__ = __mul__
+
+    def __call__(self, x):
+        acc = 0
+        for c in reversed(self.coeffs):
+            acc = acc * x + c
+        return acc
+
+    def derivative(self) -> "Poly":
+        return Poly(tuple(i * c for i, c in enumerate(self.coeffs) if i))
+
+    def antiderivative(self, at=0, value=0) -> "Poly":
+        """The antiderivative that equals `value` at x = `at`."""
+        raw = Poly(_trim((ZERO,) + tuple(c / (i + 1) for i, c in enumerate(self.coeffs))))
+        return raw + Poly.of(value - raw(at))
+
+    def divmod(self, other: "Poly") -> tuple["Poly", "Poly"]:
+        rem = list(self.coeffs)
+        quo = [Fraction(0)] * max(0, len(rem) - len(other.coeffs) + 1)
+        lead = other.coeffs[-1]
+        while len(rem) >= len(other.coeffs) and rem:
+            shift = len(rem) - len(other.coeffs)
+            factor = rem[-1] / lead
+            quo[shift] = factor
+            for i, c in enumerate(other.coeffs):
+                rem[shift + i] -= factor * c
+            rem = list(_trim(rem))
+        return Poly(_trim(quo)), Poly(_trim(rem))
+
+
+@dataclass(frozen=True, slots=True)
+class Piecewise:
+    """One polynomial per segment [xs[k], xs[k+1]]; all curves of a member share the breakpoints."""
+
+    xs: tuple  # breakpoints, strictly increasing, xs[0] = 0, xs[-1] = L
+    pieces: tuple  # len(xs) - 1 polynomials in global x
+
+    @staticmethod
+    def zero(xs: Sequence) -> "Piecewise":
+        return Piecewise(tuple(xs), tuple(Poly() for _ in range(len(xs) - 1)))
+
+    def __add__(self, other: "Piecewise") -> "Piecewise":
+        assert self.xs == other.xs
+        return Piecewise(self.xs, tuple(a + b for a, b in zip(self.pieces, other.pieces)))
+
+    def __mul__(self, k) -> "Piecewise":
+        return Piecewise(self.xs, tuple(p * k for p in self.pieces))
+
+    __rmul__ = __mul__
+
+    def segment(self, x, side: str = "right") -> int:
+        """Index of the segment holding x; at a breakpoint, the one to its `side`."""
+        xs = self.xs
+        if x <= xs[0]:
+            return 0
+        if x >= xs[-1]:
+            return len(xs) - 2
+        for k in range(len(xs) - 1):
+            if xs[k] < x < xs[k + 1] or (x == xs[k] and side == "right") or (x == xs[k + 1] and side == "left"):
+                return k
+        raise ValueError(x)
+
+    def at(self, x, side: str = "right"):
+        return self.pieces[self.segment(x, side)](x)
+
+    def map(self, fn) -> "Piecewise":
+        return Piecewise(self.xs, tuple(fn(p) for p in self.pieces))
+
+    def integral(self, start_value=0) -> "Piecewise":
+        """Continuous antiderivative equal to `start_value` at xs[0]."""
+        pieces, value = [], start_value
+        for k, p in enumerate(self.pieces):
+            q = p.antiderivative(self.xs[k], value)
+            pieces.append(q)
+            value = q(self.xs[k + 1])
+        return Piecewise(self.xs, tuple(pieces))
