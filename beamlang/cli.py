@@ -46,6 +46,10 @@ def _parser() -> argparse.ArgumentParser:
     fmt.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     fmt.add_argument("--check", action="store_true", help="change nothing; exit 1 listing files that would change")
     fmt.set_defaults(run=_run_fmt)
+    check = sub.add_parser("check", help="solve members and run their checks; exit 1 if any check fails")
+    check.add_argument("paths", nargs="+", metavar="FILES|DIRS")
+    check.add_argument("--json", action="store_true", help="print results.json objects (a list) instead of tables")
+    check.set_defaults(run=_run_check)
     for sp in sub.choices.values():
         sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
     return p
@@ -93,6 +97,24 @@ def _run_fmt(args: argparse.Namespace) -> int:
     if errors or not found:
         return EXIT_INPUT
     return EXIT_FAIL if (args.check and changed) else EXIT_OK
+
+
+def _run_check(args: argparse.Namespace) -> int:
+    import json
+
+    from .pipeline import analyse_loaded
+    loaded, errors, found = _each(args.paths)
+    _report(errors)
+    analyses = [analyse_loaded(item) for item in loaded]
+    if args.json:
+        from .jsonout import member_json
+        print(json.dumps([member_json(a) for a in analyses], indent=2))
+    else:
+        from .table import member_table
+        print("\n".join(member_table(a) for a in analyses), end="")
+    if errors or not found:
+        return EXIT_INPUT
+    return EXIT_OK if all(a.passed for a in analyses) else EXIT_FAIL
 
 
 if __name__ == "__main__":

@@ -1,0 +1,85 @@
+"""Checks: results + member limits -> deflection and elastic stress checks with actual, allowed, ratio, pass."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from .model import Member
+from .results import TargetResult
+from .source import Span
+
+# sqrt(3) to 40 significant digits, for the shear yield fy/sqrt(3) (von Mises) shown in reports;
+# the pass/fail decision itself is exact: 3 tau^2 <= fy^2.
+SQRT3 = Fraction("1.732050807568877293527446341505872366943")
+
+
+@dataclass(frozen=True, slots=True)
+class Check:
+    kind: str  # "deflection" | "bending stress" | "shear stress"
+    target: str
+    actual: Fraction
+    allowed: Fraction
+    unit: str  # SI unit of actual and allowed: "m" or "Pa"
+    passed: bool
+    x: Fraction | None  # governing location
+    basis: str  # how the allowed value was found
+    span: Span
+
+    @property
+    def ratio(self) -> float:
+        return float(self.actual / self.allowed)
+
+
+def run_checks(member: Member, results: tuple[TargetResult, ...]) -> tuple[Check, ...]:
+    """Every `limit deflection` and `check stress` statement, in file order."""
+    by_name = {r.name: r for r in results}
+    out: list[Check] = []
+    for limit in member.limits:
+        out.append(_deflection(limit, by_name[limit.target]))
+    for check in member.stress_checks:
+        out.extend(_stress(member, check, by_name[check.target]))
+    return tuple(sorted(out, key=lambda c: (c.span.line, c.kind)))
+
+
+def _deflection(limit, r: TargetResult) -> Check:
+    if limit.value is not None:
+        worst = max((l for l in (r.max_down, r.max_up) if l is not None), key=lambda l: abs(l.value), default=None)
+        actual = abs(worst.value) if worst else Fraction(0)
+        return Check("deflection", limit.target, actual, limit.value, "m", actual <= limit.value,
+                     worst.x if worst else None, "absolute limit", limit.span)
+    best = None
+    for region in r.regions:
+        allowed = region.basis / limit.divisor
+        actual = abs(region.max_abs.value) if region.max_abs else Fraction(0)
+        if best is None or actual / allowed > best[0] / best[1]:
+            best = (actual, allowed, region)
+    actual, allowed, region = best
+    n = _num(limit.divisor)
+    if region.kind == "span":
+        basis = f"span/{n}, span {_num(region.hi - region.lo)} m from x = {_num(region.lo)} m"
+    else:
+        basis = (f"2 x {region.kind} length / {n}, {region.kind} {_num(region.hi - region.lo)} m "
+                 f"from x = {_num(region.lo)} m (twice the length: common practice)")
+    x = region.max_abs.x if region.max_abs else None
+    return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span)
+
+
+def _stress(member: Member, check, r: TargetResult) -> list[Check]:
+    fy = member.material.yield_strength
+    st = r.stress
+    m_at = max((l for l in (r.moment_positive, r.moment_negative) if l is not None),
+               key=lambda l: abs(l.value), default=None)
+    out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy,
+                 m_at.x if m_at else None, "sigma = M c / I against the yield strength", check.span)]
+    if st.shear is not None:
+        out.append(Check("shear stress", check.target, st.shear, fy / SQRT3, "Pa", 3 * st.shear**2 <= fy**2,
+                         r.shear_max.x if r.shear_max else None,
+                         "tau = V Q / (I t) against fy/sqrt(3) (von Mises)", check.span))
+    return out
+
+
+def _num(value: Fraction) -> str:
+    """A length or count in plain decimals for a basis text."""
+    f = float(value)
+    return f"{f:.6g}"

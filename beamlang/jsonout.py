@@ -1,0 +1,60 @@
+"""JSON: Analysis -> the `beamlang.results/1` object (SI base units, unit in every key)."""
+
+from __future__ import annotations
+
+import hashlib
+from fractions import Fraction
+
+from .extrema import Located
+from .pipeline import Analysis
+from .results import SIGN_CONVENTION, TargetResult
+
+SCHEMA = "beamlang.results/1"
+
+
+def member_json(a: Analysis) -> dict:
+    m = a.loaded.member
+    return {
+        "schema": SCHEMA,
+        "member": m.mark,
+        "title": m.title,
+        "file": a.loaded.source.name,
+        "input_sha256": hashlib.sha256(a.loaded.source.text.encode("utf-8")).hexdigest(),
+        "sign_convention": SIGN_CONVENTION,
+        "results": {r.name: _target(r) for r in a.results},
+        "checks": [{
+            "kind": c.kind, "target": c.target, "actual": float(c.actual), "allowed": float(c.allowed),
+            "unit": c.unit, "ratio": c.ratio, "pass": c.passed,
+            "x_m": _f(c.x), "basis": c.basis} for c in a.checks],
+    }
+
+
+def _f(value: Fraction | None) -> float | None:
+    return None if value is None else float(value)
+
+
+def _at(located: Located | None, key: str) -> dict | None:
+    if located is None:
+        return None
+    out = {"x_m": float(located.x), key: float(located.value),
+           "x_exact": str(located.x) if located.exact else None}
+    if len(located.x_all) > 1:
+        out["x_all_m"] = [float(x) for x in located.x_all]
+    return out
+
+
+def _target(r: TargetResult) -> dict:
+    return {
+        "kind": r.kind,
+        "reactions": [{"x_m": float(x), "force_N": float(f), "moment_Nm": float(mo)} for x, f, mo in r.reactions],
+        "deflection": {"max_down": _at(r.max_down, "value_m"), "max_up": _at(r.max_up, "value_m")},
+        "slope": {"max_abs": _at(r.slope_max, "value_rad"),
+                  "at_supports": [{"x_m": float(x), "value_rad": float(t)} for x, t in r.slope_at_supports]},
+        "moment": {"max_positive": _at(r.moment_positive, "value_Nm"),
+                   "max_negative": _at(r.moment_negative, "value_Nm")},
+        "shear": {"max_abs": _at(r.shear_max, "value_N")},
+        "points": [{"x_m": float(x), "deflection_m": float(v), "slope_rad": float(t)} for x, v, t in r.points],
+        "stress": {"bending_Pa": _f(r.stress.bending), "shear_Pa": _f(r.stress.shear),
+                   "yield_Pa": _f(r.stress.yield_strength), "elastic": r.stress.elastic},
+        "cross_check": {"max_rel_diff": r.cross_check},
+    }

@@ -1,0 +1,34 @@
+"""The compile pipeline in one place: path -> Analysis (model, exact solution, results, checks)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+
+from .checks import Check, run_checks
+from .frontend import Loaded, load
+from .results import TargetResult, evaluate
+from .solve import Solution, solve
+
+
+@dataclass(frozen=True, slots=True)
+class Analysis:
+    loaded: Loaded
+    solution: Solution
+    results: tuple[TargetResult, ...]
+    checks: tuple[Check, ...]
+
+    @property
+    def passed(self) -> bool:
+        return all(c.passed for c in self.checks)
+
+
+def analyse_loaded(item: Loaded) -> Analysis:
+    solution = solve(item.member)            # every load's exact curve, force method, superposed
+    results = evaluate(solution)             # reactions, located extrema, stresses, cross-check
+    checks = run_checks(item.member, results)  # limits and stress against the member's statements
+    return Analysis(item, solution, results, checks)
+
+
+def analyse(path: Path) -> Analysis:
+    return analyse_loaded(load(path))        # read, parse, validate into exact SI, then solve

@@ -1,0 +1,54 @@
+"""Terminal table: Analysis -> a compact text summary per member in its report units."""
+
+from __future__ import annotations
+
+from .display import number, show, unit_for, convert
+from .pipeline import Analysis
+
+
+def member_table(a: Analysis) -> str:
+    m = a.loaded.member
+    u = m.units
+    lines = [f"{m.mark}  {m.title}  ({a.loaded.source.name})"]
+    L = unit_for(u, "length")
+    head = ["case/combination", "max down", f"at ({L})", "max up", f"at ({L})", "M+", "M-",
+            "reactions at " + ", ".join(number(convert(sp.x, L)) for sp in m.supports) + f" {L}"]
+    rows = []
+    for r in a.results:
+        rows.append([
+            r.name,
+            show(r.max_down.value if r.max_down else None, u, "deflection"),
+            number(convert(r.max_down.x, L)) if r.max_down else "-",
+            show(r.max_up.value if r.max_up else None, u, "deflection"),
+            number(convert(r.max_up.x, L)) if r.max_up else "-",
+            show(r.moment_positive.value if r.moment_positive else None, u, "moment"),
+            show(r.moment_negative.value if r.moment_negative else None, u, "moment"),
+            ", ".join(_reaction(f, mo, u) for _, f, mo in r.reactions),
+        ])
+    lines += _grid(head, rows)
+    if a.checks:
+        rows = []
+        for c in a.checks:
+            quantity = "deflection" if c.unit == "m" else "stress"
+            where = f"x = {number(convert(c.x, L))} {L}" if c.x is not None else ""
+            rows.append([f"{c.kind} {c.target}", show(c.actual, u, quantity), show(c.allowed, u, quantity),
+                         f"{c.ratio:.3f}", "PASS" if c.passed else "FAIL", where])
+        lines += [""] + _grid(["check", "actual", "allowed", "ratio", "result", "governs at"], rows)
+        failed = sum(1 for c in a.checks if not c.passed)
+        lines.append(f"  {len(a.checks) - failed} of {len(a.checks)} checks pass" + (f", {failed} FAIL" if failed else ""))
+    else:
+        lines.append("  no checks requested (add `limit deflection ...` or `check stress ...`)")
+    return "\n".join(lines) + "\n"
+
+
+def _reaction(force, moment, u: str) -> str:
+    text = show(force, u, "force")
+    if moment:
+        text += " & " + show(moment, u, "moment")
+    return text
+
+
+def _grid(head: list[str], rows: list[list[str]]) -> list[str]:
+    widths = [max(len(r[i]) for r in [head] + rows) for i in range(len(head))]
+    fmt = lambda r: "  " + "  ".join(c.ljust(w) for c, w in zip(r, widths)).rstrip()  # noqa: E731
+    return [fmt(head)] + [fmt(r) for r in rows]
