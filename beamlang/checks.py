@@ -25,6 +25,7 @@ class Check:
     x: Fraction | None  # governing location
     basis: str  # how the allowed value was found
     span: Span
+    region: str = ""  # span | overhang | cantilever, for span/N limits
 
     @property
     def ratio(self) -> float:
@@ -62,7 +63,8 @@ def _deflection(limit, r: TargetResult) -> Check:
         basis = (f"2 x {region.kind} length / {n}, {region.kind} {_num(region.hi - region.lo)} m "
                  f"from x = {_num(region.lo)} m (twice the length: common practice)")
     x = region.max_abs.x if region.max_abs else None
-    return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span)
+    return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span,
+                 region.kind)
 
 
 def _stress(member: Member, check, r: TargetResult) -> list[Check]:

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from .model import Member
+from .syntax import SpanLength
 from .units import factor_of
 
 REPORT_UNITS = {
@@ -12,8 +14,16 @@ REPORT_UNITS = {
 }
 
 
-def unit_for(system: str, quantity: str) -> str:
-    return REPORT_UNITS[system][quantity]
+SMALL_US = {"length": "in", "moment": "kip*in"}  # members whose span is written in inches
+
+
+def report_units(member: Member) -> dict[str, str]:
+    """The units a member is reported in: by its system, in inches when its span is written in inches."""
+    units = dict(REPORT_UNITS[member.units])
+    span_unit = next((st.length.unit for _, st in member.document.statements if isinstance(st, SpanLength)), "")
+    if member.units == "us" and span_unit in ("in", "inch", "inches"):
+        units.update(SMALL_US)
+    return units
 
 
 def convert(value: Fraction, unit: str) -> Fraction:
@@ -35,8 +45,9 @@ def number(value: Fraction | float | None, digits: int = 4) -> str:
     return text
 
 
-def show(value: Fraction | None, system: str, quantity: str, digits: int = 4) -> str:
+def show(value: Fraction | None, units: dict[str, str], quantity: str, digits: int = 4) -> str:
+    """An SI value in the report unit of its quantity, with the unit."""
     if value is None:
         return "-"
-    unit = unit_for(system, quantity)
+    unit = units[quantity]
     return f"{number(convert(value, unit), digits)} {unit}"

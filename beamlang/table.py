@@ -2,15 +2,15 @@
 
 from __future__ import annotations
 
-from .display import number, show, unit_for, convert
+from .display import convert, number, report_units, show
 from .pipeline import Analysis
 
 
 def member_table(a: Analysis) -> str:
     m = a.loaded.member
-    u = m.units
+    u = report_units(m)
     lines = [f"{m.mark}  {m.title}  ({a.loaded.source.name})"]
-    L = unit_for(u, "length")
+    L = u["length"]
     head = ["case/combination", "max down", f"at ({L})", "max up", f"at ({L})", "M+", "M-",
             "reactions at " + ", ".join(number(convert(sp.x, L)) for sp in m.supports) + f" {L}"]
     rows = []
@@ -31,6 +31,7 @@ def member_table(a: Analysis) -> str:
         for c in a.checks:
             quantity = "deflection" if c.unit == "m" else "stress"
             where = f"x = {number(convert(c.x, L))} {L}" if c.x is not None else ""
+            where += f" ({c.region})" if c.region else ""
             rows.append([f"{c.kind} {c.target}", show(c.actual, u, quantity), show(c.allowed, u, quantity),
                          f"{c.ratio:.3f}", "PASS" if c.passed else "FAIL", where])
         lines += [""] + _grid(["check", "actual", "allowed", "ratio", "result", "governs at"], rows)
@@ -41,7 +42,7 @@ def member_table(a: Analysis) -> str:
     return "\n".join(lines) + "\n"
 
 
-def _reaction(force, moment, u: str) -> str:
+def _reaction(force, moment, u: dict[str, str]) -> str:
     text = show(force, u, "force")
     if moment:
         text += " & " + show(moment, u, "moment")

@@ -7,7 +7,7 @@ import pytest
 from beamlang.cli import main
 from casefiles import UPDATE, case_files, read_case, write_case
 
-COMMANDS = (["fmt", "--check"],)
+COMMANDS = (["fmt", "--check"], ["check"])
 
 
 def run(argv, capsys):
