@@ -58,16 +58,21 @@ def largest(cands: list[Candidate], sign: int) -> Located | None:
     if best is None or sign * best.value <= 0:
         return None
     target = best.value
-    ties = sorted({c.x for c in cands if abs(c.value - target) <= SAME * abs(target)})
-    first = min((c for c in cands if abs(c.value - target) <= SAME * abs(target)), key=lambda c: c.x)
-    return Located(first.x, first.value, first.root, first.side if _jumps(cands, first.x) else "", tuple(ties))
+    floor = sign * float(target) * (1 - 1e-9)  # a float pre-filter, then the exact test
+    tied = [c for c in cands if sign * float(c.value) >= floor and abs(c.value - target) <= SAME * abs(target)]
+    first = min(tied, key=lambda c: c.x)
+    side = first.side if _jumps(cands, first.x) else ""
+    return Located(first.x, first.value, first.root, side, tuple(sorted({c.x for c in tied})))
 
 
 def largest_abs(cands: list[Candidate]) -> Located | None:
+    """The largest magnitude of either sign; equal magnitudes (antisymmetry) give the leftmost."""
     up, down = largest(cands, 1), largest(cands, -1)
-    if up is None or (down is not None and -down.value > up.value):
-        return down
-    return up
+    if up is None or down is None:
+        return up or down
+    if abs(up.value + down.value) <= SAME * up.value:
+        return up if up.x <= down.x else down
+    return down if -down.value > up.value else up
 
 
 def _jumps(cands: list[Candidate], x: Fraction) -> bool:

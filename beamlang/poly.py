@@ -2,8 +2,11 @@
 
 from __future__ import annotations
 
+from bisect import bisect_left, bisect_right
 from dataclasses import dataclass
+from functools import lru_cache
 from fractions import Fraction
+from math import gcd
 from typing import Iterable, Sequence
 
 Number = Fraction | int
@@ -15,6 +18,15 @@ def _trim(coeffs: Iterable) -> tuple:
     while out and out[-1] == 0:
         out.pop()
     return tuple(out)
+
+
+@lru_cache(maxsize=8192)
+def _integer_form(coeffs: tuple) -> tuple[int, list[int]]:
+    """(D, integer coefficients) with p = (sum of ints_i x^i) / D."""
+    D = 1
+    for c in coeffs:
+        D = D * c.denominator // gcd(D, c.denominator)
+    return D, [c.numerator * (D // c.denominator) for c in coeffs]
 
 
 @dataclass(frozen=True, slots=True)
@@ -65,10 +77,22 @@ class Poly:
     __rmul__ = __mul__
 
     def __call__(self, x):
-        acc = 0
-        for c in reversed(self.coeffs):
-            acc = acc * x + c
-        return acc
+        if not isinstance(x, (Fraction, int)) or not self.coeffs:
+            acc = 0
+            for c in reversed(self.coeffs):
+                acc = acc * x + c
+            return acc
+        return self._exact_at(Fraction(x))
+
+    def _exact_at(self, x: Fraction) -> Fraction:
+        """Horner's rule on integers: p(n/d) = sum(c_i n^i d^(k-i)) / (D d^k), one Fraction at the end."""
+        D, ints = _integer_form(self.coeffs)
+        n, d = x.numerator, x.denominator
+        acc, dpow = ints[-1], 1
+        for c in reversed(ints[:-1]):
+            dpow *= d
+            acc = acc * n + c * dpow
+        return Fraction(acc, D * dpow)
 
     def derivative(self) -> "Poly":
         return Poly(tuple(i * c for i, c in enumerate(self.coeffs) if i))
@@ -77,6 +101,15 @@ class Poly:
         """The antiderivative that equals `value` at x = `at`."""
         raw = Poly(_trim((ZERO,) + tuple(c / (i + 1) for i, c in enumerate(self.coeffs))))
         return raw + Poly.of(value - raw(at))
+
+    def taylor(self, a) -> "Poly":
+        """The same polynomial in h = x - a (coefficients of p(a + h))."""
+        out = list(self.coeffs)
+        n = len(out)
+        for i in range(n - 1):
+            for j in range(n - 2, i - 1, -1):
+                out[j] += a * out[j + 1]
+        return Poly(_trim(out))
 
     def divmod(self, other: "Poly") -> tuple["Poly", "Poly"]:
         rem = list(self.coeffs)
@@ -115,14 +148,8 @@ class Piecewise:
     def segment(self, x, side: str = "right") -> int:
         """Index of the segment holding x; at a breakpoint, the one to its `side`."""
         xs = self.xs
-        if x <= xs[0]:
-            return 0
-        if x >= xs[-1]:
-            return len(xs) - 2
-        for k in range(len(xs) - 1):
-            if xs[k] < x < xs[k + 1] or (x == xs[k] and side == "right") or (x == xs[k + 1] and side == "left"):
-                return k
-        raise ValueError(x)
+        k = bisect_right(xs, x) - 1 if side == "right" else bisect_left(xs, x) - 1
+        return min(max(k, 0), len(xs) - 2)
 
     def at(self, x, side: str = "right"):
         return self.pieces[self.segment(x, side)](x)

@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .extrema import Located, candidates, derivative_of, largest, largest_abs
+from .extrema import Candidate, Located, candidates, derivative_of, largest, largest_abs
 from .solve import Solution, Target
 
 SIGN_CONVENTION = ("x from the left end; deflection, loads and reaction forces positive up; bending moment "
@@ -76,11 +76,12 @@ def _target(sol: Solution, t: Target) -> TargetResult:
         tuple((sp.x, c.theta.at(sp.x)) for sp in m.supports),
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
-        regions(sol, t), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t))
+        regions(sol, defl), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t))
 
 
-def regions(sol: Solution, t: Target) -> tuple[Region, ...]:
-    m, c = sol.member, t.curves
+def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
+    """Spans between supports and overhangs, each with its largest deflection (from `defl`)."""
+    m = sol.member
     xs = sorted({sp.x for sp in m.supports})
     bounds = [Fraction(0)] + [x for x in xs if 0 < x < m.length] + [m.length]
     out = []
@@ -88,7 +89,7 @@ def regions(sol: Solution, t: Target) -> tuple[Region, ...]:
         inside = any(x <= lo for x in xs) and any(x >= hi for x in xs)
         kind = "span" if inside else ("cantilever" if len(xs) == 1 and m.supports[0].kind == "fixed" else "overhang")
         basis = hi - lo if inside else 2 * (hi - lo)
-        out.append(Region(lo, hi, kind, basis, largest_abs(candidates(c.v, c.theta, lo, hi))))
+        out.append(Region(lo, hi, kind, basis, largest_abs([d for d in defl if lo <= d.x <= hi])))
     return tuple(out)
 
 
@@ -108,7 +109,7 @@ def _stress(sol: Solution, m_pos: Located | None, m_neg: Located | None, v_max: 
 
 def factored_loads(sol: Solution, t: Target) -> list[tuple[Fraction, object]]:
     if t.kind == "case":
-        return [(Fraction(1), ls.load) for ls in t.loads]
+        return [(Fraction(1), load) for load in t.loads]
     out = []
     for factor, name in t.terms:
         out += [(factor * f, load) for f, load in factored_loads(sol, sol.target(name))]

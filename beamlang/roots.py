@@ -2,12 +2,13 @@
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from fractions import Fraction
 
 from .poly import Poly
 
-REFINE_BITS = 64  # isolating intervals are refined to a width below |x| * 2**-64
+REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
 
 
 @dataclass(frozen=True, slots=True)
@@ -57,7 +58,7 @@ def _changes(seq: list[Poly], x: Fraction) -> int:
 
 def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
     """Every distinct real root of p strictly inside (a, b), in increasing order."""
-    if p.degree < 1 or a >= b:
+    if p.degree < 1 or a >= b or not _may_vanish(p, a, b):
         return []
     q = square_free(p)
     if q.degree == 1:
@@ -81,10 +82,66 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
     return sorted(found, key=lambda r: r.x)
 
 
+def _may_vanish(p: Poly, a: Fraction, b: Fraction) -> bool:
+    """False when p surely has no root in [a, b]: |p(a)| exceeds the Taylor bound of the rest."""
+    c = p.taylor(a).coeffs
+    width = b - a
+    rest, power = Fraction(0), Fraction(1)
+    for ck in c[1:]:
+        power *= width
+        rest += abs(ck) * power
+    return abs(c[0]) <= rest
+
+
 def _refine(q: Poly, lo: Fraction, hi: Fraction) -> Root:
+    """Narrow a simple root's isolating interval to below |x| * 2**-64, exactly verified."""
+    tight = _float_bracket(q, lo, hi)
+    if tight is not None:
+        lo, hi = tight
+    return _bisect(q, lo, hi)
+
+
+def _float_bracket(q: Poly, lo: Fraction, hi: Fraction) -> tuple[Fraction, Fraction] | None:
+    """Safeguarded Newton in floats, then a bracket of a few ulps whose sign change is checked exactly."""
+    coeffs = [float(c) for c in q.coeffs]
+    deriv = [i * c for i, c in enumerate(coeffs)][1:]
+    a, b = float(lo), float(hi)
+    fa = _horner(coeffs, a)
+    if not math.isfinite(fa):
+        return None
+    x = (a + b) / 2
+    for _ in range(200):
+        f = _horner(coeffs, x)
+        if f == 0 or b - a <= abs(x) * 2e-16:
+            break
+        if (f > 0) == (fa > 0):
+            a, fa = x, f
+        else:
+            b = x
+        d = _horner(deriv, x)
+        newton = x - f / d if d else math.nan
+        x = newton if a < newton < b else (a + b) / 2
+    for bits in (48, 40, 30):  # float evaluation loses digits to cancellation: widen until verified
+        width = Fraction(max(abs(x), 1e-300)) * Fraction(1, 2**bits)
+        lo2, hi2 = max(lo, Fraction(x) - width), min(hi, Fraction(x) + width)
+        f_lo, f_hi = q(lo2), q(hi2)
+        if f_lo != 0 and f_hi != 0 and (f_lo > 0) != (f_hi > 0):
+            return lo2, hi2
+    return None
+
+
+def _horner(coeffs: list[float], x: float) -> float:
+    acc = 0.0
+    for c in reversed(coeffs):
+        acc = acc * x + c
+    return acc
+
+
+def _bisect(q: Poly, lo: Fraction, hi: Fraction) -> Root:
     """Bisect a simple root to full double precision; recognise small-denominator rational roots."""
     s_lo = q(lo) > 0
     tol = max(abs(lo), abs(hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+    guessed = False
     while hi - lo > tol:
         mid = (lo + hi) / 2
         value = q(mid)
@@ -94,10 +151,13 @@ def _refine(q: Poly, lo: Fraction, hi: Fraction) -> Root:
             lo = mid
         else:
             hi = mid
-        guess = _rational_guess(q, lo, hi)
-        if guess is not None:
-            return Root(guess, guess, guess, q)
-    return Root(lo, hi, None, q)
+        if not guessed and hi - lo < Fraction(1, 10**9):
+            guessed = True
+            guess = _rational_guess(q, lo, hi)
+            if guess is not None:
+                return Root(guess, guess, guess, q)
+    guess = _rational_guess(q, lo, hi)
+    return Root(guess, guess, guess, q) if guess is not None else Root(lo, hi, None, q)
 
 
 def _rational_guess(q: Poly, lo: Fraction, hi: Fraction) -> Fraction | None:

@@ -51,22 +51,28 @@ class Primary:
 
 @dataclass(frozen=True, slots=True)
 class LoadSolution:
-    load: Load
-    primary: Curves  # the load alone on the primary beam
+    """Loads (one, or a whole case) on the primary beam and on the real member."""
+
+    loads: tuple[Load, ...]
+    primary: Curves  # the loads on the primary beam
     displacements: tuple[Fraction, ...]  # D0: released displacement (or slope) at each redundant
-    redundants: tuple[Fraction, ...]  # X
-    curves: Curves  # the load alone on the real member
+    redundants: tuple[Fraction, ...]  # X, from A X = -D0
+    curves: Curves  # the loads on the real member
 
 
 @dataclass(frozen=True, slots=True)
 class Target:
-    """A case (with its loads) or a combination (with its factored cases)."""
+    """A case (its loads solved together) or a combination (its factored cases)."""
 
     name: str
     kind: str  # "case" | "combination"
-    loads: tuple[LoadSolution, ...]
-    terms: tuple[tuple[Fraction, str], ...]
+    solved: LoadSolution | None  # cases only
+    terms: tuple[tuple[Fraction, str], ...]  # combinations only
     curves: Curves
+
+    @property
+    def loads(self) -> tuple[Load, ...]:
+        return self.solved.loads if self.solved else ()
 
 
 @dataclass(frozen=True, slots=True)
@@ -88,14 +94,18 @@ def solve(member: Member) -> Solution:
     primary = _primary(member, xs, EI)
     targets = []
     for case in member.cases:
-        loads = tuple(_one_load(member, xs, EI, primary, load) for load in case.loads)
-        total = _sum([ls.curves for ls in loads], member, xs)
-        targets.append(Target(case.name, "case", loads, (), total))
+        solved = _solve_loads(member, xs, EI, primary, case.loads)
+        targets.append(Target(case.name, "case", solved, (), solved.curves))
     by_name = {t.name: t for t in targets}
     for combo in member.combinations:
         total = _sum([by_name[name].curves.scaled(f) for f, name in combo.terms], member, xs)
-        targets.append(Target(combo.name, "combination", (), combo.terms, total))
+        targets.append(Target(combo.name, "combination", None, combo.terms, total))
     return Solution(member, xs, EI, primary, tuple(targets))
+
+
+def load_solution(solution: Solution, load: Load) -> LoadSolution:
+    """One load alone on the member: its own elastic curve, for showing the superposition."""
+    return _solve_loads(solution.member, solution.xs, solution.EI, solution.primary, (load,))
 
 
 def _sum(curves: list[Curves], member: Member, xs) -> Curves:
@@ -160,8 +170,8 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
     return c.v.at(x) if r.kind == "force" else c.theta.at(x)
 
 
-def _one_load(member: Member, xs, EI, primary: Primary, load: Load) -> LoadSolution:
-    base = _on_primary(member, xs, EI, primary.kind, primary.kept, [load])
+def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
+    base = _on_primary(member, xs, EI, primary.kind, primary.kept, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
     X = linsolve(primary.flexibility, [-d for d in D0]) if D0 else ()
     total = base
@@ -171,7 +181,7 @@ def _one_load(member: Member, xs, EI, primary: Primary, load: Load) -> LoadSolut
         force, moment = reactions[r.support]
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
         total = total + Curves(part.V, part.M, part.theta, part.v, tuple(reactions))
-    return LoadSolution(load, base, D0, tuple(X), total)
+    return LoadSolution(tuple(loads), base, D0, tuple(X), total)
 
 
 def _on_primary(member: Member, xs, EI, kind: str, kept: tuple[int, ...], loads: list[Load]) -> Curves:

@@ -9,10 +9,11 @@ from .poly import Piecewise, Poly
 
 
 def breakpoints(member: Member) -> tuple[Fraction, ...]:
-    """Every x where a curve may change its formula: ends, supports, loads, report points."""
+    """Every x where a curve may change its formula: ends, supports, load positions and ends.
+
+    Report points are not breakpoints: a curve is simply evaluated there."""
     xs = {Fraction(0), member.length}
     xs.update(sp.x for sp in member.supports)
-    xs.update(p.x for p in member.report_points)
     for case in member.cases:
         for load in case.loads:
             xs.update((load.x1, load.x2) if isinstance(load, LineLoad) else (load.x,))
@@ -43,36 +44,35 @@ def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]
 
 
 def shear_and_moment(xs: tuple[Fraction, ...], loads) -> tuple[Piecewise, Piecewise]:
-    """V(x) = sum of upward forces left of x; M(x) sagging positive, dM/dx = V, dV/dx = w."""
-    V, M = [], []
+    """V(x) = sum of upward forces left of x; M(x) sagging positive, dM/dx = V, dV/dx = w.
+
+    One sweep from the left: each load changes the running V and M where it starts (and a line
+    load again where it ends), so the cost grows with segments plus loads, not their product."""
     x = Poly.of(0, 1)
-    for k in range(len(xs) - 1):
-        left = xs[k]
-        v, m = Poly(), Poly()
-        for load in loads:
-            dv, dm = _left_of(load, left, x)
-            v, m = v + dv, m + dm
-        V.append(v)
-        M.append(m)
-    return Piecewise(xs, tuple(V)), Piecewise(xs, tuple(M))
+    events: dict[Fraction, list[tuple[Poly, Poly]]] = {}
+    for load in loads:
+        for at, dv, dm in _changes(load, x):
+            events.setdefault(at, []).append((dv, dm))
+    V, M, out_v, out_m = Poly(), Poly(), [], []
+    for left in xs[:-1]:
+        for dv, dm in events.get(left, ()):
+            V, M = V + dv, M + dm
+        out_v.append(V)
+        out_m.append(M)
+    return Piecewise(xs, tuple(out_v)), Piecewise(xs, tuple(out_m))
 
 
-def _left_of(load: Load, left: Fraction, x: Poly) -> tuple[Poly, Poly]:
-    """Contribution to V and M on a segment starting at `left` of a load acting left of it."""
+def _changes(load: Load, x: Poly) -> list[tuple[Fraction, Poly, Poly]]:
+    """(position, change of V, change of M) for everything right of that position."""
     if isinstance(load, PointLoad):
-        if load.x > left:
-            return Poly(), Poly()
-        return Poly.of(load.force), (x - Poly.of(load.x)) * load.force
+        return [(load.x, Poly.of(load.force), (x - Poly.of(load.x)) * load.force)]
     if isinstance(load, MomentLoad):
-        return (Poly(), Poly.of(-load.moment)) if load.x <= left else (Poly(), Poly())
-    if load.x1 > left:
-        return Poly(), Poly()
+        return [(load.x, Poly(), Poly.of(-load.moment))]
     w = intensity(load)
     W = w.antiderivative()
     T = (w * x).antiderivative()
-    if load.x2 <= left:  # wholly to the left: its resultant
-        total = W(load.x2) - W(load.x1)
-        first = T(load.x2) - T(load.x1)
-        return Poly.of(total), x * total - Poly.of(first)
-    shear = W - Poly.of(W(load.x1))  # the part from x1 to x
-    return shear, x * shear - (T - Poly.of(T(load.x1)))
+    inside_v = W - Poly.of(W(load.x1))  # the part of the load from x1 to x
+    inside_m = x * inside_v - (T - Poly.of(T(load.x1)))
+    total = W(load.x2) - W(load.x1)  # beyond x2: the resultant
+    beyond_m = x * total - Poly.of(T(load.x2) - T(load.x1))
+    return [(load.x1, inside_v, inside_m), (load.x2, Poly.of(total) - inside_v, beyond_m - inside_m)]

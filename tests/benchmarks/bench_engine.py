@@ -1,0 +1,100 @@
+"""Engine benchmark: prints a table of engine times per member, beside sympy's beam module.
+
+Run: python tests/benchmarks/bench_engine.py   (not a test; machines are noisy, read the table)
+Targets: (a) under 10 ms, (b) under 100 ms after imports, at least 50x faster than sympy on (a).
+"""
+
+from __future__ import annotations
+
+import statistics
+import sys
+import time
+from fractions import Fraction
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+sys.path.insert(0, str(HERE.parent))
+sys.path.insert(0, str(HERE.parent.parent))
+
+from engine_helpers import member_text  # noqa: E402
+
+from beamlang.build import build  # noqa: E402
+from beamlang.checks import run_checks  # noqa: E402
+from beamlang.parse import parse  # noqa: E402
+from beamlang.results import evaluate  # noqa: E402
+from beamlang.solve import solve  # noqa: E402
+from beamlang.source import Source  # noqa: E402
+
+SIMPLE = member_text("6 m", ["pin at 0 m", "roller at span"],
+                     {"a": ["point 10 kN down at 2 m", "uniform 3 kN/m down from 1 m to 5 m",
+                            "moment 4 kN*m clockwise at 4.5 m"]},
+                     extra=[f"report deflection at {k * 6 / 101:.4f} m" for k in range(1, 101)])
+
+
+def continuous() -> str:
+    cases = {}
+    for c, name in enumerate(["dead", "live", "snow"]):
+        loads = [f"point {3 + k} kN down at {0.7 + 0.83 * k + 0.1 * c:.2f} m" for k in range(5)]
+        loads += [f"uniform {1 + c} kN/m down", f"linear 0 kN/m to 2 kN/m down from {c + 1} m to {c + 6} m"]
+        cases[name] = loads[: 7 if c < 2 else 6]
+    return member_text("16 m", ["pin at 0 m", "roller at 4 m", "roller at 8 m", "roller at 12 m", "roller at span"],
+                       cases, extra=["combine service = dead + live + snow", "combine strength = 1.2 dead + 1.6 live + 0.5 snow",
+                                     "limit deflection service span/360", "check stress strength"])
+
+
+def front(text: str):
+    return build(parse(Source("b.beam", text)))
+
+
+def engine(member) -> None:
+    run_checks(member, evaluate(solve(member)))
+
+
+def sympy_simple() -> None:
+    import sympy
+    from sympy.physics.continuum_mechanics.beam import Beam
+    b = Beam(6, sympy.Rational(200 * 10**9), sympy.Rational(8, 10**5))
+    r1, r2 = sympy.symbols("R1 R2")
+    b.apply_load(r1, 0, -1)
+    b.apply_load(r2, 6, -1)
+    b.apply_load(-10000, 2, -1)
+    b.apply_load(-3000, 1, 0, end=5)
+    b.apply_load(4000, sympy.Rational(9, 2), -2)
+    b.bc_deflection = [(0, 0), (6, 0)]
+    b.solve_for_reaction_loads(r1, r2)
+    d = b.deflection()
+    x = sympy.Symbol("x")
+    for k in range(1, 101):
+        d.subs(x, Fraction(6 * k, 101)).doit()
+
+
+def timed(fn, repeat: int) -> float:
+    times = []
+    for _ in range(repeat):
+        t0 = time.perf_counter()
+        fn()
+        times.append(time.perf_counter() - t0)
+    return statistics.median(times)
+
+
+def main() -> None:
+    simple, cont = front(SIMPLE), front(continuous())
+    engine(simple)  # warm the imports and caches
+    a = timed(lambda: engine(simple), 20)
+    b = timed(lambda: engine(cont), 5)
+    c = timed(lambda: [engine(simple if k % 2 else cont) for k in range(100)], 1)
+    p = timed(lambda: front(SIMPLE), 5)
+    s = timed(sympy_simple, 3)
+    rows = [("(a) simply supported, 3 loads, 100 points", a, "< 10 ms"),
+            ("(b) 4-span continuous, 20 loads, 3 cases, 2 combinations", b, "< 100 ms"),
+            ("(c) 100 members (half (a), half (b))", c, ""),
+            ("front end (parse + build) of (a), 110 lines, for reference", p, ""),
+            ("sympy beam module on (a): reactions + 100 deflections", s, "")]
+    print(f"{'case':58} {'median':>12}  target")
+    for name, t, target in rows:
+        print(f"{name:58} {t * 1000:10.1f} ms  {target}")
+    print(f"{'ratio sympy / engine on (a)':58} {s / a:10.0f} x   >= 50x")
+
+
+if __name__ == "__main__":
+    main()
