@@ -46,6 +46,11 @@ def _parser() -> argparse.ArgumentParser:
     fmt.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     fmt.add_argument("--check", action="store_true", help="change nothing; exit 1 listing files that would change")
     fmt.set_defaults(run=_run_fmt)
+    build = sub.add_parser("build", help="write the calc package of each member (Markdown, HTML, SVG, JSON)")
+    build.add_argument("paths", nargs="+", metavar="FILES|DIRS")
+    build.add_argument("-o", "--out", default="out", help="output folder (default: out)")
+    build.add_argument("--jobs", type=int, default=1, help="members built in parallel (default 1)")
+    build.set_defaults(run=_run_build)
     check = sub.add_parser("check", help="solve members and run their checks; exit 1 if any check fails")
     check.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     check.add_argument("--json", action="store_true", help="print results.json objects (a list) instead of tables")
@@ -97,6 +102,35 @@ def _run_fmt(args: argparse.Namespace) -> int:
     if errors or not found:
         return EXIT_INPUT
     return EXIT_FAIL if (args.check and changed) else EXIT_OK
+
+
+def _run_build(args: argparse.Namespace) -> int:
+    loaded, errors, found = _each(args.paths)
+    _report(errors)
+    out = Path(args.out)
+    jobs = max(1, args.jobs)
+    if jobs > 1 and len(loaded) > 1:
+        from concurrent.futures import ProcessPoolExecutor
+        with ProcessPoolExecutor(max_workers=jobs) as pool:
+            outcomes = list(pool.map(_build_one, loaded, [out] * len(loaded)))
+    else:
+        outcomes = [_build_one(item, out) for item in loaded]
+    tty = sys.stderr.isatty()
+    for i, (folder, passed, total) in enumerate(outcomes, start=1):
+        prefix = f"[{i}/{len(outcomes)}] " if tty else ""
+        print(f"{prefix}built {folder} ({passed} of {total} checks pass)", file=sys.stderr)
+    if errors or not found:
+        return EXIT_INPUT
+    return EXIT_OK if all(p == t for _, p, t in outcomes) else EXIT_FAIL
+
+
+def _build_one(item, out: Path) -> tuple[str, int, int]:
+    """One member's package (runs in a worker process with --jobs)."""
+    from .pipeline import analyse_loaded
+    from .report.package import write_package
+    a = analyse_loaded(item)
+    folder = write_package(a, out)
+    return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks)
 
 
 def _run_check(args: argparse.Namespace) -> int:

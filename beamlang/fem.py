@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from fractions import Fraction
 
 import numpy as np
@@ -80,6 +81,16 @@ def _add_load(F: np.ndarray, factor: float, load, xs, x: np.ndarray, index: dict
             F[2 * e + 1] += l * l * (3 * wa + 2 * wb) / 60
             F[2 * e + 2] += l * (3 * wa + 7 * wb) / 20
             F[2 * e + 3] -= l * l * (2 * wa + 3 * wb) / 60
+
+
+FLOOR = 1e-12  # differences below this are float noise and are reported as this bound
+
+
+def reported(difference: float) -> float:
+    """The difference rounded up to a power of ten, at least FLOOR: stable across machines."""
+    if difference <= FLOOR:
+        return FLOOR
+    return float(f"1e{math.ceil(math.log10(difference))}")
 
 
 def relative_difference(member: Member, xs, loads, v_exact, theta_exact) -> float:

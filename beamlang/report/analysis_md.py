@@ -1,0 +1,229 @@
+"""Result-side sections of the calc package: summary, each case's superposition and extremum search, checks."""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from ..display import convert, number, report_units, show
+from ..extrema import Candidate, candidates
+from ..fem import reported
+from ..fmt import statement_text
+from ..pipeline import Analysis
+from ..roots import square_free
+from ..solve import load_solution
+from .sections import vector
+from .tex import cell, md, num, plain, poly
+
+
+def summary(a: Analysis) -> list[str]:
+    u = report_units(a.loaded.member)
+    lines = ["## Summary", ""]
+    if not a.checks:
+        return lines + ["No checks are requested in the input file.", ""]
+    lines += ["| check | case or combination | actual | allowed | ratio | result | governs at | input line |",
+              "|---|---|---|---|---|---|---|---|"]
+    for c in a.checks:
+        q = "deflection" if c.unit == "m" else "stress"
+        where = f"x = {number(convert(c.x, u['length']))} {u['length']}" if c.x is not None else "-"
+        if c.region:
+            where += f" ({c.region})"
+        result = "**PASS**" if c.passed else "**FAIL**"
+        lines.append(f"| {c.kind} | {md(c.target)} | {show(c.actual, u, q)} | {show(c.allowed, u, q)} | "
+                     f"{c.ratio:.3f} | {result} | {where} | {c.span.line} |")
+    failed = sum(not c.passed for c in a.checks)
+    verdict = "All checks pass." if not failed else f"{failed} of {len(a.checks)} checks FAIL."
+    return lines + ["", verdict, ""]
+
+
+def target(a: Analysis, name: str, figure: str) -> list[str]:
+    t = a.solution.target(name)
+    r = next(x for x in a.results if x.name == name)
+    m = a.loaded.member
+    head = f"## {'Case' if t.kind == 'case' else 'Combination'} {md(name)}"
+    lines = [head, ""]
+    if t.kind == "case":
+        case = m.case(name)
+        if case.title:
+            lines += [md(case.title), ""]
+        lines += _loads(a, t) + _each_load(a, t) + _compatibility(a, t)
+    else:
+        terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
+        lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
+                  "(exact, by linearity).", ""]
+    lines += _superposed(a, t) + _reactions(a, r) + _moment_search(a, t, r) + _deflection_search(a, t, r)
+    lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]
+    return lines
+
+
+def _loads(a: Analysis, t) -> list[str]:
+    doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
+    rows = [f"| {ld.span.line} | `{cell(statement_text(doc_lines[ld.span.line]))}` | {_load_si(ld)} |" for ld in t.loads]
+    return ["### Loads", "", "| line | load as written | in SI (signs: up and counterclockwise positive) |",
+            "|---|---|---|", *rows, ""]
+
+
+def _load_si(ld) -> str:
+    kind = type(ld).__name__
+    if kind == "PointLoad":
+        return f"P = {plain(ld.force)} N at x = {plain(ld.x)} m"
+    if kind == "MomentLoad":
+        return f"C = {plain(ld.moment)} N·m at x = {plain(ld.x)} m"
+    if ld.w1 == ld.w2:
+        return f"w = {plain(ld.w1)} N/m from x = {plain(ld.x1)} m to {plain(ld.x2)} m"
+    return f"w from {plain(ld.w1)} N/m at x = {plain(ld.x1)} m to {plain(ld.w2)} N/m at x = {plain(ld.x2)} m"
+
+
+def _each_load(a: Analysis, t) -> list[str]:
+    lines = ["### Each load's elastic curve", "",
+             "Each load is solved alone on this member; v(x) in m with x in m, coefficients shown to six "
+             "significant digits (computed exactly). The case curve is their sum.", ""]
+    xs = a.solution.xs
+    for ld in t.loads:
+        solved = load_solution(a.solution, ld)
+        lines += [f"Load of line {ld.span.line}:", "", "| segment | v(x) |", "|---|---|"]
+        for k, p in enumerate(solved.curves.v.pieces):
+            lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(p)}$ |")
+        lines.append("")
+    return lines
+
+
+def _compatibility(a: Analysis, t) -> list[str]:
+    p = a.solution.primary
+    if not p.redundants:
+        return []
+    s = t.solved
+    return ["### Compatibility", "",
+            "Displacements of the primary beam at the released restraints under this case, and the "
+            "redundants solved exactly from A X = -D0:", "",
+            f"$$D_0 = {vector(s.displacements)}, \\qquad X = -A^{{-1}} D_0 = {vector(s.redundants)}$$", ""]
+
+
+def _superposed(a: Analysis, t) -> list[str]:
+    xs = a.solution.xs
+    c = t.curves
+    lines = ["### Superposed curves", "", "V in N, M in N·m, θ in rad, v in m; x in m.", "",
+             "| segment | V(x) | M(x) | θ(x) | v(x) |", "|---|---|---|---|---|"]
+    for k in range(len(xs) - 1):
+        lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(c.V.pieces[k])}$ | ${poly(c.M.pieces[k])}$ | "
+                     f"${poly(c.theta.pieces[k])}$ | ${poly(c.v.pieces[k])}$ |")
+    return lines + [""]
+
+
+def _reactions(a: Analysis, r) -> list[str]:
+    m = a.loaded.member
+    u = report_units(m)
+    lines = ["### Reactions", "", "| support | x | force (up +) | moment (counterclockwise +) | input line |",
+             "|---|---|---|---|---|"]
+    for sp, (x, f, mo) in zip(m.supports, r.reactions):
+        moment = show(mo, u, "moment") if sp.kind == "fixed" else "-"
+        lines.append(f"| {sp.kind} | {show(x, u, 'length')} | {show(f, u, 'force')} | {moment} | {sp.span.line} |")
+    return lines + [""]
+
+
+def _moment_search(a: Analysis, t, r) -> list[str]:
+    u = report_units(a.loaded.member)
+    c = t.curves
+    cands = candidates(c.M, c.V, Fraction(0), a.loaded.member.length)
+    zeros = [x for x in cands if x.reason == "derivative zero"]
+    found = ", ".join(f"x = {_where(z)} m" for z in zeros) or "none inside a segment"
+    lines = ["### Shear and moment", "",
+             f"Extreme moments are at segment ends (both sides of each) or where V(x) = 0 inside a segment: {found}.", ""]
+    for label, loc in (("largest sagging moment", r.moment_positive), ("largest hogging moment", r.moment_negative),
+                       ("largest shear magnitude", r.shear_max)):
+        q = "force" if "shear" in label else "moment"
+        value = show(loc.value, u, q) if loc else "none"
+        at = f" at x = {_places(loc, u)}" if loc else ""
+        lines.append(f"- {label}: {value}{at}")
+    return lines + [""]
+
+
+def _deflection_search(a: Analysis, t, r) -> list[str]:
+    u = report_units(a.loaded.member)
+    c, xs = t.curves, a.solution.xs
+    cands = candidates(c.v, c.theta, Fraction(0), a.loaded.member.length)
+    lines = ["### Where the deflection is largest", "",
+             "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
+             "θ(x) = 0 is solved exactly; its roots inside the segment, and both ends of every segment, are "
+             "the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |", "|---|---|---|"]
+    for k, p in enumerate(c.theta.pieces):
+        roots = [x for x in cands if x.reason == "derivative zero" and x.segment == k]
+        text = "; ".join(_root_text(x) for x in roots) or "none"
+        lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(p)} = 0$ | {text} |")
+    lines += ["", "| candidate x | why | v |", "|---|---|---|"]
+    for x in _unique(cands):
+        lines.append(f"| {_where(x)} m | {x.reason} | {show(x.value, u, 'deflection', 6)} |")
+    down = f"{show(r.max_down.value, u, 'deflection', 6)} at x = {_places(r.max_down, u)}" if r.max_down else "none"
+    up = f"{show(r.max_up.value, u, 'deflection', 6)} at x = {_places(r.max_up, u)}" if r.max_up else "none"
+    return lines + ["", f"Governing: largest downward deflection {down}; largest upward deflection {up}.", ""]
+
+
+def _unique(cands: list[Candidate]) -> list[Candidate]:
+    seen, out = set(), []
+    for x in cands:
+        if (x.x, x.value) not in seen:
+            seen.add((x.x, x.value))
+            out.append(x)
+    return out
+
+
+def _root_text(x: Candidate) -> str:
+    if x.root is None:
+        return f"x = {plain(x.x, 10)} (rational, exact)"
+    q = square_free(x.root.poly)
+    if q.degree == 2:
+        c0, c1, c2 = q.coeffs
+        disc = c1 * c1 - 4 * c0 * c2
+        sign = "+" if x.x > -c1 / (2 * c2) else "-"
+        return f"x = $\\frac{{{num(-c1)} {sign} \\sqrt{{{num(disc)}}}}}{{{num(2 * c2)}}}$ = {plain(x.x, 10)}"
+    width = plain(x.root.hi - x.root.lo, 2)
+    return (f"x = {plain(x.x, 10)}, a root of the degree-{q.degree} factor (irrational; isolated exactly "
+            f"in an interval {width} m wide)")
+
+
+def _where(x) -> str:
+    return plain(x.x, 8)
+
+
+def _places(loc, u) -> str:
+    places = ", ".join(number(convert(x, u["length"]), 6) for x in loc.x_all)
+    return f"{places} {u['length']}"
+
+
+def _points(a: Analysis, r) -> list[str]:
+    if not r.points:
+        return []
+    u = report_units(a.loaded.member)
+    lines = ["### Requested points", "", "| x | deflection | slope |", "|---|---|---|"]
+    for x, v, theta in r.points:
+        lines.append(f"| {show(x, u, 'length')} | {show(v, u, 'deflection', 6)} | {plain(theta)} rad |")
+    return lines + [""]
+
+
+def checks_detail(a: Analysis) -> list[str]:
+    u = report_units(a.loaded.member)
+    lines = ["## Checks", "", "| input line | check | case or combination | actual | allowed | ratio | basis | result |",
+             "|---|---|---|---|---|---|---|---|"]
+    for c in a.checks:
+        q = "deflection" if c.unit == "m" else "stress"
+        lines.append(f"| {c.span.line} | {c.kind} | {md(c.target)} | {show(c.actual, u, q, 6)} | {show(c.allowed, u, q, 6)} | "
+                     f"{c.ratio:.4f} | {cell(c.basis)} | {'PASS' if c.passed else 'FAIL'} |")
+    lines += ["", "Elastic range: superposition holds only while the member stays linear elastic.", ""]
+    for r in a.results:
+        st = r.stress
+        if st.bending is None:
+            continue
+        shear = show(st.shear, u, "stress") if st.shear is not None else "not computed (section given by properties)"
+        state = {True: "elastic", False: "NOT elastic: superposition is not valid", None: "no yield strength given"}[st.elastic]
+        lines.append(f"- {md(r.name)}: bending stress {show(st.bending, u, 'stress')}, shear stress {shear}: {state}.")
+    return lines + [""]
+
+
+def cross_check(a: Analysis) -> list[str]:
+    lines = ["## Independent cross-check", "",
+             "Each case and combination is solved again by finite elements (Hermite cubic beam elements, a node "
+             "at every breakpoint, consistent nodal loads, floating point). Largest nodal difference from the "
+             "exact curves, relative to the largest deflection or slope, rounded up to a power of ten "
+             "(1e-12 means at most 1e-12: float noise):", "",
+             "| case or combination | relative difference at most |", "|---|---|"]
+    lines += [f"| {md(r.name)} | {reported(r.cross_check):.0e} |" for r in a.results]
+    return lines + [""]

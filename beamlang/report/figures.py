@@ -1,0 +1,183 @@
+"""Figures: Analysis -> deterministic SVG text (loaded member, V, M, slope, deflection) per case and combination."""
+
+from __future__ import annotations
+
+import io
+from fractions import Fraction
+
+from ..display import convert, number, report_units
+from ..model import LineLoad, MomentLoad, PointLoad
+from ..pipeline import Analysis
+from ..results import TargetResult
+
+SAMPLES_PER_SEGMENT = 40
+
+
+def _pyplot():
+    import matplotlib
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+    matplotlib.rcParams.update({"svg.hashsalt": "beamlang", "svg.fonttype": "path", "font.size": 8,
+                                "font.family": "DejaVu Sans", "axes.grid": True, "grid.alpha": 0.3})
+    return plt
+
+
+def _svg(fig) -> str:
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg", metadata={"Date": None, "Creator": None}, bbox_inches="tight")
+    _pyplot().close(fig)
+    return buf.getvalue()
+
+
+def target_figure(a: Analysis, name: str) -> str:
+    """Loads and supports, then V, M, slope and deflection of one case or combination."""
+    plt = _pyplot()
+    m = a.loaded.member
+    u = report_units(m)
+    t = a.solution.target(name)
+    r = next(res for res in a.results if res.name == name)
+    fig, axes = plt.subplots(5, 1, figsize=(7.0, 9.0), sharex=True, layout=None)
+    fig.subplots_adjust(hspace=0.35, left=0.12, right=0.97, top=0.97, bottom=0.05)
+    L = float(convert(m.length, u["length"]))
+    _draw_member(axes[0], a, name, u, L)
+    curves = [(t.curves.V, "force", "V", r.shear_max and [r.shear_max]),
+              (t.curves.M, "moment", "M", [l for l in (r.moment_positive, r.moment_negative) if l]),
+              (t.curves.theta, "slope", "θ", r.slope_max and [r.slope_max]),
+              (t.curves.v, "deflection", "v", [l for l in (r.max_down, r.max_up) if l])]
+    for ax, (curve, quantity, label, marks) in zip(axes[1:], curves):
+        xs, ys = _sample(curve, u[quantity])
+        ax.plot([convert(x, u["length"]) for x in xs], ys, color="#1f4e79", linewidth=1.2)
+        ax.fill_between([float(convert(x, u["length"])) for x in xs], ys, 0, color="#1f4e79", alpha=0.12)
+        ax.axhline(0, color="black", linewidth=0.6)
+        ax.set_ylabel(f"{label} ({u[quantity]})")
+        for loc in marks or []:
+            x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
+            ax.plot([x], [y], "o", color="#b22222", markersize=3)
+            ax.annotate(f"{number(y)} at {number(x)} {u['length']}", (x, y), textcoords="offset points",
+                        xytext=(4, 4 if y >= 0 else -10), fontsize=7, color="#b22222")
+    axes[-1].set_xlabel(f"x ({u['length']}) from the left end")
+    axes[-1].set_xlim(-0.02 * L, 1.02 * L)
+    return _svg(fig)
+
+
+def _sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
+    """Points on every segment, both sides of each breakpoint (jumps stay vertical)."""
+    xs, ys = [], []
+    for k, p in enumerate(curve.pieces):
+        a, b = curve.xs[k], curve.xs[k + 1]
+        for i in range(SAMPLES_PER_SEGMENT + 1):
+            x = a + (b - a) * Fraction(i, SAMPLES_PER_SEGMENT)
+            xs.append(x)
+            ys.append(float(convert(p(x), unit)))
+    return xs, ys
+
+
+def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
+    m = a.loaded.member
+    ax.plot([0, L], [0, 0], color="black", linewidth=3)
+    for sp in m.supports:
+        _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
+    factors = {case: f for f, case in _terms(a, name)}
+    for case in m.cases:
+        if case.name not in factors:
+            continue
+        for load in case.loads:
+            _load(ax, load, factors[case.name], u)
+    ax.set_ylim(-1.2, 1.6)
+    ax.set_yticks([])
+    title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
+    ax.set_title(title, fontsize=8, loc="left")
+
+
+def _terms(a: Analysis, name: str) -> list[tuple[Fraction, str]]:
+    t = a.solution.target(name)
+    return [(Fraction(1), name)] if t.kind == "case" else list(t.terms)
+
+
+def _support(ax, x: float, kind: str, L: float) -> None:
+    s = 0.025 * L
+    if kind == "fixed":
+        side = -1 if x < L / 2 else 1
+        ax.plot([x, x], [-0.6, 0.6], color="black", linewidth=2)
+        for i in range(6):
+            y = -0.6 + 0.24 * i
+            ax.plot([x, x + side * s * 0.8], [y, y - 0.2], color="black", linewidth=0.8)
+        return
+    if kind == "spring":
+        zig_x = [x, x, x - s / 2, x + s / 2, x - s / 2, x + s / 2, x, x]
+        zig_y = [0, -0.2, -0.3, -0.45, -0.6, -0.75, -0.85, -1.0]
+        ax.plot(zig_x, zig_y, color="black", linewidth=0.9)
+        ax.plot([x - s, x + s], [-1.0, -1.0], color="black", linewidth=1.2)
+        return
+    ax.fill([x, x - s, x + s], [0, -0.55, -0.55], facecolor="white", edgecolor="black", linewidth=0.9)
+    if kind == "roller":
+        for dx in (-s / 2, s / 2):
+            ax.add_patch(_circle((x + dx, -0.68), 0.1 * s))
+        ax.plot([x - s, x + s], [-0.82, -0.82], color="black", linewidth=1.0)
+    else:
+        ax.plot([x - s, x + s], [-0.55, -0.55], color="black", linewidth=1.2)
+
+
+def _circle(center, radius):
+    from matplotlib.patches import Ellipse
+    return Ellipse(center, 2 * radius, 0.2, facecolor="white", edgecolor="black", linewidth=0.8)
+
+
+def _load(ax, load, factor: Fraction, u: dict) -> None:
+    color = "#8b4513"
+    if isinstance(load, PointLoad):
+        x = float(convert(load.x, u["length"]))
+        up = load.force > 0
+        ax.annotate("", xy=(x, 0.05 if not up else -0.05), xytext=(x, 1.1 if not up else -1.1),
+                    arrowprops={"arrowstyle": "->", "color": color, "linewidth": 1.2})
+        ax.text(x, 1.2 if not up else -1.2, number(convert(abs(load.force * factor), u["force"])) + f" {u['force']}",
+                ha="center", va="bottom" if not up else "top", fontsize=7, color=color)
+    elif isinstance(load, MomentLoad):
+        x = float(convert(load.x, u["length"]))
+        turn = "counterclockwise" if load.moment > 0 else "clockwise"
+        ax.plot([x], [0], marker="o", markersize=9, markerfacecolor="none", markeredgecolor=color)
+        ax.text(x, 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} {u['moment']}\n{turn}",
+                ha="center", va="bottom", fontsize=6, color=color)
+    elif isinstance(load, LineLoad):
+        x1, x2 = float(convert(load.x1, u["length"])), float(convert(load.x2, u["length"]))
+        w1, w2 = load.w1 * factor, load.w2 * factor
+        big = max(abs(w1), abs(w2)) or 1
+        h1, h2 = 0.2 + 0.6 * float(abs(w1) / big), 0.2 + 0.6 * float(abs(w2) / big)
+        sign = 1 if (w1 + w2) < 0 else -1  # downward loads drawn above the member
+        ax.fill([x1, x1, x2, x2], [0.1 * sign, (0.1 + h1) * sign, (0.1 + h2) * sign, 0.1 * sign],
+                facecolor=color, alpha=0.15, edgecolor=color, linewidth=0.8)
+        unit = u["force"] + "/" + u["length"]
+        text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
+        ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", ha="center",
+                va="bottom" if sign > 0 else "top", fontsize=6, color=color)
+
+
+def sign_convention_figure() -> str:
+    """x to the right from the left end; up positive; sagging positive; counterclockwise positive."""
+    plt = _pyplot()
+    fig, ax = plt.subplots(figsize=(5.0, 1.6), layout=None)
+    ax.set_axis_off()
+    ax.plot([0, 10], [0, 0], color="black", linewidth=3)
+    ax.annotate("", xy=(11.5, 0), xytext=(10.2, 0), arrowprops={"arrowstyle": "->"})
+    ax.text(11.6, 0, "x", va="center")
+    ax.annotate("", xy=(1, 2.2), xytext=(1, 0.3), arrowprops={"arrowstyle": "->", "color": "#1f4e79"})
+    ax.text(1.2, 1.6, "v, forces, reactions: + up", fontsize=7, color="#1f4e79")
+    ax.plot([5.5], [0], marker="o", markersize=14, markerfacecolor="none", markeredgecolor="#8b4513")
+    ax.text(5.9, 0.5, "moments, slope: + counterclockwise", fontsize=7, color="#8b4513")
+    ax.plot([7, 8, 9], [-1.2, -1.7, -1.2], color="#b22222")
+    ax.text(9.2, -1.5, "M > 0: sagging", fontsize=7, color="#b22222")
+    ax.set_xlim(-0.5, 12.5)
+    ax.set_ylim(-2.2, 2.5)
+    return _svg(fig)
+
+
+def all_figures(a: Analysis) -> dict[str, str]:
+    """{file name: SVG text} for the whole package, file names sorted and safe."""
+    out = {"sign-convention.svg": sign_convention_figure()}
+    for i, t in enumerate(a.solution.targets, start=1):
+        out[f"{i:02d}-{_safe(t.name)}.svg"] = target_figure(a, t.name)
+    return out
+
+
+def _safe(name: str) -> str:
+    return "".join(ch if ch.isalnum() or ch in "-_" else "-" for ch in name)

@@ -1,0 +1,102 @@
+"""HTML: calc-package Markdown + figures -> one self-contained page (MathML, embedded font and figures, no script)."""
+
+from __future__ import annotations
+
+import base64
+import html
+import re
+import xml.etree.ElementTree as ET
+from functools import lru_cache
+from pathlib import Path
+
+ASSETS = Path(__file__).resolve().parent / "assets"
+_UNKNOWN_COMMAND = re.compile(r"<mi>\\[A-Za-z]+</mi>")
+_SINGLE_MATHRM = re.compile(r"\\mathrm\{([A-Za-z])\}")
+
+
+class MathError(Exception):
+    """A formula that latex2mathml cannot render faithfully (our bug: the report writer made it)."""
+
+
+def tex_to_mathml(tex: str, display: bool) -> str:
+    from latex2mathml.converter import convert
+    tex = _SINGLE_MATHRM.sub(r"\\mathrm{{\1}}", tex)  # one-letter \mathrm renders italic otherwise
+    out = convert(tex, display="block" if display else "inline")
+    if _UNKNOWN_COMMAND.search(out):
+        raise MathError(f"unknown TeX command in formula: {tex}")
+    return out
+
+
+@lru_cache(maxsize=1)
+def _markdown():
+    from markdown_it import MarkdownIt
+    from mdit_py_plugins.anchors import anchors_plugin
+    from mdit_py_plugins.dollarmath import dollarmath_plugin
+    md = MarkdownIt("commonmark", {"html": False}).enable("table")  # raw HTML in user text is escaped
+    dollarmath_plugin(md, allow_digits=False, renderer=lambda s, o: tex_to_mathml(s, bool(o.get("display_mode"))))
+    anchors_plugin(md, min_level=2, max_level=3, slug_func=_slug, permalink=False)
+    return md
+
+
+def _slug(text: str) -> str:
+    return re.sub(r"[^a-z0-9]+", "-", text.lower()).strip("-") or "section"
+
+
+def member_html(markdown: str, title: str, figures: dict[str, str]) -> str:
+    """The page: `figures` maps each relative SVG path used in the Markdown to its SVG text."""
+    body = _markdown().render(markdown)
+    body = _embed_figures(body, figures)
+    font = base64.b64encode((ASSETS / "latinmodern-math-subset.woff").read_bytes()).decode("ascii")
+    return (f'<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n'
+            f'<meta name="viewport" content="width=device-width, initial-scale=1">\n'
+            f"<title>{html.escape(title)}</title>\n<style>\n@font-face {{ font-family: 'Beamlang Math'; "
+            f"src: url(data:font/woff;base64,{font}) format('woff'); }}\n{CSS}</style>\n</head>\n"
+            f"<body>\n<main>\n{body}</main>\n</body>\n</html>\n")
+
+
+def _embed_figures(body: str, figures: dict[str, str]) -> str:
+    def replace(match: re.Match) -> str:
+        src = html.unescape(match.group(1))
+        if src not in figures:
+            raise KeyError(f"figure {src} was not built")
+        data = base64.b64encode(figures[src].encode("utf-8")).decode("ascii")
+        return f'src="data:image/svg+xml;base64,{data}"'
+    return re.sub(r'src="([^"]+\.svg)"', replace, body)
+
+
+def check_mathml(page: str) -> int:
+    """Every <math> element parses as XML; returns how many there are."""
+    count = 0
+    for chunk in re.findall(r"<math.*?</math>", page, flags=re.S):
+        ET.fromstring(chunk)
+        count += 1
+    return count
+
+
+CSS = """
+:root { --ink: #1b1b1b; --rule: #c8c8c8; --head: #1f4e79; }
+body { font-family: "DejaVu Serif", Georgia, serif; color: var(--ink); margin: 0; background: #fff; }
+main { max-width: 60rem; margin: 0 auto; padding: 1.5rem 2rem 4rem; line-height: 1.45; }
+math { font-family: 'Beamlang Math', 'Latin Modern Math', 'STIX Two Math', math; font-size: 1.05em; }
+h1 { font-size: 1.6rem; color: var(--head); border-bottom: 2px solid var(--head); padding-bottom: .3rem; }
+h2 { font-size: 1.25rem; color: var(--head); border-bottom: 1px solid var(--rule); margin-top: 2.2rem; }
+h3 { font-size: 1.05rem; margin-top: 1.4rem; }
+table { border-collapse: collapse; margin: .6rem 0 1rem; font-size: .9rem; display: block; overflow-x: auto; }
+th, td { border: 1px solid var(--rule); padding: .25rem .5rem; text-align: left; vertical-align: top; }
+th { background: #eef3f8; }
+code, pre { font-family: "DejaVu Sans Mono", monospace; font-size: .85rem; }
+pre { background: #f6f8fa; border: 1px solid var(--rule); padding: .6rem .8rem; overflow-x: auto; }
+img { max-width: 100%; height: auto; }
+mtable[columnspacing] > mtr > mtd { padding-left: 0; padding-right: 0; }
+mtd[columnalign="left"] { text-align: left; }
+strong { letter-spacing: .02em; }
+@page { size: A4; margin: 16mm 14mm; }
+@media print {
+  main { max-width: none; padding: 0; }
+  h2 { break-before: page; }
+  h2:first-of-type { break-before: auto; }
+  table { display: table; font-size: 8pt; width: 100%; table-layout: auto; word-break: break-word; }
+  tr, img, pre { break-inside: avoid; }
+  pre { white-space: pre-wrap; }
+}
+"""

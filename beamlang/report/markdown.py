@@ -1,0 +1,16 @@
+"""Markdown: Analysis + figure names -> the calc package text (renders on a code-hosting site as it is)."""
+
+from __future__ import annotations
+
+from ..pipeline import Analysis
+from . import analysis_md as results
+from . import sections
+
+
+def member_markdown(a: Analysis, figures: dict[str, str]) -> str:
+    """The whole package in the order a checker reads it; `figures` maps target name -> relative path."""
+    parts = [sections.title(a), results.summary(a), sections.inputs(a),
+             sections.signs(a, figures["sign convention"]), sections.section_properties(a), sections.method(a)]
+    parts += [results.target(a, t.name, figures[t.name]) for t in a.solution.targets]
+    parts += [results.checks_detail(a), results.cross_check(a), sections.cautions(a), sections.traceability(a)]
+    return "\n".join(line for part in parts for line in part).rstrip("\n") + "\n"

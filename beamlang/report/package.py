@@ -1,0 +1,72 @@
+"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, figures/*.svg and results.json, written atomically."""
+
+from __future__ import annotations
+
+import json
+import os
+import shutil
+import tempfile
+from pathlib import Path
+
+from ..jsonout import member_json
+from ..pipeline import Analysis
+
+RESERVED = {"CON", "PRN", "AUX", "NUL", *(f"COM{i}" for i in range(1, 10)), *(f"LPT{i}" for i in range(1, 10))}
+
+
+def folder_name(mark: str) -> str:
+    """A mark as a folder name that is safe on every common file system."""
+    name = "".join(ch if ch.isalnum() or ch in "-_." else "_" for ch in mark).strip(".") or "member"
+    return name + "_" if name.split(".")[0].upper() in RESERVED else name
+
+
+def package_files(a: Analysis) -> dict[str, bytes]:
+    """Every file of the package, by relative path (figures first; the page embeds them)."""
+    from .figures import all_figures
+    from .html import member_html
+    from .markdown import member_markdown
+    mark = folder_name(a.loaded.member.mark)
+    svgs = all_figures(a)
+    names = {"sign convention": "figures/sign-convention.svg"}
+    for (file, _), t in zip(list(svgs.items())[1:], a.solution.targets):
+        names[t.name] = f"figures/{file}"
+    text = member_markdown(a, names)
+    files = {f"figures/{k}": v.encode("utf-8") for k, v in svgs.items()}
+    files[f"{mark}.md"] = text.encode("utf-8")
+    page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",
+                       {k: v.decode("utf-8") for k, v in files.items() if k.endswith(".svg")})
+    files[f"{mark}.html"] = page.encode("utf-8")
+    files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
+    return dict(sorted(files.items()))
+
+
+def write_package(a: Analysis, out: Path) -> Path:
+    """Build everything in a temporary folder beside the target, then swap it into place."""
+    files = package_files(a)
+    out.mkdir(parents=True, exist_ok=True)
+    target = out / folder_name(a.loaded.member.mark)
+    staging = Path(tempfile.mkdtemp(prefix=f".{target.name}.", dir=out))
+    try:
+        for rel, data in files.items():
+            path = staging / rel
+            path.parent.mkdir(parents=True, exist_ok=True)
+            path.write_bytes(data)
+        _swap(staging, target)
+    except BaseException:
+        shutil.rmtree(staging, ignore_errors=True)
+        raise
+    return target
+
+
+def _swap(staging: Path, target: Path) -> None:
+    if target.is_symlink() or target.is_file():
+        target.unlink()  # a link is replaced, never followed
+    if target.exists():
+        old = target.with_name(f".{target.name}.old")
+        if old.exists():
+            shutil.rmtree(old)
+        os.replace(target, old)
+        os.replace(staging, target)
+        shutil.rmtree(old)
+    else:
+        os.replace(staging, target)

@@ -1,0 +1,207 @@
+"""Input-side sections of the calc package: title block, inputs and units, signs, section, method."""
+
+from __future__ import annotations
+
+import dataclasses
+import re
+
+from .. import __version__
+from .. import syntax as s
+from ..display import convert, number, report_units
+from ..pipeline import Analysis
+from ..sections import FORMULAS
+from ..units import factor_of
+from .tex import cell, md, num, plain
+
+US_TOKENS = ("ft", "in", "lbf", "kip", "psi", "ksi", "lb")
+NIST = ("NIST SP 811 (2008), Appendix B: 1 ft = 0.3048 m, 1 in = 0.0254 m, 1 lbf = 4.4482216152605 N, "
+        "1 lb = 0.45359237 kg (all exact); 1 kip = 1000 lbf, 1 psi = 1 lbf/in^2")
+
+
+def title(a: Analysis) -> list[str]:
+    m = a.loaded.member
+    fields = dict(m.fields)
+    head = ["Project", "Job", "Member", "By", "Checked", "Date", "Revision"]
+    values = [fields.get("project", ""), fields.get("job", ""), m.mark, fields.get("by", ""),
+              fields.get("checked", ""), fields.get("date", ""), fields.get("revision", "")]
+    n_cases, n_combos = len(m.cases), len(m.combinations)
+    return [f"# {md(m.mark)}: {md(m.title)}", "",
+            "| " + " | ".join(head) + " |", "|" + "---|" * len(head),
+            "| " + " | ".join(cell(md(v)) if v else "-" for v in values) + " |", "",
+            f"This calculation checks the elastic deflection and stress of member {md(m.mark)}, a "
+            f"{_describe(a)}, under {n_cases} load case{'s' * (n_cases != 1)} and {n_combos} "
+            f"combination{'s' * (n_combos != 1)}. Every curve is computed exactly by superposing the elastic "
+            "curve of each load (force method where the member is indeterminate); maxima are found where "
+            "the slope or shear is zero, not by sampling.", ""]
+
+
+def _describe(a: Analysis) -> str:
+    m = a.loaded.member
+    kinds = [sp.kind for sp in m.supports]
+    span = f"{number(convert(m.length, report_units(m)['length']))} {report_units(m)['length']} member"
+    return f"{span} on {len(kinds)} support{'s' * (len(kinds) != 1)} ({', '.join(kinds)})"
+
+
+def _quantities(obj) -> list[s.Quantity]:
+    """Every written quantity inside a syntax object, in field order."""
+    found: list[s.Quantity] = []
+    if isinstance(obj, s.Quantity):
+        return [obj]
+    if dataclasses.is_dataclass(obj):
+        for f in dataclasses.fields(obj):
+            found += _quantities(getattr(obj, f.name))
+    elif isinstance(obj, tuple):
+        for item in obj:
+            found += _quantities(item)
+    return found
+
+
+def inputs(a: Analysis) -> list[str]:
+    """Every number as written, its exact SI value, and every conversion factor used."""
+    from ..fmt import statement_text
+    rows, units = [], set()
+    for line, st in a.loaded.document.statements:
+        for q in _quantities(st):
+            f = factor_of(q.unit)
+            units.add(q.unit)
+            si = exact_si(q, f)
+            rows.append(f"| {line.number} | `{cell(statement_text(st))}` | {cell(str(q))} | {si} {f.si_unit} |")
+    out = ["## Inputs", "", "Each number as written in the file and its exact value in SI base units.", "",
+           "| line | statement | as written | SI value |", "|---|---|---|---|", *rows, "",
+           "Conversion factors used (exact):", "", "| unit | SI | source |", "|---|---|---|"]
+    for unit in sorted(units):
+        f = factor_of(unit)
+        source = NIST if any(tok in unit for tok in US_TOKENS) else "SI prefixes, exact by definition"
+        out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {source} |")
+    return out + [""]
+
+
+def exact_si(q: s.Quantity, f) -> str:
+    from fractions import Fraction
+    value = Fraction(q.number) * f.factor
+    return number(value, 10)
+
+
+def signs(a: Analysis, figure: str) -> list[str]:
+    from ..fmt import statement_text
+    rows = []
+    for line, st in a.loaded.document.statements:
+        direction = getattr(st, "direction", None)
+        if direction is not None:
+            sign = "+" if direction.text in ("up", "counterclockwise") else "-"
+            rows.append(f"| {line.number} | `{cell(statement_text(st))}` | {direction.text} | {sign} |")
+        elif isinstance(st, s.SelfWeight):
+            rows.append(f"| {line.number} | `self-weight` | down (gravity) | - |")
+    return ["## Sign convention", "",
+            "x is measured from the left end of the member. Deflection v, loads and reaction forces are "
+            "positive up. Bending moment M is positive when sagging (tension at the bottom). Slope "
+            "θ = dv/dx is in radians, positive counterclockwise. Applied moments and reaction moments "
+            "are positive counterclockwise (a reaction moment is the moment the support exerts on the "
+            "beam). Shear V(x) is the sum of the upward forces left of x, so dM/dx = V.", "",
+            f"![Sign convention]({figure})", "",
+            "How each direction word of the input became a sign:", "",
+            "| line | statement | direction | sign |", "|---|---|---|---|", *rows, ""]
+
+
+def section_properties(a: Analysis) -> list[str]:
+    m = a.loaded.member
+    sec, mat = m.section, m.material
+    small = "mm" if m.units == "si" else "in"
+    lines = ["## Section and material", ""]
+    if sec.shape == "properties":
+        lines += [f"Section given by its properties, input line {sec.span.line}.", ""]
+    else:
+        dims = ", ".join(f"{name} = {number(convert(v, small))} {small}" for name, v in sec.dimensions)
+        lines += [f"Section: {sec.shape} ({dims}), input line {sec.span.line}.", ""]
+    formulas = FORMULAS.get(sec.shape, {})
+    lines += ["| property | formula | value |", "|---|---|---|"]
+    for key, power in (("A", 2), ("I", 4), ("c", 1), ("S", 3), ("Q", 3), ("t", 1)):
+        value = getattr(sec, key)
+        if value is None:
+            continue
+        formula = f"${formulas[key]}$" if key in formulas else ("given" if sec.shape == "properties" else "")
+        if key == "S" and "S" not in formulas and sec.shape != "properties":
+            formula = "$I / c$"
+        unit = small if power == 1 else f"{small}^{power}"
+        lines.append(f"| {key} | {formula} | {number(convert(value, unit), 6)} {unit} |")
+    if sec.shape in ("round", "tube"):
+        lines += ["", "π is carried as a 40-digit rational, far below every printed digit."]
+    stress = "MPa" if m.units == "si" else "ksi"
+    lines += ["", f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
+              + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}" if mat.yield_strength else "")
+              + (f", density = {number(mat.density, 6)} kg/m^3" if mat.density else "")
+              + f" (input line {mat.span.line}).", "",
+              f"Flexural stiffness: $EI = {num(a.solution.EI)}$ N·m².", ""]
+    return lines
+
+
+def method(a: Analysis) -> list[str]:
+    """The primary beam and the compatibility system shared by every case."""
+    sol, m = a.solution, a.loaded.member
+    p = sol.primary
+    kept = ", ".join(f"{m.supports[i].kind} at x = {plain(m.supports[i].x)} m (line {m.supports[i].span.line})"
+                     for i in p.kept)
+    lines = ["## Method", ""]
+    if not p.redundants:
+        return lines + [f"The member is statically determinate: a {p.kind} beam on {kept}. Reactions follow "
+                        "from statics; each load's curve is M/EI integrated twice with the support conditions.", ""]
+    names = [_redundant_name(m, r, j) for j, r in enumerate(p.redundants, start=1)]
+    lines += [f"The member is statically indeterminate to degree {len(p.redundants)}. Primary (released) beam: "
+              f"a {p.kind} beam on {kept}. Redundants: " + "; ".join(names) + ".", "",
+              "Compatibility: at every released restraint the displacement of the primary beam under the loads, "
+              "D0, plus the displacements caused by the redundants, must equal the support's own movement "
+              "(zero for a rigid support, -R/k for a spring). With unit redundants this is A X = -D0, where A "
+              "holds the displacement (or slope) at restraint i due to a unit value of redundant j, plus 1/k "
+              "on the diagonal for springs:", "",
+              "$$A = " + _matrix(p.flexibility) + "$$", ""]
+    return lines
+
+
+def _redundant_name(m, r, j: int) -> str:
+    sp = m.supports[r.support]
+    what = "force" if r.kind == "force" else "moment"
+    return f"X{j} = reaction {what} of the {sp.kind} at x = {plain(sp.x)} m (line {sp.span.line})"
+
+
+def _matrix(rows) -> str:
+    return "\\begin{bmatrix}" + " \\\\ ".join(" & ".join(num(v) for v in row) for row in rows) + "\\end{bmatrix}"
+
+
+def vector(values) -> str:
+    return "\\begin{bmatrix}" + " \\\\ ".join(num(v) for v in values) + "\\end{bmatrix}"
+
+
+CAUTIONS = [
+    "Linear elastic, small-deflection Euler-Bernoulli theory for a prismatic member; shear deformation is "
+    "neglected, which understates deflection of deep or short members.",
+    "Superposition is valid only while the member stays linear elastic; the stress check shows whether it does.",
+    "Not checked here: lateral-torsional and local buckling, web crippling and bearing, connections, vibration, "
+    "ponding, long-term creep and shrinkage of timber or concrete, fire, fatigue, and axial effects.",
+    "Load factors, combinations and deflection limits are the values written in the input file. Limits such as "
+    "span/360, and twice the overhang length for cantilevers and overhangs, are common practice: confirm them "
+    "against the governing local code.",
+    "The shear check uses fy/sqrt(3) (von Mises) at the neutral axis; bending and shear are not combined.",
+    "This calculation must be reviewed and accepted by a qualified, licensed engineer before it is relied on.",
+]
+
+
+def cautions(a: Analysis) -> list[str]:
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS]
+    notes = a.loaded.member.notes
+    if notes:
+        lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
+    return lines + [""]
+
+
+def traceability(a: Analysis) -> list[str]:
+    import hashlib
+    src = a.loaded.source
+    digest = hashlib.sha256(src.text.encode("utf-8")).hexdigest()
+    width = len(str(len(src.text.splitlines())))
+    listing = [f"{i:>{width}}  {text}" for i, text in enumerate(src.text.splitlines(), start=1)]
+    longest = max((len(run) for run in re.findall(r"`+", src.text)), default=0)
+    fence = "`" * max(3, longest + 1)  # the file's own backticks cannot close the block
+    return ["## Traceability", "",
+            f"Input file {md(src.name)}, SHA-256 `{digest}`, built by beamlang {__version__}. "
+            "Nothing in this package depends on the clock; rebuilding the same input gives the same bytes.", "",
+            "### Appendix: the input file, line by line", "", fence + "text", *listing, fence, ""]

@@ -1,0 +1,69 @@
+"""TeX and Markdown text helpers: exact values -> deterministic LaTeX numbers, polynomials, escaped text."""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from ..poly import Poly
+
+DIGITS = 6  # significant digits shown for computed values (all arithmetic is exact)
+_MD_SPECIAL = set("\\`*_{}[]()#+-.!|<>$~&")
+
+
+def num(value: Fraction | float, digits: int = DIGITS) -> str:
+    """A number for LaTeX: fixed significant digits, powers of ten as \\times 10^{k}."""
+    f = float(value)
+    if f == 0:
+        return "0"
+    text = f"{f:.{digits}g}"
+    if "e" in text:
+        mantissa, exp = text.split("e")
+        return f"{mantissa} \\times 10^{{{int(exp)}}}"
+    return text
+
+
+def plain(value: Fraction | float, digits: int = DIGITS) -> str:
+    """A number for running text and table cells outside math (no TeX)."""
+    f = float(value)
+    if f == 0:
+        return "0"
+    text = f"{f:.{digits}g}"
+    if "e" in text:
+        mantissa, exp = text.split("e")
+        return f"{mantissa}e{int(exp)}"
+    return text
+
+
+def poly(p: Poly, var: str = "x", digits: int = DIGITS) -> str:
+    """c_n x^n + ... + c_0 with signs placed as a reader writes them; zero is 0."""
+    terms = [(k, c) for k, c in enumerate(p.coeffs) if c != 0]
+    if not terms:
+        return "0"
+    out = []
+    for i, (k, c) in enumerate(reversed(terms)):
+        sign = "-" if c < 0 else "+"
+        mag = num(abs(c), digits)
+        power = "" if k == 0 else (var if k == 1 else f"{var}^{{{k}}}")
+        body = mag if k == 0 else (power if mag == "1" else f"{mag}\\,{power}")
+        out.append((("-" if sign == "-" else "") if i == 0 else f" {sign} ") + body)
+    return "".join(out)
+
+
+def exact(value: Fraction) -> str:
+    """An exact rational for LaTeX: an integer, or \\frac{p}{q} when the denominator is small."""
+    if value.denominator == 1:
+        return str(value.numerator)
+    if value.denominator < 10**6 and abs(value.numerator) < 10**9:
+        sign = "-" if value < 0 else ""
+        return f"{sign}\\frac{{{abs(value.numerator)}}}{{{value.denominator}}}"
+    return num(value)
+
+
+def md(text: str) -> str:
+    """User text made inert in Markdown: every character that could start markup is escaped."""
+    return "".join("\\" + ch if ch in _MD_SPECIAL else ch for ch in text).replace("\n", " ")
+
+
+def cell(text: str) -> str:
+    """Text for a pipe-table cell (no raw pipes, no line breaks)."""
+    return text.replace("|", "\\|").replace("\n", " ")

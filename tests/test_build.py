@@ -1,0 +1,106 @@
+"""`beamlang build`: byte-identical rebuilds, `out/` kept current, atomic and safe output, escaped user text."""
+
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from beamlang.cli import main
+from beamlang.report import package
+from beamlang.report.html import check_mathml
+from casefiles import EXAMPLES
+from engine_helpers import analyse_text, member_text
+
+ROOT = EXAMPLES.parent
+
+
+def _tree(folder: Path) -> dict[str, bytes]:
+    return {p.relative_to(folder).as_posix(): p.read_bytes() for p in sorted(folder.rglob("*")) if p.is_file()}
+
+
+def _build(out: Path, seed: str, jobs: int = 1) -> dict[str, bytes]:
+    env = dict(os.environ, PYTHONHASHSEED=seed)
+    subprocess.run([sys.executable, "-m", "beamlang", "build", "examples", "-o", str(out), "--jobs", str(jobs)],
+                   cwd=ROOT, env=env, check=True, capture_output=True)
+    return _tree(out)
+
+
+@pytest.fixture(scope="module")
+def built(tmp_path_factory) -> dict[str, bytes]:
+    return _build(tmp_path_factory.mktemp("a"), "1")
+
+
+def test_out_folder_is_current(built):
+    committed = {k: v for k, v in _tree(ROOT / "out").items() if k != "README.md"}
+    assert sorted(committed) == sorted(built), "rebuild out/ with: beamlang build examples -o out"
+    for name, data in built.items():
+        assert committed[name] == data, f"out/{name} differs: rebuild out/ with: beamlang build examples -o out"
+
+
+def test_rebuild_in_another_process_is_byte_identical(built, tmp_path):
+    assert _build(tmp_path / "b", "2", jobs=2) == built  # other hash seed, two worker processes
+
+
+def test_package_has_every_file_and_valid_math(built):
+    marks = {name.split("/")[0] for name in built}
+    assert marks == {"B-3", "CA-1", "J-12", "L-4", "MF-2", "P-7"}
+    for mark in marks:
+        assert {f"{mark}/{mark}.md", f"{mark}/{mark}.html", f"{mark}/results.json",
+                f"{mark}/figures/sign-convention.svg"} <= set(built)
+        page = built[f"{mark}/{mark}.html"].decode("utf-8")
+        assert check_mathml(page) > 20 and "<script" not in page
+        text = built[f"{mark}/{mark}.md"].decode("utf-8")
+        for heading in ("## Summary", "## Inputs", "## Sign convention", "## Section and material", "## Method",
+                        "## Checks", "## Independent cross-check", "## Assumptions and cautions", "## Traceability"):
+            assert heading in text
+        assert "qualified, licensed engineer" in text
+
+
+def test_user_text_is_escaped(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    title = '<script>alert(1)</script> "><img src=x onerror=alert(2)> [link](http://x) ![img](y.png) $5'
+    text = member_text("4 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]},
+                       extra=['note "<b>bold</b> *not emphasis*"']).replace('"Test beam"', '"' + title.replace('"', '\\"') + '"')
+    (tmp_path / "x.beam").write_text(text, encoding="utf-8")
+    assert main(["build", "x.beam", "-o", "out"]) == 0
+    page = (tmp_path / "out" / "T-1" / "T-1.html").read_text(encoding="utf-8")
+    assert "<script>" not in page and "<img src=x" not in page and "<b>bold</b>" not in page
+    assert '<a href="http://x"' not in page and 'src="y.png"' not in page
+    assert "&lt;script&gt;alert(1)&lt;/script&gt;" in page
+
+
+def test_failed_build_leaves_the_previous_package(tmp_path, monkeypatch):
+    a = analyse_text(member_text("4 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]}))
+    first = package.write_package(a, tmp_path)
+    before = _tree(first)
+
+    def broken(_a):
+        raise RuntimeError("disk full")
+    monkeypatch.setattr(package, "package_files", broken)
+    with pytest.raises(RuntimeError):
+        package.write_package(a, tmp_path)
+    assert _tree(first) == before
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["T-1"]  # no staging folder left behind
+
+
+def test_symlink_in_output_is_replaced_not_followed(tmp_path):
+    outside = tmp_path / "outside"
+    outside.mkdir()
+    (outside / "keep.txt").write_text("keep", encoding="utf-8")
+    out = tmp_path / "out"
+    out.mkdir()
+    (out / "T-1").symlink_to(outside, target_is_directory=True)
+    a = analyse_text(member_text("4 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]}))
+    package.write_package(a, out)
+    assert not (out / "T-1").is_symlink() and (out / "T-1" / "T-1.md").is_file()
+    assert sorted(p.name for p in outside.iterdir()) == ["keep.txt"]
+
+
+@pytest.mark.parametrize("mark,folder", [("B-3", "B-3"), ("CON", "CON_"), ("nul.x", "nul.x_"), ("com1", "com1_"),
+                                         ("a.b", "a.b")])
+def test_folder_names_are_safe(mark, folder):
+    assert package.folder_name(mark) == folder
