@@ -73,6 +73,22 @@ def _load_si(ld) -> str:
     return f"w from {plain(ld.w1)} N/m at x = {plain(ld.x1)} m to {plain(ld.w2)} N/m at x = {plain(ld.x2)} m"
 
 
+def _runs(xs, *curves):
+    """(start, end, pieces) with neighbouring segments merged where every curve has the same formula."""
+    out = []
+    for k in range(len(xs) - 1):
+        pieces = tuple(c.pieces[k] for c in curves)
+        if out and out[-1][2] == pieces:
+            out[-1] = (out[-1][0], xs[k + 1], pieces)
+        else:
+            out.append((xs[k], xs[k + 1], pieces))
+    return out
+
+
+def _range(start, end) -> str:
+    return f"{plain(start)} ≤ x ≤ {plain(end)}"
+
+
 def _each_load(a: Analysis, t) -> list[str]:
     lines = ["### Each load's elastic curve", "",
              "Each load is solved alone on this member; v(x) in m with x in m, coefficients shown to six "
@@ -81,8 +97,8 @@ def _each_load(a: Analysis, t) -> list[str]:
     for ld in t.loads:
         solved = load_solution(a.solution, ld)
         lines += [f"Load of line {ld.span.line}:", "", "| segment | v(x) |", "|---|---|"]
-        for k, p in enumerate(solved.curves.v.pieces):
-            lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(p)}$ |")
+        for start, end, (p,) in _runs(xs, solved.curves.v):
+            lines.append(f"| {_range(start, end)} | ${poly(p)}$ |")
         lines.append("")
     return lines
 
@@ -101,11 +117,13 @@ def _compatibility(a: Analysis, t) -> list[str]:
 def _superposed(a: Analysis, t) -> list[str]:
     xs = a.solution.xs
     c = t.curves
-    lines = ["### Superposed curves", "", "V in N, M in N·m, θ in rad, v in m; x in m.", "",
-             "| segment | V(x) | M(x) | θ(x) | v(x) |", "|---|---|---|---|---|"]
-    for k in range(len(xs) - 1):
-        lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(c.V.pieces[k])}$ | ${poly(c.M.pieces[k])}$ | "
-                     f"${poly(c.theta.pieces[k])}$ | ${poly(c.v.pieces[k])}$ |")
+    lines = ["### Superposed curves", "", "The sums of the load curves; x in m.", "",
+             "| segment | V(x) in N | M(x) in N·m |", "|---|---|---|"]
+    for start, end, (V, M) in _runs(xs, c.V, c.M):
+        lines.append(f"| {_range(start, end)} | ${poly(V)}$ | ${poly(M)}$ |")
+    lines += ["", "| segment | θ(x) in rad | v(x) in m |", "|---|---|---|"]
+    for start, end, (theta, v) in _runs(xs, c.theta, c.v):
+        lines.append(f"| {_range(start, end)} | ${poly(theta)}$ | ${poly(v)}$ |")
     return lines + [""]
 
 

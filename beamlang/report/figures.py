@@ -78,12 +78,13 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     for sp in m.supports:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
+    stack = 0
     for case in m.cases:
         if case.name not in factors:
             continue
         for load in case.loads:
-            _load(ax, load, factors[case.name], u)
-    ax.set_ylim(-1.2, 1.6)
+            stack += _load(ax, load, factors[case.name], u, stack)
+    ax.set_ylim(-1.4, max(1.6, 1.0 + 0.9 * stack))
     ax.set_yticks([])
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
     ax.set_title(title, fontsize=8, loc="left")
@@ -123,7 +124,8 @@ def _circle(center, radius):
     return Ellipse(center, 2 * radius, 0.2, facecolor="white", edgecolor="black", linewidth=0.8)
 
 
-def _load(ax, load, factor: Fraction, u: dict) -> None:
+def _load(ax, load, factor: Fraction, u: dict, stack: int) -> int:
+    """Draw one load; distributed loads stack upwards so that none hides another. Returns 1 if stacked."""
     color = "#8b4513"
     if isinstance(load, PointLoad):
         x = float(convert(load.x, u["length"]))
@@ -138,18 +140,23 @@ def _load(ax, load, factor: Fraction, u: dict) -> None:
         ax.plot([x], [0], marker="o", markersize=9, markerfacecolor="none", markeredgecolor=color)
         ax.text(x, 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} {u['moment']}\n{turn}",
                 ha="center", va="bottom", fontsize=6, color=color)
+        return 0
     elif isinstance(load, LineLoad):
         x1, x2 = float(convert(load.x1, u["length"])), float(convert(load.x2, u["length"]))
         w1, w2 = load.w1 * factor, load.w2 * factor
         big = max(abs(w1), abs(w2)) or 1
         h1, h2 = 0.2 + 0.6 * float(abs(w1) / big), 0.2 + 0.6 * float(abs(w2) / big)
         sign = 1 if (w1 + w2) < 0 else -1  # downward loads drawn above the member
-        ax.fill([x1, x1, x2, x2], [0.1 * sign, (0.1 + h1) * sign, (0.1 + h2) * sign, 0.1 * sign],
+        base = 0.1 + 0.9 * stack
+        ax.fill([x1, x1, x2, x2], [base * sign, (base + h1 * 0.8) * sign, (base + h2 * 0.8) * sign, base * sign],
                 facecolor=color, alpha=0.15, edgecolor=color, linewidth=0.8)
+        h1, h2 = base + h1 * 0.8 - 0.1, base + h2 * 0.8 - 0.1
         unit = u["force"] + "/" + u["length"]
         text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
         ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", ha="center",
                 va="bottom" if sign > 0 else "top", fontsize=6, color=color)
+        return 1
+    return 0
 
 
 def sign_convention_figure() -> str:
