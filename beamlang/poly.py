@@ -31,13 +31,16 @@ def _integer_form(coeffs: tuple) -> tuple[int, list[int]]:
 
 @dataclass(frozen=True, slots=True)
 class Poly:
-    """c0 + c1 x + c2 x^2 + ...; the zero polynomial has no coefficients."""
+    """c0 + c1 x + c2 x^2 + ...; the zero polynomial has no coefficients.
+
+    Coefficients are Fractions in the engine; the calc package also runs the same code with
+    `symbolic.Sym` numbers to derive each load's formula in symbols."""
 
     coeffs: tuple = ()
 
     @staticmethod
     def of(*coeffs) -> "Poly":
-        return Poly(_trim(Fraction(c) for c in coeffs))
+        return Poly(_trim(c if not isinstance(c, (int, str)) else Fraction(c) for c in coeffs))
 
     @staticmethod
     def line_through(x1, y1, x2, y2) -> "Poly":
@@ -77,7 +80,7 @@ class Poly:
     __rmul__ = __mul__
 
     def __call__(self, x):
-        if not isinstance(x, (Fraction, int)) or not self.coeffs:
+        if not isinstance(x, (Fraction, int)) or not self.coeffs or not isinstance(self.coeffs[-1], (Fraction, int)):
             acc = 0
             for c in reversed(self.coeffs):
                 acc = acc * x + c

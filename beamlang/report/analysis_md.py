@@ -11,6 +11,7 @@ from ..fmt import statement_text
 from ..pipeline import Analysis
 from ..roots import square_free
 from ..solve import load_solution
+from ..symbolic import latex, load_formula, worth_deriving
 from .sections import vector
 from .tex import cell, md, num, plain, poly
 
@@ -90,17 +91,41 @@ def _range(start, end) -> str:
 
 
 def _each_load(a: Analysis, t) -> list[str]:
+    m = a.loaded.member
+    symbolic = worth_deriving(m, len(a.solution.primary.redundants))
     lines = ["### Each load's elastic curve", "",
-             "Each load is solved alone on this member; v(x) in m with x in m, coefficients shown to six "
-             "significant digits (computed exactly). The case curve is their sum.", ""]
+             "Each load is solved alone on this member. " + (
+                 "First its general formula, derived by the engine for this support layout (the table formula "
+                 "for this case), with the value of every symbol; then " if symbolic else
+                 "(General formulas are not shown for members with springs or more than two redundants: they "
+                 "run to many lines.) ") +
+             "v(x) in m with x in m, coefficients shown to six significant digits (computed exactly). "
+             "The case curve is their sum.", ""]
     xs = a.solution.xs
     for ld in t.loads:
         solved = load_solution(a.solution, ld)
-        lines += [f"Load of line {ld.span.line}:", "", "| segment | v(x) |", "|---|---|"]
+        lines += [f"Load of line {ld.span.line}:", ""]
+        if symbolic:
+            lines += _formula(m, ld)
+        lines += ["| segment | v(x) |", "|---|---|"]
         for start, end, (p,) in _runs(xs, solved.curves.v):
             lines.append(f"| {_range(start, end)} | ${poly(p)}$ |")
         lines.append("")
     return lines
+
+
+def _formula(m, ld) -> list[str]:
+    segments, names = load_formula(m, ld)
+    out = []
+    for start, end, expr in segments:
+        out += [f"$$v(x) = {latex(expr)} \\qquad ({plain(start)} \\le x \\le {plain(end)})$$", ""]
+    values = ", ".join(f"${_symbol(n)} = {num(v)}$" for n, v in names.items())
+    return out + [f"with {values} (SI units).", ""]
+
+
+def _symbol(name: str) -> str:
+    base, _, sub = name.partition("_")
+    return f"{base}_{{{sub}}}" if sub else base
 
 
 def _compatibility(a: Analysis, t) -> list[str]:

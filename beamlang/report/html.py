@@ -77,6 +77,7 @@ CSS = """
 :root { --ink: #1b1b1b; --rule: #c8c8c8; --head: #1f4e79; }
 body { font-family: "DejaVu Serif", Georgia, serif; color: var(--ink); margin: 0; background: #fff; }
 main { max-width: 60rem; margin: 0 auto; padding: 1.5rem 2rem 4rem; line-height: 1.45; }
+math[display="block"] { overflow-x: auto; overflow-y: hidden; padding: .2rem 0; }
 math { font-family: 'Beamlang Math', 'Latin Modern Math', 'STIX Two Math', math; font-size: 1.05em; }
 h1 { font-size: 1.6rem; color: var(--head); border-bottom: 2px solid var(--head); padding-bottom: .3rem; }
 h2 { font-size: 1.25rem; color: var(--head); border-bottom: 1px solid var(--rule); margin-top: 2.2rem; }

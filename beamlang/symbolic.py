@@ -1,0 +1,168 @@
+"""Symbolic formulas: Member + one load -> that load's elastic curve in symbols (P or w, a, b, L, E, I, ...).
+
+The engine itself derives them: the same solver runs on numbers that carry a sympy expression beside
+their exact value. Orderings and zero tests use the value, so the formula is the one that holds for this
+layout (which segment lies where); the algebra is done by sympy. Used only by the calc package."""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass
+from fractions import Fraction
+
+from .model import LineLoad, Load, Member, MomentLoad, PointLoad
+
+
+@dataclass(frozen=True, slots=True, eq=False)
+class Sym:
+    value: Fraction
+    expr: object  # a sympy expression
+
+    def _pair(self, other):
+        if isinstance(other, Sym):
+            return other.value, other.expr
+        import sympy
+        other = Fraction(other)
+        return other, sympy.Rational(other.numerator, other.denominator)
+
+    def __add__(self, other):
+        v, e = self._pair(other)
+        return Sym(self.value + v, self.expr + e)
+
+    __radd__ = __add__
+
+    def __sub__(self, other):
+        v, e = self._pair(other)
+        return Sym(self.value - v, self.expr - e)
+
+    def __rsub__(self, other):
+        v, e = self._pair(other)
+        return Sym(v - self.value, e - self.expr)
+
+    def __mul__(self, other):
+        v, e = self._pair(other)
+        return Sym(self.value * v, self.expr * e)
+
+    __rmul__ = __mul__
+
+    def __truediv__(self, other):
+        v, e = self._pair(other)
+        return Sym(self.value / v, self.expr / e)
+
+    def __rtruediv__(self, other):
+        v, e = self._pair(other)
+        return Sym(v / self.value, e / self.expr)
+
+    def __neg__(self):
+        return Sym(-self.value, -self.expr)
+
+    def __abs__(self):
+        return self if self.value >= 0 else -self
+
+    def __eq__(self, other):
+        return self.value == (other.value if isinstance(other, Sym) else other)
+
+    def __hash__(self):
+        return hash(self.value)
+
+    def __lt__(self, other):
+        return self.value < (other.value if isinstance(other, Sym) else other)
+
+    def __le__(self, other):
+        return self.value <= (other.value if isinstance(other, Sym) else other)
+
+    def __gt__(self, other):
+        return self.value > (other.value if isinstance(other, Sym) else other)
+
+    def __ge__(self, other):
+        return self.value >= (other.value if isinstance(other, Sym) else other)
+
+    def __bool__(self):
+        return self.value != 0
+
+
+def symbolic_member(member: Member, load: Load) -> tuple[Member, Load, dict[str, Fraction]]:
+    """The member with only `load`, every number a Sym; also {symbol name: its value}."""
+    import sympy
+    names: dict[str, Fraction] = {}
+
+    def sym(name: str, value: Fraction) -> Sym:
+        names[name] = value
+        return Sym(value, sympy.Symbol(name, positive=True))
+
+    L = sym("L", member.length)
+
+    def pos(value: Fraction, name: str) -> Sym | Fraction:
+        if value == 0:
+            return Fraction(0)
+        return L if value == member.length else sym(name, value)
+
+    letters = iter("ABCDEFGHJKMNPQRSTUVWXYZ")
+    supports = []
+    for sp in member.supports:
+        letter = next(letters)
+        k = sym(f"k_{letter}", sp.stiffness) if sp.kind == "spring" and sp.stiffness else sp.stiffness
+        supports.append(dataclasses.replace(sp, x=pos(sp.x, f"x_{letter}"), stiffness=k))
+    mat = dataclasses.replace(member.material, E=sym("E", member.material.E))
+    sec = dataclasses.replace(member.section, I=sym("I", member.section.I))
+    new_load = _symbolic_load(load, pos, sym)
+    case = dataclasses.replace(member.cases[0], name="load", loads=(new_load,))
+    m = dataclasses.replace(member, length=L, material=mat, section=sec, supports=tuple(supports), cases=(case,),
+                            combinations=(), report_points=())
+    return m, new_load, names
+
+
+def _symbolic_load(load: Load, pos, sym) -> Load:
+    sign = lambda v: 1 if v >= 0 else -1  # noqa: E731  the symbol is the magnitude; the sign stays numeric
+    if isinstance(load, PointLoad):
+        return dataclasses.replace(load, x=pos(load.x, "a"), force=sign(load.force) * sym("P", abs(load.force)))
+    if isinstance(load, MomentLoad):
+        return dataclasses.replace(load, x=pos(load.x, "a"), moment=sign(load.moment) * sym("C", abs(load.moment)))
+    x1, x2 = pos(load.x1, "a"), pos(load.x2, "b")
+    if load.w1 == load.w2:
+        w = sign(load.w1) * sym("w", abs(load.w1))
+        return dataclasses.replace(load, x1=x1, x2=x2, w1=w, w2=w)
+    w1 = sign(load.w1) * sym("w_1", abs(load.w1)) if load.w1 else Fraction(0)
+    w2 = sign(load.w2) * sym("w_2", abs(load.w2)) if load.w2 else Fraction(0)
+    return dataclasses.replace(load, x1=x1, x2=x2, w1=w1, w2=w2)
+
+
+MAX_REDUNDANTS = 2  # beyond this (or with springs) the general formula is too long to help a checker
+
+
+def worth_deriving(member: Member, redundants: int) -> bool:
+    """Symbolic formulas are shown for determinate members and for up to two redundants without springs."""
+    return redundants <= MAX_REDUNDANTS and not any(sp.kind == "spring" for sp in member.supports)
+
+
+def latex(expr) -> str:
+    """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML)."""
+    import sympy
+    return sympy.latex(expr).replace("\\left(", "(").replace("\\right)", ")")
+
+
+def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fraction, object]], dict[str, Fraction]]:
+    """[(segment start, end, v(x) as a sympy expression)] for one load alone, and the symbols' values."""
+    import sympy
+    from .solve import solve
+    m, _, names = symbolic_member(member, load)
+    sol = solve(m)
+    x = sympy.Symbol("x")
+    out = []
+    for k, p in enumerate(sol.targets[0].curves.v.pieces):
+        expr = sum((_expr(c) * x**i for i, c in enumerate(p.coeffs)), sympy.Integer(0))
+        a, b = sol.xs[k], sol.xs[k + 1]
+        out.append((_value(a), _value(b), sympy.factor(sympy.together(expr))))
+    return out, names
+
+
+def _expr(c):
+    import sympy
+    if isinstance(c, Sym):
+        return c.expr
+    c = Fraction(c)
+    return sympy.Rational(c.numerator, c.denominator)
+
+
+def _value(c) -> Fraction:
+    return c.value if isinstance(c, Sym) else Fraction(c)
