@@ -242,6 +242,21 @@ def _points(a: Analysis, r) -> list[str]:
     return lines + [""]
 
 
+def envelope(a: Analysis, figure: str) -> list[str]:
+    from .figures import envelope_targets
+    u = report_units(a.loaded.member)
+    names = envelope_targets(a)
+    rows = []
+    for name in names:
+        r = next(x for x in a.results if x.name == name)
+        rows.append(f"| {md(name)} | {show(r.moment_positive.value if r.moment_positive else None, u, 'moment')} | "
+                    f"{show(r.moment_negative.value if r.moment_negative else None, u, 'moment')} | "
+                    f"{show(r.max_down.value if r.max_down else None, u, 'deflection')} | "
+                    f"{show(r.max_up.value if r.max_up else None, u, 'deflection')} |")
+    return ["## Envelope", "", "| case or combination | largest M+ | largest M- | largest down | largest up |",
+            "|---|---|---|---|---|", *rows, "", f"![Envelope of moment and deflection]({figure})", ""]
+
+
 def checks_detail(a: Analysis) -> list[str]:
     u = report_units(a.loaded.member)
     lines = ["## Checks", "", "| input line | check | case or combination | actual | allowed | ratio | basis | result |",

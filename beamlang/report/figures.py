@@ -178,11 +178,47 @@ def sign_convention_figure() -> str:
     return _svg(fig)
 
 
+def envelope_targets(a: Analysis) -> list[str]:
+    """The combinations, or the cases when there are none."""
+    combos = [t.name for t in a.solution.targets if t.kind == "combination"]
+    return combos or [t.name for t in a.solution.targets]
+
+
+def envelope_figure(a: Analysis) -> str:
+    """M and v of every combination on one figure, with the upper and lower envelope."""
+    plt = _pyplot()
+    u = report_units(a.loaded.member)
+    names = envelope_targets(a)
+    fig, axes = plt.subplots(2, 1, figsize=(7.0, 4.6), sharex=True, layout=None)
+    fig.subplots_adjust(hspace=0.25, left=0.12, right=0.97, top=0.93, bottom=0.1)
+    for ax, attr, quantity, label in ((axes[0], "M", "moment", "M"), (axes[1], "v", "deflection", "v")):
+        series = []
+        for i, name in enumerate(names):
+            xs, ys = _sample(getattr(a.solution.target(name).curves, attr), u[quantity])
+            x = [float(convert(p, u["length"])) for p in xs]
+            ax.plot(x, ys, linewidth=0.9, label=name, color=_PALETTE[i % len(_PALETTE)])
+            series.append(ys)
+        ax.fill_between(x, [max(col) for col in zip(*series)], [min(col) for col in zip(*series)],
+                        color="#888888", alpha=0.15, label="envelope")
+        ax.axhline(0, color="black", linewidth=0.6)
+        ax.set_ylabel(f"{label} ({u[quantity]})")
+    axes[0].legend(fontsize=7, loc="best")
+    axes[0].set_title("Envelope of " + ("the combinations" if len(names) < len(a.solution.targets) or
+                                       all(t.kind == "combination" for t in a.solution.targets) else "the cases"),
+                      fontsize=8, loc="left")
+    axes[1].set_xlabel(f"x ({u['length']}) from the left end")
+    return _svg(fig)
+
+
+_PALETTE = ("#1f4e79", "#b22222", "#2e7d32", "#8b4513", "#6a1b9a", "#00838f")
+
+
 def all_figures(a: Analysis) -> dict[str, str]:
     """{file name: SVG text} for the whole package, file names sorted and safe."""
     out = {"sign-convention.svg": sign_convention_figure()}
     for i, t in enumerate(a.solution.targets, start=1):
         out[f"{i:02d}-{_safe(t.name)}.svg"] = target_figure(a, t.name)
+    out["envelope.svg"] = envelope_figure(a)
     return out
 
 

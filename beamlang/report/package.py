@@ -27,7 +27,7 @@ def package_files(a: Analysis) -> dict[str, bytes]:
     from .markdown import member_markdown
     mark = folder_name(a.loaded.member.mark)
     svgs = all_figures(a)
-    names = {"sign convention": "figures/sign-convention.svg"}
+    names = {"sign convention": "figures/sign-convention.svg", "(envelope)": "figures/envelope.svg"}  # not a possible case name
     for (file, _), t in zip(list(svgs.items())[1:], a.solution.targets):
         names[t.name] = f"figures/{file}"
     text = member_markdown(a, names)
