@@ -54,6 +54,16 @@ def _parser() -> argparse.ArgumentParser:
     check = sub.add_parser("check", help="solve members and run their checks; exit 1 if any check fails")
     check.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     check.add_argument("--json", action="store_true", help="print results.json objects (a list) instead of tables")
+    check.add_argument("--junit", metavar="FILE", help="also write JUnit XML: one test case per member check")
+    diff = sub.add_parser("diff", help="what a revision changed: inputs, results and check status")
+    diff.add_argument("sides", nargs="*", metavar="OLD NEW | PATHS",
+                      help="two files (either may be REV:path), or with --rev the paths to compare")
+    diff.add_argument("--rev", help="compare every .beam file under PATHS between REV and the working tree")
+    diff.add_argument("--format", choices=("text", "markdown", "json"), default="text")
+    diff.add_argument("--fail-on", choices=("regression",), help="exit 1 when any check fails or gets worse")
+    diff.add_argument("--threshold", type=float, default=0.05,
+                      help="flag a check whose ratio moves by more than this fraction (default 0.05)")
+    diff.set_defaults(run=_run_diff)
     check.set_defaults(run=_run_check)
     for sp in sub.choices.values():
         sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
@@ -140,6 +150,9 @@ def _run_check(args: argparse.Namespace) -> int:
     loaded, errors, found = _each(args.paths)
     _report(errors)
     analyses = [analyse_loaded(item) for item in loaded]
+    if args.junit:
+        from .junit import junit_xml
+        Path(args.junit).write_text(junit_xml(analyses, errors), encoding="utf-8")
     if args.json:
         from .jsonout import member_json
         print(json.dumps([member_json(a) for a in analyses], indent=2))
@@ -149,6 +162,63 @@ def _run_check(args: argparse.Namespace) -> int:
     if errors or not found:
         return EXIT_INPUT
     return EXIT_OK if all(a.passed for a in analyses) else EXIT_FAIL
+
+
+def _run_diff(args: argparse.Namespace) -> int:
+    import os
+
+    from . import diffout
+    from .diff import diff_members
+    pairs = _diff_pairs(args)
+    diffs = [diff_members(name, old, new, args.threshold) for name, old, new in pairs]
+    if args.format == "json":
+        print(diffout.as_json(diffs), end="")
+    elif args.format == "markdown":
+        print(diffout.markdown(diffs), end="")
+    else:
+        colour = sys.stdout.isatty() and "NO_COLOR" not in os.environ
+        print(diffout.text(diffs, colour), end="")
+    if args.fail_on == "regression" and any(d.regression for d in diffs):
+        return EXIT_FAIL
+    return EXIT_OK
+
+
+def _diff_pairs(args: argparse.Namespace) -> list:
+    """[(name, old analysis or None, new analysis or None)] for the two forms of `diff`."""
+    from .frontend import expand
+    from .gitsource import files_at
+    if args.rev:
+        old_files = set(files_at(args.rev, args.sides))
+        new_files = {p.as_posix() for p in expand(args.sides or ["."])}
+        names = sorted(old_files | new_files)
+        return [(n, _side(f"{args.rev}:{n}") if n in old_files else None, _side(n) if n in new_files else None)
+                for n in names]
+    if len(args.sides) != 2:
+        raise BeamError([_usage("diff takes OLD and NEW (each a file or REV:path), or --rev REV [PATHS]")])
+    old, new = args.sides
+    return [(new if old.split(":")[-1] == new.split(":")[-1] else f"{old} -> {new}", _side(old), _side(new))]
+
+
+def _side(arg: str):
+    """A file, or REV:path read through git; analysed."""
+    from .build import build
+    from .frontend import Loaded
+    from .gitsource import read_revision
+    from .parse import parse, read_source
+    from .pipeline import analyse_loaded
+    if ":" in arg and not Path(arg).exists():
+        rev, _, path = arg.partition(":")
+        source = read_revision(rev, path)
+    else:
+        source = read_source(arg)
+    doc = parse(source)
+    return analyse_loaded(Loaded(Path(source.name), source, doc, build(doc)))
+
+
+def _usage(message: str):
+    from .errors import Diagnostic
+    from .source import Span
+    return Diagnostic(Span("beamlang", 1, 1, 2), message)
 
 
 if __name__ == "__main__":

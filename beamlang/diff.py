@@ -1,0 +1,259 @@
+"""Diff: two versions of a member -> semantic input changes, result deltas and check status changes."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+
+from . import syntax as s
+from .fmt import statement_text
+from .model import essence
+from .pipeline import Analysis
+
+THRESHOLD = 0.05  # a check whose ratio moves by more than this (relative) is flagged
+
+
+@dataclass(frozen=True, slots=True)
+class InputChange:
+    kind: str  # "changed" | "added" | "removed"
+    what: str  # e.g. "section I", "case live: load", "support"
+    old: str | None
+    new: str | None
+    line: int | None  # line in the new file (or the old one for a removal)
+
+
+@dataclass(frozen=True, slots=True)
+class Delta:
+    target: str
+    quantity: str  # e.g. "max down deflection"
+    unit: str  # SI unit
+    old: Fraction | None
+    new: Fraction | None
+    old_x: Fraction | None
+    new_x: Fraction | None
+
+    @property
+    def percent(self) -> float | None:
+        """Change of the magnitude, in percent (a deflection growing downwards is an increase)."""
+        if self.old is None or self.new is None or self.old == 0 or (self.old > 0) != (self.new > 0):
+            return None
+        return float((abs(self.new) - abs(self.old)) / abs(self.old) * 100)
+
+
+@dataclass(frozen=True, slots=True)
+class StatusChange:
+    check: str  # "deflection live (span/360)"
+    old_ratio: float | None
+    new_ratio: float | None
+    old_pass: bool | None
+    new_pass: bool | None
+
+    @property
+    def label(self) -> str:
+        if self.old_pass is None:
+            return "NEW " + ("PASS" if self.new_pass else "FAIL")
+        if self.new_pass is None:
+            return "REMOVED"
+        if self.old_pass and not self.new_pass:
+            return "PASS -> FAIL"
+        if not self.old_pass and self.new_pass:
+            return "FAIL -> PASS"
+        return "ratio up" if self.new_ratio > self.old_ratio else "ratio down"
+
+    @property
+    def worse(self) -> bool:
+        """A regression: the check fails now, or its ratio grew."""
+        if self.new_pass is None:
+            return False
+        if not self.new_pass:
+            return True
+        return self.old_ratio is not None and self.new_ratio > self.old_ratio * (1 + 1e-9)
+
+
+@dataclass(frozen=True, slots=True)
+class MemberDiff:
+    name: str  # path or mark shown to the reader
+    status: str  # "changed" | "added" | "removed"
+    units: dict  # report units of the newer version, for text output
+    design_changed: bool
+    inputs: tuple[InputChange, ...]
+    statuses: tuple[StatusChange, ...]  # flagged ones first
+    deltas: tuple[Delta, ...]
+
+    @property
+    def regression(self) -> bool:
+        return any(c.worse for c in self.statuses)
+
+
+def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshold: float = THRESHOLD) -> MemberDiff:
+    """Compare two analyses of one member (either may be missing: added or removed files)."""
+    from .display import report_units
+    if old is None or new is None:
+        only = new or old
+        statuses = tuple(_status(_key(c), None if new else c, c if new else None) for c in only.checks)
+        return MemberDiff(name, "added" if new else "removed", report_units(only.loaded.member), True, (), statuses, ())
+    inputs = tuple(input_changes(old.loaded.document, new.loaded.document))
+    design = _design(old) != _design(new)
+    statuses = _statuses(old, new, threshold)
+    deltas = tuple(_deltas(old, new)) if design else ()
+    return MemberDiff(name, "changed", report_units(new.loaded.member), design, inputs, statuses, deltas)
+
+
+def _design(a: Analysis):
+    m = essence(a.loaded.member)
+    return tuple(item for item in m[1:] if item[0] not in ("mark", "title", "fields", "notes", "units"))
+
+
+# -- inputs, statement by statement, matched by meaning ----------------------------------------------
+
+def input_changes(old: s.Document, new: s.Document) -> list[InputChange]:
+    out: list[InputChange] = []
+    o, n = _index(old), _index(new)
+    for key in _ordered_keys(o, n):
+        a, b = o.get(key), n.get(key)
+        if a is not None and b is not None:
+            out += _compare(key, a, b)
+        elif b is not None:
+            out.append(InputChange("added", _label(key), None, statement_text(b), b.span.line))
+        else:
+            out.append(InputChange("removed", _label(key), statement_text(a), None, a.span.line))
+    return out
+
+
+def _index(doc: s.Document) -> dict[tuple, s.Statement]:
+    """Statements keyed by meaning: singletons by kind, loads by case and order of their kind, others by name."""
+    index: dict[tuple, s.Statement] = {}
+    case = None
+    seen: dict[tuple, int] = {}
+    for _, st in doc.statements:
+        if isinstance(st, s.Case):
+            case = st.name.text
+            key = ("case", case)
+        elif isinstance(st, s.LOADS):
+            kind = type(st).__name__.lower()
+            n = seen.get((case, kind), 0)
+            seen[(case, kind)] = n + 1
+            key = ("load", case, kind, n)
+        elif isinstance(st, s.Field):
+            key = ("field", st.name)
+        elif isinstance(st, (s.Member, s.Units, s.SpanLength, s.Material, s.Section)):
+            key = (type(st).__name__.lower(),)
+        elif isinstance(st, s.Support):
+            key = ("support", str(st.at))  # a moved support shows as removed and added
+        elif isinstance(st, s.Combine):
+            key = ("combine", st.name.text)
+        elif isinstance(st, s.Limit):
+            key = ("limit", st.target.text, "ratio" if st.divisor else "absolute")
+        elif isinstance(st, s.StressCheck):
+            key = ("check", st.target.text)
+        elif isinstance(st, s.Report):
+            key = ("report", str(st.at))
+        else:
+            key = ("note", st.text)
+        index[key] = st
+    return index
+
+
+def _ordered_keys(o: dict, n: dict) -> list[tuple]:
+    keys = list(n)
+    keys += [k for k in o if k not in n]
+    return keys
+
+
+def _label(key: tuple) -> str:
+    kind = key[0]
+    if kind == "load":
+        return f"case {key[1]}: {key[2]} load"
+    if kind in ("case", "combine", "check", "field"):
+        return f"{'combination' if kind == 'combine' else 'stress check' if kind == 'check' else kind} {key[1]}"
+    if kind == "limit":
+        return f"limit on {key[1]}"
+    if kind in ("support", "report"):
+        return f"{kind} at {key[1]}"
+    return kind
+
+
+def _compare(key: tuple, a: s.Statement, b: s.Statement) -> list[InputChange]:
+    shape = lambda st: st.shape.text if isinstance(st, s.Section) else None  # noqa: E731
+    if isinstance(a, (s.Material, s.Section)) and type(a) is type(b) and shape(a) == shape(b):
+        return _properties(key[0], a, b)
+    ta, tb = statement_text(a), statement_text(b)
+    if ta == tb:
+        return []
+    return [InputChange("changed", _label(key), ta, tb, b.span.line)]
+
+
+def _properties(kind: str, a, b) -> list[InputChange]:
+    pa = {p.name.text: _prop_text(p) for p in a.properties}
+    pb = {p.name.text: _prop_text(p) for p in b.properties}
+    out = []
+    for name in list(pb) + [k for k in pa if k not in pb]:
+        old, new = pa.get(name), pb.get(name)
+        if old != new:
+            change = "changed" if old and new else ("added" if new else "removed")
+            out.append(InputChange(change, f"{kind} {name}", old, new, b.span.line))
+    return out
+
+
+def _prop_text(p: s.Property) -> str:
+    return f"{p.value}" + (f" x {p.second}" if p.second else "")
+
+
+# -- results and checks ---------------------------------------------------------------------------
+
+def _key(c) -> str:
+    basis = c.basis.split(",")[0] if c.kind == "deflection" else c.kind
+    return f"{c.kind} {c.target}" + (f" ({basis})" if c.kind == "deflection" else "")
+
+
+def _status(key: str, old, new) -> StatusChange:
+    return StatusChange(key, old.ratio if old else None, new.ratio if new else None,
+                        old.passed if old else None, new.passed if new else None)
+
+
+def _statuses(old: Analysis, new: Analysis, threshold: float) -> tuple[StatusChange, ...]:
+    o = {_key(c): c for c in old.checks}
+    n = {_key(c): c for c in new.checks}
+    changes = []
+    for key in list(n) + [k for k in o if k not in n]:
+        a, b = o.get(key), n.get(key)
+        change = _status(key, a, b)
+        moved = a is not None and b is not None and abs(b.ratio - a.ratio) > threshold * a.ratio
+        if a is None or b is None or a.passed != b.passed or moved:
+            changes.append(change)
+    order = {"PASS -> FAIL": 0, "NEW FAIL": 1, "FAIL -> PASS": 2, "ratio up": 3, "NEW PASS": 4, "ratio down": 5,
+             "REMOVED": 6}
+    return tuple(sorted(changes, key=lambda c: order[c.label]))
+
+
+def _deltas(old: Analysis, new: Analysis) -> list[Delta]:
+    out = []
+    o = {r.name: r for r in old.results}
+    for r in new.results:
+        p = o.get(r.name)
+        if p is None:
+            continue
+        for label, unit, get in _QUANTITIES:
+            a, b = get(p), get(r)
+            if (a[0] if a else None) != (b[0] if b else None):
+                out.append(Delta(r.name, label, unit, a[0] if a else None, b[0] if b else None,
+                                 a[1] if a else None, b[1] if b else None))
+        for i, ((x, f, mo), (x2, f2, mo2)) in enumerate(zip(p.reactions, r.reactions)):
+            if f != f2:
+                out.append(Delta(r.name, f"reaction at support {i + 1}", "N", f, f2, x, x2))
+    return out
+
+
+def _loc(located):
+    return (located.value, located.x) if located else None
+
+
+_QUANTITIES = (
+    ("max down deflection", "m", lambda r: _loc(r.max_down)),
+    ("max up deflection", "m", lambda r: _loc(r.max_up)),
+    ("max sagging moment", "N*m", lambda r: _loc(r.moment_positive)),
+    ("max hogging moment", "N*m", lambda r: _loc(r.moment_negative)),
+    ("max shear", "N", lambda r: _loc(r.shear_max)),
+    ("bending stress", "Pa", lambda r: (r.stress.bending, None) if r.stress.bending is not None else None),
+    ("shear stress", "Pa", lambda r: (r.stress.shear, None) if r.stress.shear is not None else None),
+)

@@ -1,0 +1,43 @@
+"""JUnit XML: analyses and input errors -> one test case per member check (failures and errors as JUnit means them)."""
+
+from __future__ import annotations
+
+import xml.etree.ElementTree as ET
+
+from .display import report_units, show
+from .errors import BeamError
+from .pipeline import Analysis
+
+
+def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:
+    root = ET.Element("testsuites", name="beamlang")
+    totals = {"tests": 0, "failures": 0, "errors": 0}
+    for a in analyses:
+        m = a.loaded.member
+        suite = ET.SubElement(root, "testsuite", name=m.mark, file=a.loaded.source.name)
+        failures = 0
+        u = report_units(m)
+        for c in a.checks:
+            case = ET.SubElement(suite, "testcase", classname=m.mark, name=f"{c.kind} {c.target} (line {c.span.line})")
+            if not c.passed:
+                failures += 1
+                q = "deflection" if c.unit == "m" else "stress"
+                ET.SubElement(case, "failure", message=(f"actual {show(c.actual, u, q)}, allowed {show(c.allowed, u, q)}, "
+                                                        f"ratio {c.ratio:.3f}"), type="check failed")
+        suite.set("tests", str(len(a.checks)))
+        suite.set("failures", str(failures))
+        suite.set("errors", "0")
+        totals["tests"] += len(a.checks)
+        totals["failures"] += failures
+    for exc in errors:
+        name = exc.diagnostics[0].span.file if exc.diagnostics else "input"
+        suite = ET.SubElement(root, "testsuite", name=name, tests="1", failures="0", errors="1")
+        case = ET.SubElement(suite, "testcase", classname=name, name="input")
+        ET.SubElement(case, "error", message=exc.diagnostics[0].message if exc.diagnostics else "input error",
+                      type="input error").text = exc.render()
+        totals["tests"] += 1
+        totals["errors"] += 1
+    for key, value in totals.items():
+        root.set(key, str(value))
+    ET.indent(root)
+    return '<?xml version="1.0" encoding="utf-8"?>\n' + ET.tostring(root, encoding="unicode") + "\n"
