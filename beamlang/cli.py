@@ -50,7 +50,12 @@ def _parser() -> argparse.ArgumentParser:
     build.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     build.add_argument("-o", "--out", default="out", help="output folder (default: out)")
     build.add_argument("--jobs", type=int, default=1, help="members built in parallel (default 1)")
+    build.add_argument("--since", metavar="REV", help="add a 'Changes since REV' section computed by the diff")
     build.set_defaults(run=_run_build)
+    watch = sub.add_parser("watch", help="rebuild the packages of changed members on save")
+    watch.add_argument("paths", nargs="+", metavar="FILES|DIRS")
+    watch.add_argument("-o", "--out", default="out", help="output folder (default: out)")
+    watch.set_defaults(run=_run_watch)
     check = sub.add_parser("check", help="solve members and run their checks; exit 1 if any check fails")
     check.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     check.add_argument("--json", action="store_true", help="print results.json objects (a list) instead of tables")
@@ -122,9 +127,9 @@ def _run_build(args: argparse.Namespace) -> int:
     if jobs > 1 and len(loaded) > 1:
         from concurrent.futures import ProcessPoolExecutor
         with ProcessPoolExecutor(max_workers=jobs) as pool:
-            outcomes = list(pool.map(_build_one, loaded, [out] * len(loaded)))
+            outcomes = list(pool.map(_build_one, loaded, [out] * len(loaded), [args.since] * len(loaded)))
     else:
-        outcomes = [_build_one(item, out) for item in loaded]
+        outcomes = [_build_one(item, out, args.since) for item in loaded]
     tty = sys.stderr.isatty()
     for i, (folder, passed, total) in enumerate(outcomes, start=1):
         prefix = f"[{i}/{len(outcomes)}] " if tty else ""
@@ -134,13 +139,32 @@ def _run_build(args: argparse.Namespace) -> int:
     return EXIT_OK if all(p == t for _, p, t in outcomes) else EXIT_FAIL
 
 
-def _build_one(item, out: Path) -> tuple[str, int, int]:
+def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int]:
     """One member's package (runs in a worker process with --jobs)."""
     from .pipeline import analyse_loaded
     from .report.package import write_package
     a = analyse_loaded(item)
-    folder = write_package(a, out)
+    folder = write_package(a, out, _changes_since(since, item, a) if since else ())
     return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks)
+
+
+def _changes_since(rev: str, item, a) -> list[str]:
+    """The 'Changes since REV' section of a package: the diff of this member's file against REV."""
+    from . import diffout
+    from .diff import diff_members
+    from .gitsource import files_at
+    from .report.tex import md
+    name = item.path.as_posix()
+    old = _side(f"{rev}:{name}") if name in files_at(rev, [name]) else None
+    d = diff_members(name, old, a)
+    body = diffout.markdown([d]).split("\n", 2)[2] if old else "The file did not exist at this revision.\n"
+    return [f"## Changes since {md(rev)}", "", body.rstrip("\n") or "No change.", ""]
+
+
+def _run_watch(args: argparse.Namespace) -> int:
+    from .watch import watch_loop
+    watch_loop(args.paths, Path(args.out))
+    return EXIT_OK
 
 
 def _run_check(args: argparse.Namespace) -> int:

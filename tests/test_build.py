@@ -78,7 +78,7 @@ def test_failed_build_leaves_the_previous_package(tmp_path, monkeypatch):
     first = package.write_package(a, tmp_path)
     before = _tree(first)
 
-    def broken(_a):
+    def broken(*_args):
         raise RuntimeError("disk full")
     monkeypatch.setattr(package, "package_files", broken)
     with pytest.raises(RuntimeError):

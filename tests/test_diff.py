@@ -103,3 +103,12 @@ def test_junit_counts_match(repo, capsys, tmp_path):
     assert int(root.get("failures")) == len(failures) >= 1 and int(root.get("errors")) == len(errors) == 1
     assert failures[0].get("message").startswith("actual ") and "ratio" in failures[0].get("message")
     assert "this number needs its unit" in errors[0].text
+
+
+def test_build_since_adds_the_changes_section(repo, capsys):
+    assert main(["build", "beams", "-o", "out", "--since", "HEAD~1"]) == 1  # the heavier load fails a check
+    text = (repo / "out" / "B-3" / "B-3.md").read_text(encoding="utf-8")
+    section = text.split("## Changes since HEAD\\~1\n", 1)[1].split("\n## ", 1)[0]
+    assert "| **PASS -> FAIL** |" in section and "| changed | section depth | `250 mm` | `200 mm` | 14 |" in section
+    other = (repo / "out" / "CA-1" / "CA-1.md").read_text(encoding="utf-8")
+    assert "## Changes since HEAD\\~1\n\nNo change." in other

@@ -7,9 +7,10 @@ from . import analysis_md as results
 from . import sections
 
 
-def member_markdown(a: Analysis, figures: dict[str, str]) -> str:
-    """The whole package in the order a checker reads it; `figures` maps target name -> relative path."""
-    parts = [sections.title(a), results.summary(a), sections.inputs(a),
+def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | None = None) -> str:
+    """The whole package in the order a checker reads it; `figures` maps target name -> relative path;
+    `changes` is the optional 'Changes since REV' section, placed after the summary."""
+    parts = [sections.title(a), results.summary(a), changes or [], sections.inputs(a),
              sections.signs(a, figures["sign convention"]), sections.section_properties(a), sections.method(a)]
     parts += [results.target(a, t.name, figures[t.name]) for t in a.solution.targets]
     parts += [results.envelope(a, figures["(envelope)"])]

@@ -20,7 +20,7 @@ def folder_name(mark: str) -> str:
     return name + "_" if name.split(".")[0].upper() in RESERVED else name
 
 
-def package_files(a: Analysis) -> dict[str, bytes]:
+def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page embeds them)."""
     from .figures import all_figures
     from .html import member_html
@@ -30,7 +30,7 @@ def package_files(a: Analysis) -> dict[str, bytes]:
     names = {"sign convention": "figures/sign-convention.svg", "(envelope)": "figures/envelope.svg"}  # not a possible case name
     for (file, _), t in zip(list(svgs.items())[1:], a.solution.targets):
         names[t.name] = f"figures/{file}"
-    text = member_markdown(a, names)
+    text = member_markdown(a, names, list(changes))
     files = {f"figures/{k}": v.encode("utf-8") for k, v in svgs.items()}
     files[f"{mark}.md"] = text.encode("utf-8")
     page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",
@@ -40,9 +40,9 @@ def package_files(a: Analysis) -> dict[str, bytes]:
     return dict(sorted(files.items()))
 
 
-def write_package(a: Analysis, out: Path) -> Path:
+def write_package(a: Analysis, out: Path, changes: list[str] | tuple = ()) -> Path:
     """Build everything in a temporary folder beside the target, then swap it into place."""
-    files = package_files(a)
+    files = package_files(a, changes)
     out.mkdir(parents=True, exist_ok=True)
     target = out / folder_name(a.loaded.member.mark)
     staging = Path(tempfile.mkdtemp(prefix=f".{target.name}.", dir=out))
