@@ -10,8 +10,9 @@ from . import syntax as s
 from .errors import Collector
 from .sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
 from .source import Span
-from .units import STANDARD_GRAVITY, UnitProblem, is_us, to_si
+from .units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 
+MIN_SPAN = Fraction(1, 1000)  # m
 FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
 MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "density": "density"}
 SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
@@ -42,6 +43,13 @@ class _Builder:
             self.errors.error(d.span, d.message, d.hint)
             return None
 
+    def number(self, text: str, span: Span) -> Fraction | None:
+        try:
+            return exact_number(text, span)
+        except UnitProblem as exc:
+            self.errors.error(exc.diagnostic.span, exc.diagnostic.message, exc.diagnostic.hint)
+            return None
+
     def positive(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
         value = self.si(q, kind, what, hint)
         if value is not None and value <= 0:
@@ -58,7 +66,9 @@ class _Builder:
         elif p.form == "end":
             x = L
         elif p.form == "fraction":
-            divisor = Fraction(p.divisor)
+            divisor = self.number(p.divisor, p.span)
+            if divisor is None:
+                return None
             if divisor == 0:
                 self.errors.error(p.span, "cannot divide the span by zero")
                 return None
@@ -94,6 +104,10 @@ class _Builder:
                 self.errors.error(member_span, f"this member has no `{key}` line", _EXAMPLES[key])
         if "span" in single:
             self.length = self.positive(single["span"].length, "length", "the span")
+            if self.length is not None and self.length < MIN_SPAN:
+                self.errors.error(single["span"].length.span, "a span under 1 mm is surely a typo",
+                                  "write the span with its unit, e.g. `span 5.4 m`")
+                self.length = None
         material = self._material(single.get("material"))
         section = self._section(single.get("section"))
         supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
@@ -335,7 +349,10 @@ class _Builder:
                 continue
             terms, ok = [], True
             for term in st.terms:
-                factor = Fraction(term.factor) if term.factor is not None else Fraction(1)
+                factor = self.number(term.factor, term.factor_span) if term.factor is not None else Fraction(1)
+                if factor is None:
+                    ok = False
+                    continue
                 if term.case.text not in cases:
                     self.errors.error(term.case.span, f"unknown case '{term.case.text}'",
                                       self.suggest(term.case.text, sorted(cases), "cases"))
@@ -364,8 +381,10 @@ class _Builder:
             ok = self._target(st.target, targets)
             divisor = value = None
             if st.divisor is not None:
-                divisor = Fraction(st.divisor)
-                if divisor == 0:
+                divisor = self.number(st.divisor, st.span)
+                if divisor is None:
+                    ok = False
+                elif divisor == 0:
                     self.errors.error(st.span, "a limit of span/0 allows no deflection at all", "write e.g. span/360")
                     ok = False
             else:

@@ -45,11 +45,25 @@ def _parser() -> Lark:
                 maybe_placeholders=False, cache=True)
 
 
+MAX_BYTES = 1_000_000  # a member file is a few kilobytes; anything this large is not a member
+MAX_LINES = 20_000
+MAX_LINE_LENGTH = 2_000
+
+
 def parse(source: Source) -> s.Document:
     """Parse a whole file; every bad line is reported, not only the first."""
     errors = Collector(source)
+    size, count = len(source.text.encode("utf-8")), source.text.count("\n") + 1
+    if size > MAX_BYTES or count > MAX_LINES:
+        errors.error(Span(source.name, 1, 1, 2), f"file too large for a member ({size} bytes, {count} lines)",
+                     f"the limits are {MAX_BYTES} bytes and {MAX_LINES} lines")
+        errors.raise_if_any()
     lines = []
     for number, text in enumerate(source.text.splitlines(), start=1):
+        if len(text) > MAX_LINE_LENGTH:
+            errors.error(Span(source.name, number, MAX_LINE_LENGTH + 1, len(text) + 1),
+                         f"line too long ({len(text)} characters)", f"one fact per line, at most {MAX_LINE_LENGTH} characters")
+            continue
         line = _parse_line(source, number, text, errors)
         if line is not None:
             lines.append(line)
@@ -268,7 +282,7 @@ class _Build(Transformer):
 
     def term(self, *items: Token) -> s.Term:
         factor = str(items[0]) if len(items) == 2 else None
-        return s.Term(factor, self._name(items[-1]))
+        return s.Term(factor, self._name(items[-1]), self._span(items[0]) if factor is not None else None)
 
     def combine(self, name: Token, *terms: s.Term) -> s.Combine:
         return s.Combine(self._name(name), terms, self._stmt_span())

@@ -154,6 +154,7 @@ class SelfWeight:
 class Term:
     factor: str | None
     case: Name
+    factor_span: Span | None = None
 
 
 @dataclass(frozen=True, slots=True)

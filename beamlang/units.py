@@ -100,7 +100,28 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         label = "a force times a length" if kind == "moment" else _article(kind)
         message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
         raise UnitProblem(Diagnostic(q.span, message, hint))
-    return Fraction(q.number) * f.factor
+    value = exact_number(q.number, q.span) * f.factor
+    if value and not (LOWEST <= abs(value) <= HIGHEST):
+        raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(value)} {f.si_unit}, surely a typo",
+                                     f"values between 1e-12 and 1e12 {f.si_unit} are accepted"))
+    return value
+
+
+LOWEST, HIGHEST = Fraction(1, 10**12), Fraction(10**12)  # in SI base units: anything outside is a typo
+MAX_DIGITS = 30  # digits and exponent size of a written number
+
+
+def exact_number(text: str, span) -> Fraction:
+    """A written decimal as an exact Fraction, refusing numbers too long or too large to be meant."""
+    mantissa, _, exponent = text.lower().partition("e")
+    if len(mantissa.replace(".", "")) > MAX_DIGITS or (exponent and abs(int(exponent)) > MAX_DIGITS):
+        raise UnitProblem(Diagnostic(span, f"the number {text[:40]} is out of range",
+                                     f"numbers have at most {MAX_DIGITS} digits and exponents up to {MAX_DIGITS}"))
+    return Fraction(text)
+
+
+def _magnitude(value: Fraction) -> str:
+    return f"{float(value):.3g}"
 
 
 def _article(kind: str) -> str:

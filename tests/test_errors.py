@@ -64,3 +64,29 @@ def test_debug_flag_is_accepted_after_the_command(tmp_path, monkeypatch, capsys)
     monkeypatch.chdir(tmp_path)
     code, _, err = run(["fmt", "--debug", "nothing.beam"], capsys)
     assert code == 2 and "no such file" in err
+
+
+def test_file_too_large(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "big.beam").write_text("# padding\n" * 120_000, encoding="utf-8")
+    code, _, err = run(["check", "big.beam"], capsys)
+    assert code == 2
+    assert err == ("big.beam:1:1: error: file too large for a member (1200000 bytes, 120001 lines)\n"
+                   "    # padding\n    ^\n    hint: the limits are 1000000 bytes and 20000 lines\n")
+
+
+def test_line_too_long(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "long.beam").write_text('note "' + "x" * 2100 + '"\n', encoding="utf-8")
+    code, _, err = run(["fmt", "long.beam"], capsys)
+    assert code == 2 and err.startswith("long.beam:1:2001: error: line too long (2107 characters)\n")
+
+
+def test_marks_differing_only_in_case_collide(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    valid = ('member b-1 "One"\n\nspan 4 m\nmaterial steel E 200 GPa\nsection rectangle width 100 mm depth 200 mm\n\n'
+             'support pin at 0 m\nsupport roller at span\n\ncase dead\n  uniform 1 kN/m down\n')
+    (tmp_path / "a.beam").write_text(valid, encoding="utf-8")
+    (tmp_path / "b.beam").write_text(valid.replace("b-1", "B-1"), encoding="utf-8")
+    code, _, err = run(["check", "a.beam", "b.beam"], capsys)
+    assert code == 2 and err.startswith("b.beam:1:8: error: member mark 'B-1' is used twice")

@@ -1,0 +1,111 @@
+"""Mutation fuzzing: damage the examples (delete, duplicate, swap tokens, flip units and directions,
+insert random bytes and Unicode) and check that beamlang answers with a result or a clean error.
+
+Run any number: python tests/fuzz/mutate.py 10000   (prints a summary; exit 1 on the first crash)."""
+
+from __future__ import annotations
+
+import random
+import re
+import sys
+import time
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[2]
+sys.path.insert(0, str(ROOT))
+
+ERROR_LINE = re.compile(r"^(?P<file>[^:\n]+):(?P<line>\d+):(?P<col>\d+): error: .+$", re.M)
+UNITS = ["m", "mm", "ft", "in", "kN", "kip", "lbf", "kN/m", "kip/ft", "kN*m", "GPa", "ksi", "mm^4", "kg/m^3", "s", "furlong"]
+WORDS = ["down", "up", "clockwise", "counterclockwise", "span", "at", "from", "to", "case", "fixed", "pin", "-", "/", "+", "="]
+JUNK = ["\x00", "\t", "  ", "é", "µ", "·", "\u202e", "\ufeff", "#", '"', "\\", "1e99", "-1", "0", "999999999999", "x"]
+
+
+def mutate(text: str, rng: random.Random) -> str:
+    lines = text.splitlines(keepends=True)
+    for _ in range(rng.randint(1, 4)):
+        if not lines:
+            lines = ["\n"]
+        i = rng.randrange(len(lines))
+        op = rng.choice(["delete", "duplicate", "swap", "unit", "word", "junk", "number", "indent", "truncate"])
+        tokens = lines[i].split(" ")
+        if op == "delete":
+            del lines[i]
+        elif op == "duplicate":
+            lines.insert(i, lines[i])
+        elif op == "swap" and len(tokens) > 2:
+            a, b = rng.sample(range(len(tokens)), 2)
+            tokens[a], tokens[b] = tokens[b], tokens[a]
+            lines[i] = " ".join(tokens)
+        elif op == "unit":
+            lines[i] = re.sub(r"(?<=\d )[A-Za-z][A-Za-z0-9*/^]*", rng.choice(UNITS), lines[i], count=1)
+        elif op == "word" and tokens:
+            tokens[rng.randrange(len(tokens))] = rng.choice(WORDS)
+            lines[i] = " ".join(tokens)
+        elif op == "junk":
+            k = rng.randrange(len(lines[i]) + 1)
+            lines[i] = lines[i][:k] + rng.choice(JUNK) + lines[i][k:]
+        elif op == "number":
+            lines[i] = re.sub(r"\d+(\.\d+)?", rng.choice(["0", "1e30", "0.000001", "7", "12.5", "1e-30"]), lines[i], count=1)
+        elif op == "indent":
+            lines[i] = ("  " + lines[i]) if not lines[i].startswith(" ") else lines[i].lstrip()
+        elif op == "truncate":
+            lines[i] = lines[i][: rng.randrange(len(lines[i]) + 1)]
+    return "".join(lines)
+
+
+def check_one(text: str, workdir: Path) -> str | None:
+    """None when beamlang behaved; otherwise a description of the problem."""
+    import contextlib
+    import io
+    from beamlang.cli import main
+    path = workdir / "fuzz.beam"
+    path.write_text(text, encoding="utf-8", errors="surrogatepass")
+    n_lines = max(1, len(text.splitlines()))
+    for argv in (["fmt", "--check", "fuzz.beam"], ["check", "fuzz.beam"]):
+        err, out = io.StringIO(), io.StringIO()
+        with contextlib.redirect_stderr(err), contextlib.redirect_stdout(out):
+            code = main(argv)
+        stderr = err.getvalue()
+        if code == 3 or "Traceback" in stderr or "internal error" in stderr:
+            return f"{argv[0]}: internal error: {stderr[:500]}"
+        if code == 2:
+            found = list(ERROR_LINE.finditer(stderr))
+            if not found:
+                return f"{argv[0]}: exit 2 without an error line: {stderr[:300]}"
+            for m in found:
+                if not (1 <= int(m["line"]) <= n_lines + 1 and int(m["col"]) >= 1):
+                    return f"{argv[0]}: position outside the file: {m.group(0)}"
+        elif code not in (0, 1):
+            return f"{argv[0]}: unexpected exit code {code}"
+    return None
+
+
+def run(count: int, seed: int = 0, workdir: Path | None = None) -> tuple[int, list[str]]:
+    import os
+    import tempfile
+    rng = random.Random(seed)
+    examples = [p.read_text(encoding="utf-8") for p in sorted((ROOT / "examples").glob("*.beam"))]
+    problems: list[str] = []
+    with tempfile.TemporaryDirectory() as tmp:
+        here = os.getcwd()
+        os.chdir(workdir or tmp)
+        try:
+            for _ in range(count):
+                text = mutate(rng.choice(examples), rng)
+                problem = check_one(text, Path(workdir or tmp))
+                if problem:
+                    problems.append(problem + "\n--- input ---\n" + text)
+        finally:
+            os.chdir(here)
+    return count, problems
+
+
+if __name__ == "__main__":
+    n = int(sys.argv[1]) if len(sys.argv) > 1 else 1000
+    seed = int(sys.argv[2]) if len(sys.argv) > 2 else 0
+    t0 = time.perf_counter()
+    count, problems = run(n, seed)
+    print(f"{count} mutated inputs, seed {seed}, {time.perf_counter() - t0:.0f} s, {len(problems)} problems")
+    for p in problems[:5]:
+        print(p)
+    sys.exit(1 if problems else 0)
