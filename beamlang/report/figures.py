@@ -24,7 +24,7 @@ def _pyplot():
 
 def _svg(fig) -> str:
     buf = io.StringIO()
-    fig.savefig(buf, format="svg", metadata={"Date": None, "Creator": None}, bbox_inches="tight")
+    fig.savefig(buf, format="svg", metadata={"Date": None, "Creator": None})
     _pyplot().close(fig)
     return buf.getvalue()
 
@@ -53,8 +53,10 @@ def target_figure(a: Analysis, name: str) -> str:
         for loc in marks or []:
             x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
             ax.plot([x], [y], "o", color="#b22222", markersize=3)
+            right = x > 0.6 * L  # keep the label inside the axes
             ax.annotate(f"{number(y)} at {number(x)} {u['length']}", (x, y), textcoords="offset points",
-                        xytext=(4, 4 if y >= 0 else -10), fontsize=7, color="#b22222")
+                        xytext=(-4 if right else 4, 4 if y >= 0 else -10), ha="right" if right else "left",
+                        fontsize=7, color="#b22222")
     axes[-1].set_xlabel(f"x ({u['length']}) from the left end")
     axes[-1].set_xlim(-0.02 * L, 1.02 * L)
     return _svg(fig)
