@@ -117,6 +117,9 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
         return span, f"unknown section shape '{word}'", _suggest(word, SHAPES, "shapes")
     if "SUPPORT_KIND" in expected:
         return span, f"unknown support kind '{word}'", _suggest(word, SUPPORT_KINDS, "supports")
+    if "MARK" in expected:
+        return span, f"'{word}' is not a valid member mark", ("a mark is letters, digits, '.', '_' and '-', starting "
+                                                             "with a letter or digit: it names the output folder")
     if "SYSTEM" in expected:
         return span, f"unknown unit system '{word}'", "write `units si` or `units us`"
     if isinstance(exc, UnexpectedCharacters) and text[col - 1:col] == '"':

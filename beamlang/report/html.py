@@ -91,7 +91,7 @@ img { max-width: 100%; height: auto; }
 mtable[columnspacing] > mtr > mtd { padding-left: 0; padding-right: 0; }
 mtd[columnalign="left"] { text-align: left; }
 strong { letter-spacing: .02em; }
-@page { size: A4; margin: 16mm 14mm; }
+@page { margin: 16mm 14mm; }  /* the paper size follows the printer: A4 or Letter */
 @media print {
   main { max-width: none; padding: 0; }
   h2 { break-before: page; }

@@ -4,34 +4,22 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from ..display import number
 from ..poly import Poly
 
 DIGITS = 6  # significant digits shown for computed values (all arithmetic is exact)
 _MD_SPECIAL = set("\\`*_{}[]()#+-.!|<>$~&")
 
 
-def num(value: Fraction | float, digits: int = DIGITS) -> str:
-    """A number for LaTeX: fixed significant digits, powers of ten as \\times 10^{k}."""
-    f = float(value)
-    if f == 0:
-        return "0"
-    text = f"{f:.{digits}g}"
-    if "e" in text:
-        mantissa, exp = text.split("e")
-        return f"{mantissa} \\times 10^{{{int(exp)}}}"
-    return text
-
-
 def plain(value: Fraction | float, digits: int = DIGITS) -> str:
-    """A number for running text and table cells outside math (no TeX)."""
-    f = float(value)
-    if f == 0:
-        return "0"
-    text = f"{f:.{digits}g}"
-    if "e" in text:
-        mantissa, exp = text.split("e")
-        return f"{mantissa}e{int(exp)}"
-    return text
+    """A number for running text and table cells outside math (no TeX): `display.number`."""
+    return number(value, digits)
+
+
+def num(value: Fraction | float, digits: int = DIGITS) -> str:
+    """A number for LaTeX: the same digits as `plain`, powers of ten as \\times 10^{k}."""
+    mantissa, _, exp = plain(value, digits).partition("e")
+    return f"{mantissa} \\times 10^{{{exp}}}" if exp else mantissa
 
 
 def poly(p: Poly, var: str = "x", digits: int = DIGITS) -> str:
