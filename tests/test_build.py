@@ -53,6 +53,7 @@ def test_package_has_every_file_and_valid_math(built):
                 f"{mark}/figures/sign-convention.svg"} <= set(built)
         page = built[f"{mark}/{mark}.html"].decode("utf-8")
         assert check_mathml(page) > 20 and "<script" not in page
+        assert '<pre class="beam-code"><code><span class="cs"> 1  </span>' in page  # highlighted appendix
         text = built[f"{mark}/{mark}.md"].decode("utf-8")
         for heading in ("## Summary", "## Inputs", "## Sign convention", "## Section and material", "## Method",
                         "## Checks", "## Independent cross-check", "## Assumptions and cautions", "## Traceability"):

@@ -32,10 +32,18 @@ def _markdown():
     from markdown_it import MarkdownIt
     from mdit_py_plugins.anchors import anchors_plugin
     from mdit_py_plugins.dollarmath import dollarmath_plugin
-    md = MarkdownIt("commonmark", {"html": False}).enable("table")  # raw HTML in user text is escaped
+    md = MarkdownIt("commonmark", {"html": False, "highlight": _highlight}).enable("table")  # raw HTML is escaped
     dollarmath_plugin(md, allow_digits=False, renderer=lambda s, o: tex_to_mathml(s, bool(o.get("display_mode"))))
     anchors_plugin(md, min_level=2, max_level=3, slug_func=_slug, permalink=False)
     return md
+
+
+def _highlight(code: str, lang: str, _attrs) -> str:
+    """The appendix (an ```text block of the input file) in colour; other blocks stay plain."""
+    if lang != "text":
+        return ""
+    from .highlight import highlight_beam
+    return f'<pre class="beam-code"><code>{highlight_beam(code)}</code></pre>\n'
 
 
 def _slug(text: str) -> str:
@@ -50,8 +58,13 @@ def member_html(markdown: str, title: str, figures: dict[str, str]) -> str:
     return (f'<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n'
             f'<meta name="viewport" content="width=device-width, initial-scale=1">\n'
             f"<title>{html.escape(title)}</title>\n<style>\n@font-face {{ font-family: 'Beamlang Math'; "
-            f"src: url(data:font/woff;base64,{font}) format('woff'); }}\n{CSS}</style>\n</head>\n"
+            f"src: url(data:font/woff;base64,{font}) format('woff'); }}\n{CSS}{_code_css()}</style>\n</head>\n"
             f"<body>\n<main>\n{body}</main>\n</body>\n</html>\n")
+
+
+def _code_css() -> str:
+    from .highlight import css
+    return css() + "\n"
 
 
 def _embed_figures(body: str, figures: dict[str, str]) -> str:
