@@ -79,7 +79,7 @@ class _Builder:
         if x is None or L is None:
             return x
         if x < 0 or x > L:
-            self.errors.error(p.span, f"{what} {_show(p)} is outside the span (0 to {_show_span(self.doc)})",
+            self.errors.error(p.span, f"{what} {p} is outside the span (0 to {_show_span(self.doc)})",
                               "positions are measured from the left end, from 0 to the span")
             return None
         return x
@@ -436,10 +436,6 @@ def _hint_for(q: s.Quantity, kind: str, hint: str) -> str | None:
     from .units import factor_of
     f = factor_of(q.unit)
     return hint if f is not None and f.kind == kind else None
-
-
-def _show(p: s.Position) -> str:
-    return str(p)
 
 
 def _show_span(doc: s.Document) -> str:

@@ -6,7 +6,7 @@ import difflib
 from functools import lru_cache
 from pathlib import Path
 
-from lark import Lark, Token, Transformer, Tree, v_args
+from lark import Lark, Token, Transformer, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
 
 from . import syntax as s
@@ -199,7 +199,7 @@ class _Build(Transformer):
     def _name(self, token: Token) -> s.Name:
         return s.Name(str(token), self._span(token))
 
-    def _stmt_span(self, *parts) -> Span:
+    def _stmt_span(self) -> Span:
         """The statement's span: from its keyword (first column) to its last part."""
         text = self.source.line_text(self.line)
         first = len(text) - len(text.lstrip()) + 1

@@ -10,7 +10,7 @@ import dataclasses
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .model import LineLoad, Load, Member, MomentLoad, PointLoad
+from .model import Load, Member, MomentLoad, PointLoad
 
 
 @dataclass(frozen=True, slots=True, eq=False)

@@ -48,7 +48,7 @@ def members(draw) -> str:
              f"span{gap()}{span} {unit}",
              f"material steel E {u['E']}{gap()}yield {u['yield']} density {u['density']}",
              draw(st.sampled_from(SECTIONS[system])),
-             f'project "Generated"  # a comment']
+             'project "Generated"  # a comment']
     supports = draw(st.sampled_from([["fixed at 0 " + unit], ["pin at 0 " + unit, "roller at span"],
                                      ["fixed at 0 " + unit, "roller at span"], ["fixed at 0 " + unit, "fixed at span"],
                                      ["pin at 0 " + unit, f"spring {u['spring']} at span/2", "roller at span"]]))

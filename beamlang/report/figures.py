@@ -8,7 +8,6 @@ from fractions import Fraction
 from ..display import convert, number, report_units
 from ..model import LineLoad, MomentLoad, PointLoad
 from ..pipeline import Analysis
-from ..results import TargetResult
 
 SAMPLES_PER_SEGMENT = 40
 

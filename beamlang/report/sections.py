@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import dataclasses
 import re
+from fractions import Fraction
 
 from .. import __version__
 from .. import syntax as s
@@ -64,7 +65,7 @@ def inputs(a: Analysis) -> list[str]:
         for q in _quantities(st):
             f = factor_of(q.unit)
             units.add(q.unit)
-            si = exact_si(q, f)
+            si = number(Fraction(q.number) * f.factor, 10)
             rows.append(f"| {line.number} | `{cell(statement_text(st))}` | {cell(str(q))} | {si} {f.si_unit} |")
     out = ["## Inputs", "", "Each number as written in the file and its exact value in SI base units.", "",
            "| line | statement | as written | SI value |", "|---|---|---|---|", *rows, "",
@@ -74,12 +75,6 @@ def inputs(a: Analysis) -> list[str]:
         source = NIST if any(tok in unit for tok in US_TOKENS) else "SI prefixes, exact by definition"
         out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {source} |")
     return out + [""]
-
-
-def exact_si(q: s.Quantity, f) -> str:
-    from fractions import Fraction
-    value = Fraction(q.number) * f.factor
-    return number(value, 10)
 
 
 def signs(a: Analysis, figure: str) -> list[str]:
