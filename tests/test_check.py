@@ -6,6 +6,8 @@ import json
 import subprocess
 import sys
 
+import pytest
+
 from beamlang.cli import main
 from casefiles import CASES, EXAMPLES, UPDATE
 from engine_helpers import member_text
@@ -92,8 +94,9 @@ def test_input_errors_win_over_failures(capsys, tmp_path, monkeypatch):
     assert "T-1" in out.out  # the good member is still checked
 
 
-def test_check_does_not_import_matplotlib():
-    probe = ("import sys; from beamlang.cli import main; main(['check', 'examples']); "
-             "print('matplotlib' in sys.modules, 'markdown_it' in sys.modules, file=sys.stderr)")
+@pytest.mark.parametrize("command", ["check", "fmt"])
+def test_check_and_fmt_do_not_import_plotting_or_markdown(command):
+    probe = (f"import sys; from beamlang.cli import main; main(['{command}', '--check' if '{command}' == 'fmt' else "
+             "'--json', 'examples']); print('matplotlib' in sys.modules, 'markdown_it' in sys.modules, file=sys.stderr)")
     done = subprocess.run([sys.executable, "-c", probe], cwd=EXAMPLES.parent, capture_output=True, text=True)
     assert done.stderr.strip().splitlines()[-1] == "False False"
