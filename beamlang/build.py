@@ -33,6 +33,7 @@ class _Builder:
         self.doc = doc
         self.errors = Collector(doc.source)
         self.length: Fraction | None = None
+        self.support_positions: set[Fraction] = set()
 
     # -- helpers ---------------------------------------------------------------------------
     def si(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
@@ -111,6 +112,7 @@ class _Builder:
         material = self._material(single.get("material"))
         section = self._section(single.get("section"))
         supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
+        self.support_positions = {sp.x for sp in supports}
         cases = self._cases(stmts, material, section, member_span)
         names = self._names(cases)
         combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
@@ -290,12 +292,25 @@ class _Builder:
             x1 = Fraction(0) if st.start is None else self.position(st.start, "load start")
             x2 = self.length if st.end is None else self.position(st.end, "load end")
             return self._line_load(st, x1, x2, w, w, "uniform")
+        if isinstance(st, s.Settlement):
+            return self._settlement(st)
         if isinstance(st, s.Linear):
             w1 = self.si(st.start_intensity, "force per length", "a linear load")
             w2 = self.si(st.end_intensity, "force per length", "a linear load")
             x1, x2 = self.position(st.start, "load start"), self.position(st.end, "load end")
             return self._line_load(st, x1, x2, w1, w2, "linear")
         return self._self_weight(st, material, section)
+
+    def _settlement(self, st: s.Settlement) -> m.Settlement | None:
+        d = self.si(st.movement, "length", "a settlement")
+        x = self.position(st.at, "settlement position")
+        if d is None or x is None:
+            return None
+        if x not in self.support_positions:
+            self.errors.error(st.at.span, "a settlement must be at a support",
+                              "write the position of the support that moves, e.g. `settlement 5 mm down at 4.5 m`")
+            return None
+        return m.Settlement(x, _sign(st.direction.text) * d, st.span)
 
     def _line_load(self, st, x1, x2, w1, w2, origin: str) -> m.LineLoad | None:
         if None in (x1, x2, w1, w2):

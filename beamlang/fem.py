@@ -7,7 +7,7 @@ from fractions import Fraction
 
 import numpy as np
 
-from .model import LineLoad, Member, MomentLoad, PointLoad
+from .model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 from .statics import intensity
 
 
@@ -33,17 +33,24 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
     for factor, load in loads:
         _add_load(F, _ld(factor), load, xs, x, index)
     fixed: list[int] = []
+    moved = np.zeros(2 * n, dtype=np.longdouble)  # prescribed support movements
+    for factor, load in loads:
+        if isinstance(load, Settlement):
+            moved[2 * index[load.x]] += _ld(factor) * _ld(load.movement)
     for sp in member.supports:
         i = index[sp.x]
         if sp.kind == "spring":
             K[2 * i, 2 * i] += _ld(sp.stiffness)
+            F[2 * i] += _ld(sp.stiffness) * moved[2 * i]  # the spring's base moves
         else:
             fixed.append(2 * i)
             if sp.kind == "fixed":
                 fixed.append(2 * i + 1)
     free = [d for d in range(2 * n) if d not in fixed]
     u = np.zeros(2 * n)
-    u[free] = _solve_refined(K[np.ix_(free, free)], F[free])
+    u[fixed] = moved[fixed].astype(np.float64)
+    rhs = F[free] - K[np.ix_(free, fixed)] @ moved[fixed]
+    u[free] = _solve_refined(K[np.ix_(free, free)], rhs)
     return u[0::2], u[1::2]
 
 

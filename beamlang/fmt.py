@@ -121,6 +121,7 @@ _TEXT = {
                           f"from {st.start} to {st.end}"),
     s.Moment: lambda st: f"moment {_q(st.moment)} {st.direction.text} at {st.at}",
     s.SelfWeight: lambda st: "self-weight",
+    s.Settlement: lambda st: f"settlement {_q(st.movement)} {st.direction.text} at {st.at}",
     s.Combine: _combine,
     s.Limit: _limit,
     s.StressCheck: lambda st: f"check stress {st.target.text}",

@@ -71,7 +71,16 @@ class MomentLoad:
     span: Span
 
 
-Load = PointLoad | LineLoad | MomentLoad
+@dataclass(frozen=True, slots=True)
+class Settlement:
+    """A support at x moved by `movement` (m, positive up) in this case; it carries no force itself."""
+
+    x: Fraction
+    movement: Fraction
+    span: Span
+
+
+Load = PointLoad | LineLoad | MomentLoad | Settlement
 
 
 @dataclass(frozen=True, slots=True)

@@ -15,7 +15,7 @@ from .source import Source, Span
 
 KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
             "material", "section", "support", "case", "point", "uniform", "linear", "moment",
-            "self-weight", "combine", "limit", "check", "report", "note")
+            "self-weight", "settlement", "combine", "limit", "check", "report", "note")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 TERMINAL_WORDS = {
@@ -279,6 +279,9 @@ class _Build(Transformer):
 
     def moment(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Moment:
         return s.Moment(q, self._name(direction), at, self._stmt_span())
+
+    def settlement(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Settlement:
+        return s.Settlement(q, self._name(direction), at, self._stmt_span())
 
     def selfweight(self) -> s.SelfWeight:
         return s.SelfWeight(self._stmt_span())

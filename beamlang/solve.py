@@ -6,7 +6,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from .errors import BeamError, Diagnostic
-from .model import Load, Member, MomentLoad, PointLoad
+from .model import Load, Member, MomentLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 from .statics import breakpoints, resultant, shear_and_moment
 
@@ -173,7 +173,10 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
     base = _on_primary(member, xs, EI, primary.kind, primary.kept, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
-    X = linsolve(primary.flexibility, [-d for d in D0]) if D0 else ()
+    moved = prescribed(member, loads)
+    target = [moved.get(member.supports[r.support].x, Fraction(0)) if r.kind == "force" else Fraction(0)
+              for r in primary.redundants]
+    X = linsolve(primary.flexibility, [t - d for t, d in zip(target, D0)]) if D0 else ()
     total = base
     for x_j, unit, r in zip(X, primary.units, primary.redundants):
         part = unit.scaled(x_j)
@@ -205,17 +208,27 @@ def _on_primary(member: Member, xs, EI, kind: str, kept: tuple[int, ...], loads:
     V, M = shear_and_moment(xs, actions)
     theta0 = M.map(lambda p: p * (1 / EI)).integral()
     v0 = theta0.integral()
+    moved = prescribed(member, loads)
     if kind == "cantilever":
         xf = sps[kept[0]].x
         c2 = -theta0.at(xf)
-        c1 = -v0.at(xf) - c2 * xf
+        c1 = moved.get(xf, Fraction(0)) - v0.at(xf) - c2 * xf
     else:
-        sa, sb = (_settlement(sps[i], reactions[i][0]) for i in kept)
+        sa, sb = (_settlement(sps[i], reactions[i][0]) + moved.get(sps[i].x, Fraction(0)) for i in kept)
         c2 = ((sb - v0.at(xb)) - (sa - v0.at(xa))) / (xb - xa)
         c1 = sa - v0.at(xa) - c2 * xa
     theta = theta0.map(lambda p: p + Poly.of(c2))
     v = v0.map(lambda p: p + Poly.of(c1, c2))
     return Curves(V, M, theta, v, tuple(reactions))
+
+
+def prescribed(member: Member, loads) -> dict[Fraction, Fraction]:
+    """Prescribed support movements in these loads: {x: movement, positive up}."""
+    out: dict[Fraction, Fraction] = {}
+    for load in loads:
+        if isinstance(load, Settlement):
+            out[load.x] = out.get(load.x, Fraction(0)) + load.movement
+    return out
 
 
 def _settlement(support, force: Fraction) -> Fraction:

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .model import LineLoad, Load, Member, MomentLoad, PointLoad
+from .model import LineLoad, Load, Member, MomentLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 
 
@@ -34,7 +34,7 @@ def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]
             moment += load.force * load.x
         elif isinstance(load, MomentLoad):
             moment += load.moment
-        else:
+        elif isinstance(load, LineLoad):
             w = intensity(load)
             W = w.antiderivative()
             T = (w * Poly.of(0, 1)).antiderivative()
@@ -68,6 +68,8 @@ def _changes(load: Load, x: Poly) -> list[tuple[Fraction, Poly, Poly]]:
         return [(load.x, Poly.of(load.force), (x - Poly.of(load.x)) * load.force)]
     if isinstance(load, MomentLoad):
         return [(load.x, Poly(), Poly.of(-load.moment))]
+    if isinstance(load, Settlement):
+        return []  # a prescribed movement carries no force; it enters through the support conditions
     w = intensity(load)
     W = w.antiderivative()
     T = (w * x).antiderivative()

@@ -10,7 +10,7 @@ import dataclasses
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .model import Load, Member, MomentLoad, PointLoad
+from .model import Load, Member, MomentLoad, PointLoad, Settlement
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -118,6 +118,8 @@ def _symbolic_load(load: Load, pos, sym) -> Load:
         return dataclasses.replace(load, x=pos(load.x, "a"), force=sign(load.force) * sym("P", abs(load.force)))
     if isinstance(load, MomentLoad):
         return dataclasses.replace(load, x=pos(load.x, "a"), moment=sign(load.moment) * sym("C", abs(load.moment)))
+    if isinstance(load, Settlement):  # at a support: the same position symbol as the support
+        return dataclasses.replace(load, x=pos(load.x, "a"), movement=sign(load.movement) * sym("Delta", abs(load.movement)))
     x1, x2 = pos(load.x1, "a"), pos(load.x2, "b")
     if load.w1 == load.w2:
         w = sign(load.w1) * sym("w", abs(load.w1))

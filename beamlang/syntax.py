@@ -151,6 +151,16 @@ class SelfWeight:
 
 
 @dataclass(frozen=True, slots=True)
+class Settlement:
+    """A prescribed movement of the support at `at`, as a load of its case."""
+
+    movement: Quantity
+    direction: Name
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Term:
     factor: str | None
     case: Name
@@ -192,9 +202,9 @@ class Note:
 
 Statement = (
     Member | Field | Units | SpanLength | Material | Section | Support | Case | Point | Uniform
-    | Linear | Moment | SelfWeight | Combine | Limit | StressCheck | Report | Note
+    | Linear | Moment | SelfWeight | Settlement | Combine | Limit | StressCheck | Report | Note
 )
-LOADS = (Point, Uniform, Linear, Moment, SelfWeight)
+LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement)
 
 
 @dataclass(frozen=True, slots=True)

@@ -167,3 +167,29 @@ def test_us_customary_centre_load_in_inches():
     r, _ = result(text)
     inches = -r.max_down.value / F("0.0254")
     assert inches == F(10 * 240**3, 48 * 29000 * 340)
+
+
+def test_settlement_moves_a_determinate_beam_rigidly():
+    # a statically determinate beam follows a support movement as a rigid body: no reactions, no moment
+    # (statics; common practice, no source)
+    r, _ = result(member_text("6 m", SS, {"a": ["settlement 5 mm down at span"]}, extra=["report deflection at 2 m"]))
+    assert all(f == 0 and m == 0 for _, f, m in r.reactions)
+    assert r.moment_positive is None and r.moment_negative is None
+    assert r.points[0][1:] == (-F(5, 1000) * 2 / 6, -F(5, 1000) / 6)
+
+
+def test_propped_cantilever_with_settled_prop():
+    # [Gere] G-1 case 4 read backwards (tip load P gives P L^3 / (3 E I)): a prop settling by D needs
+    # R = 3 E I D / L^3, pulling down; the fixed end then carries R L
+    D = F(5, 1000)
+    r, _ = result(member_text("6 m", ["fixed at 0 m", "roller at span"], {"a": ["settlement 5 mm down at span"]}))
+    assert r.reactions[1][1] == -3 * EI * D / L**3 and r.reactions[0][2] == 3 * EI * D / L**2
+
+
+def test_two_span_beam_with_settled_middle_support():
+    # [Gere] G-2 case 4 read backwards (centre load P on span 2l gives P (2l)^3 / (48 E I)): the middle support
+    # settling by D changes its reaction by -48 E I D / (2l)^3 and each end reaction by half that, up
+    D = F(5, 1000)
+    r, _ = result(member_text("6 m", ["pin at 0 m", "roller at 3 m", "roller at span"], {"a": ["settlement 5 mm down at 3 m"]}))
+    middle = -48 * EI * D / L**3
+    assert [f for _, f, _ in r.reactions] == [-middle / 2, middle, -middle / 2]

@@ -10,7 +10,7 @@ from ..fem import reported
 from ..fmt import statement_text
 from ..pipeline import Analysis
 from ..roots import square_free
-from ..solve import load_solution
+from ..solve import load_solution, prescribed
 from ..symbolic import latex, load_formula, worth_deriving
 from .sections import vector
 from .tex import cell, md, num, plain, poly
@@ -69,6 +69,8 @@ def _load_si(ld) -> str:
         return f"P = {plain(ld.force)} N at x = {plain(ld.x)} m"
     if kind == "MomentLoad":
         return f"C = {plain(ld.moment)} N·m at x = {plain(ld.x)} m"
+    if kind == "Settlement":
+        return f"support at x = {plain(ld.x)} m moves Δ = {plain(ld.movement)} m (prescribed; carries no force)"
     if ld.w1 == ld.w2:
         return f"w = {plain(ld.w1)} N/m from x = {plain(ld.x1)} m to {plain(ld.x2)} m"
     return f"w from {plain(ld.w1)} N/m at x = {plain(ld.x1)} m to {plain(ld.w2)} N/m at x = {plain(ld.x2)} m"
@@ -133,10 +135,18 @@ def _compatibility(a: Analysis, t) -> list[str]:
     if not p.redundants:
         return []
     s = t.solved
+    moved = prescribed(a.loaded.member, s.loads)
+    delta = [moved.get(a.loaded.member.supports[r.support].x, 0) if r.kind == "force" else 0 for r in p.redundants]
+    if not any(delta):
+        return ["### Compatibility", "",
+                "Displacements of the primary beam at the released restraints under this case, and the "
+                "redundants solved exactly from A X = -D0:", "",
+                f"$$D_0 = {vector(s.displacements)}, \\qquad X = -A^{{-1}} D_0 = {vector(s.redundants)}$$", ""]
     return ["### Compatibility", "",
-            "Displacements of the primary beam at the released restraints under this case, and the "
-            "redundants solved exactly from A X = -D0:", "",
-            f"$$D_0 = {vector(s.displacements)}, \\qquad X = -A^{{-1}} D_0 = {vector(s.redundants)}$$", ""]
+            "Displacements of the primary beam at the released restraints under this case, the prescribed "
+            "settlements Δ there, and the redundants solved exactly from A X = Δ - D0:", "",
+            f"$$D_0 = {vector(s.displacements)}, \\qquad \\Delta = {vector(delta)}, \\qquad "
+            f"X = A^{{-1}} (\\Delta - D_0) = {vector(s.redundants)}$$", ""]
 
 
 def _superposed(a: Analysis, t) -> list[str]:

@@ -6,7 +6,7 @@ import io
 from fractions import Fraction
 
 from ..display import convert, number, report_units
-from ..model import LineLoad, MomentLoad, PointLoad
+from ..model import LineLoad, MomentLoad, PointLoad, Settlement
 from ..pipeline import Analysis
 
 SAMPLES_PER_SEGMENT = 40
@@ -85,7 +85,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
             continue
         for load in case.loads:
             stack += _load(ax, load, factors[case.name], u, stack)
-    ax.set_ylim(-1.4, max(1.6, 1.0 + 0.9 * stack))
+    ax.set_ylim(-1.7, max(1.6, 1.0 + 0.9 * stack))
     ax.set_yticks([])
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
     ax.set_title(title, fontsize=8, loc="left")
@@ -142,6 +142,13 @@ def _load(ax, load, factor: Fraction, u: dict, stack: int) -> int:
         ax.text(x, 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} {u['moment']}\n{turn}",
                 ha="center", va="bottom", fontsize=6, color=color)
         return 0
+    elif isinstance(load, Settlement):
+        x = float(convert(load.x, u["length"]))
+        down = load.movement < 0
+        ax.annotate("", xy=(x, -1.25 if down else -0.75), xytext=(x, -0.75 if down else -1.25),
+                    arrowprops={"arrowstyle": "-|>", "color": "#6a1b9a", "linewidth": 1.0})
+        ax.text(x, -1.35, f"settles {number(convert(abs(load.movement * factor), u['deflection']))} {u['deflection']}"
+                + ("" if down else " up"), ha="center", va="top", fontsize=6, color="#6a1b9a")
     elif isinstance(load, LineLoad):
         x1, x2 = float(convert(load.x1, u["length"])), float(convert(load.x2, u["length"]))
         w1, w2 = load.w1 * factor, load.w2 * factor

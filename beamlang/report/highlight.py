@@ -8,7 +8,7 @@ from pygments.lexer import RegexLexer, words
 from pygments.token import Comment, Keyword, Name, Number, Operator, String, Text
 
 STATEMENTS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span", "material",
-              "section", "support", "case", "point", "uniform", "linear", "moment", "self-weight", "combine",
+              "section", "support", "case", "point", "uniform", "linear", "moment", "self-weight", "settlement", "combine",
               "limit", "check", "report", "note")
 WORDS = ("down", "up", "clockwise", "counterclockwise", "at", "from", "to", "fixed", "pin", "roller", "spring",
          "deflection", "stress", "properties", "rectangle", "round", "tube", "box", "I-shape", "x", "si", "us")

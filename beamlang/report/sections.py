@@ -145,7 +145,8 @@ def method(a: Analysis) -> list[str]:
               f"a {p.kind} beam on {kept}. Redundants: " + "; ".join(names) + ".", "",
               "Compatibility: at every released restraint the displacement of the primary beam under the loads, "
               "D0, plus the displacements caused by the redundants, must equal the support's own movement "
-              "(zero for a rigid support, -R/k for a spring). With unit redundants this is A X = -D0, where A "
+              "(zero for a rigid support, -R/k for a spring, plus any prescribed settlement Δ). With unit "
+              "redundants this is A X = Δ - D0 (Δ = 0 without settlements), where A "
               "holds the displacement (or slope) at restraint i due to a unit value of redundant j, plus 1/k "
               "on the diagonal for springs:", "",
               "$$A = " + _matrix(p.flexibility) + "$$", ""]
@@ -175,6 +176,9 @@ CAUTIONS = [
     "Load factors, combinations and deflection limits are the values written in the input file. Limits such as "
     "span/360, and twice the overhang length for cantilevers and overhangs, are common practice: confirm them "
     "against the governing local code.",
+    "Deflections are measured from the unloaded position of the member, so they include the movement of "
+    "spring supports and any prescribed settlement (conservative for span/N limits, which some codes apply to "
+    "the deflection relative to the supports).",
     "The shear check uses fy/sqrt(3) (von Mises) at the neutral axis; bending and shear are not combined.",
     "This calculation must be reviewed and accepted by a qualified, licensed engineer before it is relied on.",
 ]
