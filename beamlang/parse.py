@@ -79,7 +79,8 @@ def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.
         errors.error(*_explain(source, number, text, exc))
         return None
     try:
-        statement, comment = _Build(source, number).transform(tree)
+        comments = [t.column for t in tree.children if isinstance(t, Token) and t.type == "COMMENT"]
+        statement, comment = _Build(source, number, comments[0] if comments else None).transform(tree)
     except VisitError as exc:  # a bug of ours inside the transformer, never the user's
         raise exc.orig_exc from exc
     return s.Line(number, indented, statement, comment)
@@ -186,9 +187,9 @@ def _unquote(text: str) -> str:
 class _Build(Transformer):
     """Tree -> (statement or None, comment or None); one method per grammar rule."""
 
-    def __init__(self, source: Source, line: int):
+    def __init__(self, source: Source, line: int, comment_col: int | None):
         super().__init__()
-        self.source, self.line = source, line
+        self.source, self.line, self.comment_col = source, line, comment_col
 
     def _span(self, first: Token | Span, last: Token | Span | None = None) -> Span:
         last = last if last is not None else first
@@ -200,10 +201,10 @@ class _Build(Transformer):
         return s.Name(str(token), self._span(token))
 
     def _stmt_span(self) -> Span:
-        """The statement's span: from its keyword (first column) to its last part."""
+        """The statement's span: from its keyword to the end of the line, a trailing comment left out."""
         text = self.source.line_text(self.line)
         first = len(text) - len(text.lstrip()) + 1
-        code = text.split("#", 1)[0].rstrip() if '"' not in text else text.rstrip()
+        code = (text[: self.comment_col - 1] if self.comment_col else text).rstrip()
         return Span(self.source.name, self.line, first, max(first + 1, len(code) + 1))
 
     def start(self, *items):

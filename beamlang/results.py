@@ -54,6 +54,8 @@ class TargetResult:
     regions: tuple[Region, ...]
     stress: Stress
     cross_check: float
+    deflection_candidates: tuple[Candidate, ...]  # the extremum search, kept for the calc package
+    moment_candidates: tuple[Candidate, ...]
 
 
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
@@ -76,7 +78,7 @@ def _target(sol: Solution, t: Target) -> TargetResult:
         tuple((sp.x, c.theta.at(sp.x)) for sp in m.supports),
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
-        regions(sol, defl), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t))
+        regions(sol, defl), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t), tuple(defl), tuple(moment))
 
 
 def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:

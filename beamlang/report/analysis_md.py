@@ -2,10 +2,9 @@
 
 from __future__ import annotations
 
-from fractions import Fraction
 
 from ..display import convert, number, report_units, show
-from ..extrema import Candidate, candidates
+from ..extrema import Candidate
 from ..fem import reported
 from ..fmt import statement_text
 from ..pipeline import Analysis
@@ -51,7 +50,7 @@ def target(a: Analysis, name: str, figure: str) -> list[str]:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
         lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
                   "(exact, by linearity).", ""]
-    lines += _superposed(a, t) + _reactions(a, r) + _moment_search(a, t, r) + _deflection_search(a, t, r)
+    lines += _superposed(a, t) + _reactions(a, r) + _moment_search(a, r) + _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]
     return lines
 
@@ -173,11 +172,9 @@ def _reactions(a: Analysis, r) -> list[str]:
     return lines + [""]
 
 
-def _moment_search(a: Analysis, t, r) -> list[str]:
+def _moment_search(a: Analysis, r) -> list[str]:
     u = report_units(a.loaded.member)
-    c = t.curves
-    cands = candidates(c.M, c.V, Fraction(0), a.loaded.member.length)
-    zeros = [x for x in cands if x.reason == "derivative zero"]
+    zeros = [x for x in r.moment_candidates if x.reason == "derivative zero"]
     found = ", ".join(f"x = {_where(z)} m" for z in zeros) or "none inside a segment"
     lines = ["### Shear and moment", "",
              f"Extreme moments are at segment ends (both sides of each) or where V(x) = 0 inside a segment: {found}.", ""]
@@ -193,7 +190,7 @@ def _moment_search(a: Analysis, t, r) -> list[str]:
 def _deflection_search(a: Analysis, t, r) -> list[str]:
     u = report_units(a.loaded.member)
     c, xs = t.curves, a.solution.xs
-    cands = candidates(c.v, c.theta, Fraction(0), a.loaded.member.length)
+    cands = r.deflection_candidates
     lines = ["### Where the deflection is largest", "",
              "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
              "θ(x) = 0 is solved exactly; its roots inside the segment, and both ends of every segment, are "
