@@ -23,11 +23,19 @@ def member_json(a: Analysis) -> dict:
         "input_sha256": hashlib.sha256(a.loaded.source.text.encode("utf-8")).hexdigest(),
         "sign_convention": SIGN_CONVENTION,
         "results": {r.name: _target(r) for r in a.results},
+        "required": _required(a),
         "checks": [{
             "kind": c.kind, "target": c.target, "actual": float(c.actual), "allowed": float(c.allowed),
             "unit": c.unit, "ratio": c.ratio, "pass": c.passed,
             "x_m": _f(c.x), "basis": c.basis} for c in a.checks],
     }
+
+
+def _required(a: Analysis) -> dict:
+    req = a.required
+    name = lambda c: f"{c.kind} {c.target} (line {c.span.line})" if c else None  # noqa: E731
+    return {"I_m4": _f(req.I), "S_m3": _f(req.S), "governed_by": {"I": name(req.I_check), "S": name(req.S_check)},
+            "note": req.note}
 
 
 def _f(value: Fraction | None) -> float | None:

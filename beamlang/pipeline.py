@@ -7,6 +7,7 @@ from pathlib import Path
 
 from .checks import Check, run_checks
 from .frontend import Loaded, load
+from .required import Required, required_section
 from .results import TargetResult, evaluate
 from .solve import Solution, solve
 
@@ -17,6 +18,7 @@ class Analysis:
     solution: Solution
     results: tuple[TargetResult, ...]
     checks: tuple[Check, ...]
+    required: Required
 
     @property
     def passed(self) -> bool:
@@ -27,7 +29,7 @@ def analyse_loaded(item: Loaded) -> Analysis:
     solution = solve(item.member)            # every load's exact curve, force method, superposed
     results = evaluate(solution)             # reactions, located extrema, stresses, cross-check
     checks = run_checks(item.member, results)  # limits and stress against the member's statements
-    return Analysis(item, solution, results, checks)
+    return Analysis(item, solution, results, checks, required_section(item.member, checks))
 
 
 def analyse(path: Path) -> Analysis:

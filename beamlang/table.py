@@ -39,7 +39,21 @@ def member_table(a: Analysis) -> str:
         lines.append(f"  {len(a.checks) - failed} of {len(a.checks)} checks pass" + (f", {failed} FAIL" if failed else ""))
     else:
         lines.append("  no checks requested (add `limit deflection ...` or `check stress ...`)")
+    lines += _required(a, u)
     return "\n".join(lines) + "\n"
+
+
+def _required(a: Analysis, u: dict[str, str]) -> list[str]:
+    req = a.required
+    small = "mm" if a.loaded.member.units == "si" else "in"
+    parts = []
+    if req.I is not None:
+        parts.append(f"I >= {number(convert(req.I, small + '^4'))} {small}^4 ({req.I_check.kind} {req.I_check.target})")
+    if req.S is not None:
+        parts.append(f"S >= {number(convert(req.S, small + '^3'))} {small}^3 ({req.S_check.kind} {req.S_check.target})")
+    if not parts:
+        return [f"  required section: {req.note}"] if req.note.startswith("not computed") else []
+    return ["  required section: " + ", ".join(parts)]
 
 
 def _reaction(force, moment, u: dict[str, str]) -> str:

@@ -283,6 +283,32 @@ def checks_detail(a: Analysis) -> list[str]:
     return lines + [""]
 
 
+def required(a: Analysis) -> list[str]:
+    """The least I and S that pass, with their derivation."""
+    req, m = a.required, a.loaded.member
+    small = "mm" if m.units == "si" else "in"
+    lines = ["## Required section", ""]
+    if req.I is None and req.S is None:
+        return lines + [f"{req.note[0].upper()}{req.note[1:]}." if req.note.startswith("not") else
+                        "No deflection limit or stress check asks for one.", ""]
+    lines += ["With the loads fixed, every deflection of this member is proportional to 1/I and the moments do "
+              "not depend on I, so the least second moment of area meeting every deflection limit, and the least "
+              "elastic section modulus keeping the bending stress within yield, follow exactly from the ratios:", ""]
+    if req.I is not None:
+        c = req.I_check
+        lines += [f"$$I_{{req}} = I \\cdot \\frac{{\\delta}}{{\\delta_{{allow}}}} = {num(convert(m.section.I, small + '^4'))} "
+                  f"\\times {num(c.ratio, 6)} = {num(convert(req.I, small + '^4'))}$$", "",
+                  f"in {small}^4, governed by the deflection check on {md(c.target)} (input line {c.span.line}).", ""]
+    if req.S is not None:
+        c = req.S_check
+        S = m.section.S if m.section.S is not None else m.section.I / m.section.c
+        lines += [f"$$S_{{req}} = \\frac{{M_{{max}}}}{{f_y}} = S \\cdot \\frac{{\\sigma}}{{f_y}} = "
+                  f"{num(convert(S, small + '^3'))} \\times {num(c.ratio, 6)} = {num(convert(req.S, small + '^3'))}$$", "",
+                  f"in {small}^3, governed by the bending stress on {md(c.target)} (input line {c.span.line}).", ""]
+    note = req.note.split("; ", 1)
+    return lines + ([f"Note: {note[1]}.", ""] if len(note) > 1 else [])
+
+
 def cross_check(a: Analysis) -> list[str]:
     lines = ["## Independent cross-check", "",
              "Each case and combination is solved again by finite elements (Hermite cubic beam elements, a node "

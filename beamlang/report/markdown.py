@@ -14,5 +14,6 @@ def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | N
              sections.signs(a, figures["sign convention"]), sections.section_properties(a), sections.method(a)]
     parts += [results.target(a, t.name, figures[t.name]) for t in a.solution.targets]
     parts += [results.envelope(a, figures["(envelope)"])]
-    parts += [results.checks_detail(a), results.cross_check(a), sections.cautions(a), sections.traceability(a)]
+    parts += [results.checks_detail(a), results.required(a), results.cross_check(a), sections.cautions(a),
+              sections.traceability(a)]
     return "\n".join(line for part in parts for line in part).rstrip("\n") + "\n"
