@@ -60,6 +60,12 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("paths", nargs="+", metavar="FILES|DIRS")
     check.add_argument("--json", action="store_true", help="print results.json objects (a list) instead of tables")
     check.add_argument("--junit", metavar="FILE", help="also write JUnit XML: one test case per member check")
+    size = sub.add_parser("size", help="the lightest section of a catalogue that passes every check")
+    size.add_argument("member", metavar="MEMBER.beam")
+    size.add_argument("--catalogue", required=True, metavar="FILE.csv",
+                      help="CSV with a header name,section (see beamlang/catalogues/)")
+    size.add_argument("--write", action="store_true", help="write the chosen section into the member file")
+    size.set_defaults(run=_run_size)
     diff = sub.add_parser("diff", help="what a revision changed: inputs, results and check status")
     diff.add_argument("sides", nargs="*", metavar="OLD NEW | PATHS",
                       help="two files (either may be REV:path), or with --rev the paths to compare")
@@ -186,6 +192,36 @@ def _run_check(args: argparse.Namespace) -> int:
     if errors or not found:
         return EXIT_INPUT
     return EXIT_OK if all(a.passed for a in analyses) else EXIT_FAIL
+
+
+def _run_size(args: argparse.Namespace) -> int:
+    from .frontend import load
+    from .size import read_catalogue, try_all, with_section
+    item = load(Path(args.member))
+    catalogue = Path(args.catalogue)
+    trials = try_all(item, read_catalogue(catalogue), catalogue.as_posix())
+    passing = [t for t in trials if t.passed]
+    unit = "N/m" if item.member.material.density else "m^2 (area: no density given)"
+    print(f"{item.member.mark}: {len(trials)} sections tried from {catalogue.as_posix()}, {len(passing)} pass; "
+          f"lightest first (weight in {unit})")
+    for t in trials:
+        mark = "->" if passing and t is passing[0] else "  "
+        if t.problem:
+            print(f"  {mark} {t.name:<16} not tried: {t.problem}")
+            continue
+        weight = f"{float(t.weight):.4g}" if t.weight is not None else "-"
+        ratio = f"{t.ratio:.3f} ({t.governing})" if t.ratio is not None else "no checks"
+        print(f"  {mark} {t.name:<16} {weight:>10}  {'PASS' if t.passed else 'FAIL'}  governing ratio {ratio}")
+    if not passing:
+        print("no section of the catalogue passes every check")
+        return EXIT_FAIL
+    best = passing[0]
+    runners = ", ".join(f"{t.name} ({t.ratio:.3f})" for t in passing[1:4])
+    print(f"lightest passing: {best.name}" + (f"; next: {runners}" if runners else ""))
+    if args.write:
+        Path(args.member).write_text(with_section(item, best.section), encoding="utf-8", newline="")
+        print(f"wrote `section {best.section}` into {item.source.name}")
+    return EXIT_OK
 
 
 def _run_diff(args: argparse.Namespace) -> int:

@@ -1,0 +1,87 @@
+"""Size: a member + a catalogue of sections -> every section tried, the lightest that passes every check.
+
+Catalogue format (CSV, `#` comment lines allowed): a header `name,section`, then one row per section
+whose `section` cell is the text after the keyword `section` in a `.beam` file, for example
+`2x10,rectangle width 1.5 in depth 9.25 in` or `B1,properties I 340 in^4 depth 12 in A 10 in^2`."""
+
+from __future__ import annotations
+
+import csv
+from dataclasses import dataclass
+from fractions import Fraction
+from pathlib import Path
+
+from . import syntax as s
+from .build import build
+from .errors import BeamError, Diagnostic
+from .frontend import Loaded
+from .parse import parse
+from .pipeline import analyse_loaded
+from .source import Source, Span
+from .units import STANDARD_GRAVITY
+
+
+@dataclass(frozen=True, slots=True)
+class Trial:
+    name: str
+    section: str  # the catalogue's section text
+    weight: Fraction | None  # N/m with a density, else the area in m^2 (same order)
+    ratio: float | None  # the largest check ratio
+    governing: str | None
+    passed: bool
+    problem: str | None  # why the section could not be tried
+
+
+def read_catalogue(path: Path) -> list[tuple[int, str, str]]:
+    """(line, name, section text) rows; a malformed catalogue is an input error."""
+    try:
+        text = path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as exc:
+        raise BeamError([Diagnostic(Span(path.as_posix(), 1, 1, 2), f"cannot read the catalogue ({exc})")]) from None
+    rows, header = [], None
+    for number, line in enumerate(text.splitlines(), start=1):
+        if not line.strip() or line.lstrip().startswith("#"):
+            continue
+        cells = next(csv.reader([line]))
+        if header is None:
+            header = [c.strip().lower() for c in cells]
+            if header[:2] != ["name", "section"]:
+                raise BeamError([Diagnostic(Span(path.as_posix(), number, 1, len(line) + 1),
+                                            "a catalogue starts with the header `name,section`")])
+            continue
+        if len(cells) < 2:
+            raise BeamError([Diagnostic(Span(path.as_posix(), number, 1, len(line) + 1),
+                                        "a catalogue row needs a name and a section")])
+        rows.append((number, cells[0].strip(), cells[1].strip()))
+    return rows
+
+
+def with_section(item: Loaded, section_text: str) -> str:
+    """The member's file text with its section line replaced, indentation and comment kept."""
+    line = next(ln for ln in item.document.lines if isinstance(ln.statement, s.Section))
+    lines = item.source.text.splitlines(keepends=True)
+    old = lines[line.number - 1]
+    indent = old[: len(old) - len(old.lstrip())]
+    ending = "\n" if old.endswith("\n") else ""
+    lines[line.number - 1] = f"{indent}section {section_text}" + (f"  {line.comment}" if line.comment else "") + ending
+    return "".join(lines)
+
+
+def try_all(item: Loaded, catalogue: list[tuple[int, str, str]], catalogue_name: str) -> list[Trial]:
+    """Every section of the catalogue in this member, lightest first (ties by name)."""
+    trials = []
+    for number, name, section in catalogue:
+        source = Source(f"{catalogue_name}:{number}", with_section(item, section))
+        try:
+            doc = parse(source)
+            a = analyse_loaded(Loaded(item.path, source, doc, build(doc)))
+        except BeamError as exc:
+            trials.append(Trial(name, section, None, None, None, False, exc.diagnostics[0].message))
+            continue
+        m = a.loaded.member
+        area = m.section.A
+        weight = None if area is None else (area * m.material.density * STANDARD_GRAVITY if m.material.density else area)
+        worst = max(a.checks, key=lambda c: c.ratio, default=None)
+        trials.append(Trial(name, section, weight, worst.ratio if worst else None,
+                            f"{worst.kind} {worst.target}" if worst else None, a.passed, None))
+    return sorted(trials, key=lambda t: (t.weight is None, t.weight or 0, t.name))
