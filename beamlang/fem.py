@@ -11,13 +11,28 @@ from .model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 from .statics import intensity
 
 
+MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would ruin the float solve
+
+
+def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
+    """The element nodes: both ends and every support, then every other breakpoint that is not
+    closer than MIN_ELEMENT x L to a node already taken (loads between nodes become consistent
+    nodal loads, for which Hermite elements stay exact at the nodes)."""
+    tol = member.length * MIN_ELEMENT
+    nodes = sorted({Fraction(0), member.length, *(sp.x for sp in member.supports)})
+    for x in xs:
+        if all(abs(x - n) >= tol for n in nodes):
+            nodes.append(x)
+            nodes.sort()
+    return tuple(nodes)
+
+
 def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
-    """Deflection and slope at every breakpoint under (factor, load) pairs; one element per segment.
+    """Deflection and slope at the nodes `xs` under (factor, load) pairs; one element between nodes.
 
     Precision: the stiffness matrix is ill-conditioned when a very short element sits in a long
-    member (condition number about (longest / shortest element)^3); it is assembled in extended
-    precision and solved with iterative refinement, which keeps the nodal error near 1e-12 for
-    ordinary meshes and about 1e-9 when the element lengths differ a thousandfold."""
+    member (condition number about (longest / shortest element)^3), so `fe_nodes` avoids such
+    elements; the matrix is assembled in extended precision and solved with iterative refinement."""
     n = len(xs)
     x = np.array([_ld(v) for v in xs], dtype=np.longdouble)
     EI = _ld(member.material.E * member.section.I)
@@ -74,20 +89,48 @@ def _solve_refined(K: np.ndarray, F: np.ndarray) -> np.ndarray:
     return (y * d).astype(np.float64)
 
 
-def _add_load(F: np.ndarray, factor: float, load, xs, x: np.ndarray, index: dict) -> None:
-    if isinstance(load, PointLoad):
-        F[2 * index[load.x]] += factor * _ld(load.force)
-    elif isinstance(load, MomentLoad):
-        F[2 * index[load.x] + 1] += factor * _ld(load.moment)
+_GAUSS = [(np.longdouble(0.5) - np.sqrt(np.longdouble(0.15)), np.longdouble(5) / 18),
+          (np.longdouble(0.5), np.longdouble(8) / 18),
+          (np.longdouble(0.5) + np.sqrt(np.longdouble(0.15)), np.longdouble(5) / 18)]  # exact to degree 5
+
+
+def _shape(xi, l):
+    """Hermite shape functions N1..N4 and their x-derivatives at xi = (x - x_e) / l."""
+    n = [1 - 3 * xi**2 + 2 * xi**3, l * (xi - 2 * xi**2 + xi**3), 3 * xi**2 - 2 * xi**3, l * (-xi**2 + xi**3)]
+    d = [(-6 * xi + 6 * xi**2) / l, 1 - 4 * xi + 3 * xi**2, (6 * xi - 6 * xi**2) / l, -2 * xi + 3 * xi**2]
+    return n, d
+
+
+def _element(x: np.ndarray, at) -> int:
+    return min(max(int(np.searchsorted(x, _ld(at), side="right")) - 1, 0), len(x) - 2)
+
+
+def _add_load(F: np.ndarray, factor, load, xs, x: np.ndarray, index: dict) -> None:
+    """Consistent (work-equivalent) nodal loads: sum of N_k times the load over the element."""
+    if isinstance(load, (PointLoad, MomentLoad)):
+        e = _element(x, load.x)
+        l = x[e + 1] - x[e]
+        n, d = _shape((_ld(load.x) - x[e]) / l, l)
+        weights = n if isinstance(load, PointLoad) else d
+        value = factor * _ld(load.force if isinstance(load, PointLoad) else load.moment)
+        for k in range(4):
+            F[2 * e + k] += value * weights[k]
     elif isinstance(load, LineLoad):
         w = intensity(load)
-        for e in range(index[load.x1], index[load.x2]):
+        w0, w1 = _ld(w.coeffs[0]) if w.coeffs else 0, _ld(w.coeffs[1]) if len(w.coeffs) > 1 else 0
+        for e in range(_element(x, load.x1), len(x) - 1):
+            a, b = max(x[e], _ld(load.x1)), min(x[e + 1], _ld(load.x2))
+            if b <= a:
+                if x[e] >= _ld(load.x2):
+                    break
+                continue
             l = x[e + 1] - x[e]
-            wa, wb = factor * _ld(w(xs[e])), factor * _ld(w(xs[e + 1]))
-            F[2 * e] += l * (7 * wa + 3 * wb) / 20
-            F[2 * e + 1] += l * l * (3 * wa + 2 * wb) / 60
-            F[2 * e + 2] += l * (3 * wa + 7 * wb) / 20
-            F[2 * e + 3] -= l * l * (2 * wa + 3 * wb) / 60
+            for g, wt in _GAUSS:
+                at = a + (b - a) * g
+                n, _ = _shape((at - x[e]) / l, l)
+                q = factor * (w0 + w1 * at) * wt * (b - a)
+                for k in range(4):
+                    F[2 * e + k] += q * n[k]
 
 
 FLOOR = 1e-12  # differences below this are float noise and are reported as this bound
@@ -102,8 +145,9 @@ def reported(difference: float) -> float:
 
 def relative_difference(member: Member, xs, loads, v_exact, theta_exact) -> float:
     """Largest nodal difference between the element solution and the exact curves, relative to the largest value."""
-    v, theta = nodal_solution(member, xs, loads)
-    ve = np.array([float(v_exact.at(p)) for p in xs])
-    te = np.array([float(theta_exact.at(p)) for p in xs])
+    nodes = fe_nodes(member, xs)
+    v, theta = nodal_solution(member, nodes, loads)
+    ve = np.array([float(v_exact.at(p)) for p in nodes])
+    te = np.array([float(theta_exact.at(p)) for p in nodes])
     scale_v, scale_t = np.abs(ve).max() or 1.0, np.abs(te).max() or 1.0  # a curve that is zero: absolute
     return float(max(np.abs(v - ve).max() / scale_v, np.abs(theta - te).max() / scale_t))

@@ -311,8 +311,9 @@ def required(a: Analysis) -> list[str]:
 
 def cross_check(a: Analysis) -> list[str]:
     lines = ["## Independent cross-check", "",
-             "Each case and combination is solved again by finite elements (Hermite cubic beam elements, a node "
-             "at every breakpoint, consistent nodal loads, floating point). Largest nodal difference from the "
+             "Each case and combination is solved again by finite elements (Hermite cubic beam elements; a node "
+             "at each end, every support and every breakpoint not closer than L/500 to another node; consistent "
+             "nodal loads; floating point). Largest nodal difference from the "
              "exact curves, relative to the largest deflection or slope, rounded up to a power of ten "
              "(1e-12 means at most 1e-12: float noise):", "",
              "| case or combination | relative difference at most |", "|---|---|"]
