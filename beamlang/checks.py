@@ -28,6 +28,11 @@ class Check:
     region: str = ""  # span | overhang | cantilever, for span/N limits
 
     @property
+    def label(self) -> str:
+        """How the check is named wherever it is listed: kind, target and input line."""
+        return f"{self.kind} {self.target} (line {self.span.line})"
+
+    @property
     def ratio(self) -> float:
         return float(self.actual / self.allowed)
 

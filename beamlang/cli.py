@@ -261,18 +261,16 @@ def _diff_pairs(args: argparse.Namespace) -> list:
 
 def _side(arg: str):
     """A file, or REV:path read through git; analysed."""
-    from .build import build
-    from .frontend import Loaded
+    from .frontend import from_source
     from .gitsource import read_revision
-    from .parse import parse, read_source
+    from .parse import read_source
     from .pipeline import analyse_loaded
     if ":" in arg and not Path(arg).exists():
         rev, _, path = arg.partition(":")
         source = read_revision(rev, path)
     else:
         source = read_source(arg)
-    doc = parse(source)
-    return analyse_loaded(Loaded(Path(source.name), source, doc, build(doc)))
+    return analyse_loaded(from_source(source, Path(source.name)))
 
 
 def _usage(message: str):

@@ -9,8 +9,11 @@ from .syntax import SpanLength
 from .units import factor_of
 
 REPORT_UNITS = {
-    "si": {"length": "m", "deflection": "mm", "force": "kN", "moment": "kN*m", "stress": "MPa", "slope": "rad"},
-    "us": {"length": "ft", "deflection": "in", "force": "kip", "moment": "kip*ft", "stress": "ksi", "slope": "rad"},
+    # "section": the length unit of section dimensions and properties (mm^4, in^4, ...)
+    "si": {"length": "m", "deflection": "mm", "force": "kN", "moment": "kN*m", "stress": "MPa", "slope": "rad",
+           "section": "mm"},
+    "us": {"length": "ft", "deflection": "in", "force": "kip", "moment": "kip*ft", "stress": "ksi", "slope": "rad",
+           "section": "in"},
 }
 
 

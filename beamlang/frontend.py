@@ -23,7 +23,11 @@ class Loaded:
 
 def load(path: Path) -> Loaded:
     """Read, parse and validate one file (raises BeamError with every problem found)."""
-    source = read_source(path, shown_as=_shown(path))
+    return from_source(read_source(path, shown_as=_shown(path)), path)
+
+
+def from_source(source: Source, path: Path | None) -> Loaded:
+    """Parse and validate text that is already read (a file, a git revision, a trial section)."""
     doc = parse(source)
     return Loaded(path, source, doc, build(doc))
 

@@ -33,7 +33,7 @@ def member_json(a: Analysis) -> dict:
 
 def _required(a: Analysis) -> dict:
     req = a.required
-    name = lambda c: f"{c.kind} {c.target} (line {c.span.line})" if c else None  # noqa: E731
+    name = lambda c: c.label if c else None  # noqa: E731
     return {"I_m4": _f(req.I), "S_m3": _f(req.S), "governed_by": {"I": name(req.I_check), "S": name(req.S_check)},
             "note": req.note}
 

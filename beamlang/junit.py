@@ -18,7 +18,7 @@ def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:
         failures = 0
         u = report_units(m)
         for c in a.checks:
-            case = ET.SubElement(suite, "testcase", classname=m.mark, name=f"{c.kind} {c.target} (line {c.span.line})")
+            case = ET.SubElement(suite, "testcase", classname=m.mark, name=c.label)
             if not c.passed:
                 failures += 1
                 q = "deflection" if c.unit == "m" else "stress"

@@ -20,6 +20,10 @@ class Analysis:
     checks: tuple[Check, ...]
     required: Required
 
+    def result(self, name: str) -> TargetResult:
+        """The results of one case or combination."""
+        return next(r for r in self.results if r.name == name)
+
     @property
     def passed(self) -> bool:
         return all(c.passed for c in self.checks)

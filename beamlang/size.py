@@ -12,10 +12,8 @@ from fractions import Fraction
 from pathlib import Path
 
 from . import syntax as s
-from .build import build
 from .errors import BeamError, Diagnostic
-from .frontend import Loaded
-from .parse import parse
+from .frontend import Loaded, from_source
 from .pipeline import analyse_loaded
 from .source import Source, Span
 from .units import STANDARD_GRAVITY
@@ -73,8 +71,7 @@ def try_all(item: Loaded, catalogue: list[tuple[int, str, str]], catalogue_name:
     for number, name, section in catalogue:
         source = Source(f"{catalogue_name}:{number}", with_section(item, section))
         try:
-            doc = parse(source)
-            a = analyse_loaded(Loaded(item.path, source, doc, build(doc)))
+            a = analyse_loaded(from_source(source, item.path))
         except BeamError as exc:
             trials.append(Trial(name, section, None, None, None, False, exc.diagnostics[0].message))
             continue

@@ -45,7 +45,7 @@ def member_table(a: Analysis) -> str:
 
 def _required(a: Analysis, u: dict[str, str]) -> list[str]:
     req = a.required
-    small = "mm" if a.loaded.member.units == "si" else "in"
+    small = u["section"]
     parts = []
     if req.I is not None:
         parts.append(f"I >= {number(convert(req.I, small + '^4'))} {small}^4 ({req.I_check.kind} {req.I_check.target})")

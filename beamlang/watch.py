@@ -26,7 +26,7 @@ def rebuild(paths: list[Path], out: Path, previous: dict[str, dict[str, bool]]) 
             lines.append(f"{key}: input errors, package not rebuilt\n{exc.render()}")
             continue
         folder = write_package(a, out)
-        now = {f"{c.kind} {c.target} (line {c.span.line})": c.passed for c in a.checks}
+        now = {c.label: c.passed for c in a.checks}
         before = previous.get(key, {})
         changed = [f"{name} {'PASS' if before[name] else 'FAIL'} -> {'PASS' if ok else 'FAIL'}"
                    for name, ok in now.items() if name in before and before[name] != ok]

@@ -4,10 +4,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.build import build
-from beamlang.parse import parse
+from beamlang.frontend import from_source
 from beamlang.pipeline import Analysis, analyse_loaded
-from beamlang.frontend import Loaded
 from beamlang.source import Source
 
 E = Fraction(200 * 10**9)  # Pa, from "200 GPa"
@@ -27,9 +25,7 @@ def member_text(span: str, supports: list[str], cases: dict[str, list[str]], ext
 
 
 def analyse_text(text: str) -> Analysis:
-    source = Source("t.beam", text)
-    doc = parse(source)
-    return analyse_loaded(Loaded(None, source, doc, build(doc)))
+    return analyse_loaded(from_source(Source("t.beam", text), None))
 
 
 def result(text: str, target: str = "a"):

@@ -37,7 +37,7 @@ def summary(a: Analysis) -> list[str]:
 
 def target(a: Analysis, name: str, figure: str) -> list[str]:
     t = a.solution.target(name)
-    r = next(x for x in a.results if x.name == name)
+    r = a.result(name)
     m = a.loaded.member
     head = f"## {'Case' if t.kind == 'case' else 'Combination'} {md(name)}"
     lines = [head, ""]
@@ -255,7 +255,7 @@ def envelope(a: Analysis, figure: str) -> list[str]:
     names = envelope_targets(a)
     rows = []
     for name in names:
-        r = next(x for x in a.results if x.name == name)
+        r = a.result(name)
         rows.append(f"| {md(name)} | {show(r.moment_positive.value if r.moment_positive else None, u, 'moment')} | "
                     f"{show(r.moment_negative.value if r.moment_negative else None, u, 'moment')} | "
                     f"{show(r.max_down.value if r.max_down else None, u, 'deflection')} | "
@@ -286,7 +286,7 @@ def checks_detail(a: Analysis) -> list[str]:
 def required(a: Analysis) -> list[str]:
     """The least I and S that pass, with their derivation."""
     req, m = a.required, a.loaded.member
-    small = "mm" if m.units == "si" else "in"
+    small = report_units(m)["section"]
     lines = ["## Required section", ""]
     if req.I is None and req.S is None:
         return lines + [f"{req.note[0].upper()}{req.note[1:]}." if req.note.startswith("not") else

@@ -34,7 +34,7 @@ def target_figure(a: Analysis, name: str) -> str:
     m = a.loaded.member
     u = report_units(m)
     t = a.solution.target(name)
-    r = next(res for res in a.results if res.name == name)
+    r = a.result(name)
     fig, axes = plt.subplots(5, 1, figsize=(7.0, 9.0), sharex=True, layout=None)
     fig.subplots_adjust(hspace=0.35, left=0.12, right=0.97, top=0.97, bottom=0.05)
     L = float(convert(m.length, u["length"]))

@@ -101,7 +101,7 @@ def signs(a: Analysis, figure: str) -> list[str]:
 def section_properties(a: Analysis) -> list[str]:
     m = a.loaded.member
     sec, mat = m.section, m.material
-    small = "mm" if m.units == "si" else "in"
+    small = report_units(m)["section"]
     lines = ["## Section and material", ""]
     if sec.shape == "properties":
         lines += [f"Section given by its properties, input line {sec.span.line}.", ""]
