@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import os
+import re
 import subprocess
 import sys
 from pathlib import Path
@@ -12,6 +13,7 @@ import pytest
 from beamlang.cli import main
 from beamlang.report import package
 from beamlang.report.html import check_mathml
+from beamlang.report.provenance import LIBRARIES, versions_text
 from casefiles import EXAMPLES
 from engine_helpers import analyse_text, member_text
 
@@ -34,9 +36,27 @@ def built(tmp_path_factory) -> dict[str, bytes]:
     return _build(tmp_path_factory.mktemp("a"), "1")
 
 
-def test_out_folder_is_current(built):
-    committed = {k: v for k, v in _tree(ROOT / "out").items() if k != "README.md"}
+def _committed() -> dict[str, bytes]:
+    return {k: v for k, v in _tree(ROOT / "out").items() if k != "README.md"}
+
+
+def test_out_results_are_current(built):
+    """results.json is the engine's own output: it must match whatever library versions are installed."""
+    committed = _committed()
     assert sorted(committed) == sorted(built), "rebuild out/ with: beamlang build examples -o out"
+    for name in (n for n in built if n.endswith("results.json")):
+        assert committed[name] == built[name], f"out/{name} differs: rebuild out/ with: beamlang build examples -o out"
+
+
+def test_out_packages_are_current(built):
+    """Markdown, HTML and SVG also carry the bytes of sympy, matplotlib and the Markdown libraries: compared in
+    full where the installed versions are the ones the committed packages name in their traceability section."""
+    committed = _committed()
+    stamp = re.search(r"built by beamlang \S+ with (.+?)\. Nothing", committed["B-3/B-3.md"].decode("utf-8"))
+    assert stamp, "the committed package names no library versions"
+    assert [part.rsplit(" ", 1)[0] for part in stamp.group(1).split(", ")] == list(LIBRARIES)
+    if stamp.group(1) != versions_text():
+        pytest.skip(f"out/ was built with {stamp.group(1)}; installed: {versions_text()}")
     for name, data in built.items():
         assert committed[name] == data, f"out/{name} differs: rebuild out/ with: beamlang build examples -o out"
 
@@ -53,7 +73,7 @@ def test_package_has_every_file_and_valid_math(built):
                 f"{mark}/figures/sign-convention.svg"} <= set(built)
         page = built[f"{mark}/{mark}.html"].decode("utf-8")
         assert check_mathml(page) > 20 and "<script" not in page
-        assert '<pre class="beam-code"><code><span class="cs"> 1  </span>' in page  # highlighted appendix
+        assert '<pre class="beam-code"><code><span class="ln"> 1  </span>' in page  # highlighted appendix
         text = built[f"{mark}/{mark}.md"].decode("utf-8")
         for heading in ("## Summary", "## Inputs", "## Sign convention", "## Section and material", "## Method",
                         "## Checks", "## Independent cross-check", "## Assumptions and cautions", "## Traceability"):

@@ -12,6 +12,7 @@ from ..display import convert, number, report_units
 from ..pipeline import Analysis
 from ..sections import FORMULAS
 from ..units import factor_of
+from .provenance import versions_text
 from .tex import cell, md, num, plain
 
 US_TOKENS = ("ft", "in", "lbf", "kip", "psi", "ksi", "lb")
@@ -201,6 +202,7 @@ def traceability(a: Analysis) -> list[str]:
     longest = max((len(run) for run in re.findall(r"`+", src.text)), default=0)
     fence = "`" * max(3, longest + 1)  # the file's own backticks cannot close the block
     return ["## Traceability", "",
-            f"Input file {md(src.name)}, SHA-256 `{digest}`, built by beamlang {__version__}. "
-            "Nothing in this package depends on the clock; rebuilding the same input gives the same bytes.", "",
+            f"Input file {md(src.name)}, SHA-256 `{digest}`, built by beamlang {__version__} "
+            f"with {versions_text()}. Nothing in this package depends on the clock; rebuilding the same input "
+            "with the same versions gives the same bytes.", "",
             "### Appendix: the input file, line by line", "", fence + "text", *listing, fence, ""]
