@@ -34,6 +34,7 @@ class _Builder:
         self.errors = Collector(doc.source)
         self.length: Fraction | None = None
         self.support_positions: set[Fraction] = set()
+        self.moving_cases: set[str] = set()
 
     # -- helpers ---------------------------------------------------------------------------
     def si(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
@@ -114,6 +115,7 @@ class _Builder:
         supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
         self.support_positions = {sp.x for sp in supports}
         cases = self._cases(stmts, material, section, member_span)
+        self.moving_cases = {c.name for c in cases if any(isinstance(ld, m.MovingLoad) for ld in c.loads)}
         names = self._names(cases)
         combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
         targets = names | {c.name for c in combos}
@@ -272,6 +274,11 @@ class _Builder:
         return tuple(cases)
 
     def _close_case(self, st: s.Case, loads: list[m.Load]) -> m.Case:
+        moving = [ld for ld in loads if isinstance(ld, m.MovingLoad)]
+        for extra in moving[1:]:
+            self.errors.error(extra.span, "a case holds at most one moving load",
+                              "put the forces that travel together in one `moving` line, or the second "
+                              "group in a case of its own")
         return m.Case(st.name.text, st.title, tuple(loads), st.span)
 
     def _load(self, st, material, section) -> m.Load | None:
@@ -294,12 +301,40 @@ class _Builder:
             return self._line_load(st, x1, x2, w, w, "uniform")
         if isinstance(st, s.Settlement):
             return self._settlement(st)
+        if isinstance(st, s.Moving):
+            return self._moving(st)
         if isinstance(st, s.Linear):
             w1 = self.si(st.start_intensity, "force per length", "a linear load")
             w2 = self.si(st.end_intensity, "force per length", "a linear load")
             x1, x2 = self.position(st.start, "load start"), self.position(st.end, "load end")
             return self._line_load(st, x1, x2, w1, w2, "linear")
         return self._self_weight(st, material, section)
+
+    def _moving(self, st: s.Moving) -> m.MovingLoad | None:
+        forces = [self.positive(q, "force", "a moving force") for q in st.forces]
+        gaps = [self.positive(q, "length", "a spacing") for q in st.spacings]
+        if len(gaps) != len(forces) - 1:
+            where = st.spacings[-1].span if st.spacings else st.direction.span
+            if len(forces) == 1:
+                message = "a single moving force takes no spacing"
+            else:
+                message = (f"{len(forces)} moving forces need {_count(len(forces) - 1, 'spacing')}, "
+                           f"found {len(gaps)}")
+            self.errors.error(where, message, "write e.g. `moving 12 kN and 12 kN down spaced 1.5 m`")
+            return None
+        lo = Fraction(0) if st.start is None else self.position(st.start, "start of travel")
+        hi = self.length if st.end is None else self.position(st.end, "end of travel")
+        if None in forces or None in gaps or lo is None or hi is None:
+            return None
+        if lo >= hi:
+            self.errors.error(st.end.span, "the travel must end to the right of where it starts",
+                              "write `from` the left position `to` the right one")
+            return None
+        offsets = [Fraction(0)]
+        for gap in gaps:
+            offsets.append(offsets[-1] + gap)
+        sign = _sign(st.direction.text)
+        return m.MovingLoad(tuple(sign * f for f in forces), tuple(offsets), lo, hi, st.span)
 
     def _settlement(self, st: s.Settlement) -> m.Settlement | None:
         d = self.si(st.movement, "length", "a settlement")
@@ -379,6 +414,12 @@ class _Builder:
                     self.errors.error(term.case.span, "a factor of zero; leave the case out instead")
                     ok = False
                 terms.append((factor, term.case.text))
+            with_moving = [t for t in st.terms if t.case.text in self.moving_cases]
+            if len(with_moving) > 1:
+                self.errors.error(with_moving[1].case.span, "a combination may hold only one case with a moving load",
+                                  "two groups moving independently are not supported; combine each with the "
+                                  "other cases separately")
+                ok = False
             if ok:
                 out.append(m.Combination(name, tuple(terms), st.span))
         return tuple(out)
@@ -441,6 +482,10 @@ def _why_unstable(supports: list[m.Support]) -> str:
     if all(sp.kind == "spring" and not sp.stiffness for sp in supports):
         return "springs of zero stiffness restrain nothing; give them a stiffness or add a support"
     return "one pin, roller or spring lets the beam turn about it; add a second support or make one fixed"
+
+
+def _count(n: int, word: str) -> str:
+    return f"{n} {word}" if n == 1 else f"{n} {word}s"
 
 
 def _sign(direction: str) -> int:

@@ -122,6 +122,9 @@ _TEXT = {
     s.Moment: lambda st: f"moment {_q(st.moment)} {st.direction.text} at {st.at}",
     s.SelfWeight: lambda st: "self-weight",
     s.Settlement: lambda st: f"settlement {_q(st.movement)} {st.direction.text} at {st.at}",
+    s.Moving: lambda st: (f"moving {' and '.join(_q(q) for q in st.forces)} {st.direction.text}"
+                          + (f" spaced {' and '.join(_q(q) for q in st.spacings)}" if st.spacings else "")
+                          + (f" from {st.start} to {st.end}" if st.start is not None else "")),
     s.Combine: _combine,
     s.Limit: _limit,
     s.StressCheck: lambda st: f"check stress {st.target.text}",

@@ -53,6 +53,20 @@ def _at(located: Located | None, key: str) -> dict | None:
 
 
 def _target(r: TargetResult) -> dict:
+    out = _static(r)
+    if r.envelope is not None:  # the values above are extremes over every position of the moving group
+        env = r.envelope
+        out["moving"] = {
+            "input_line": env.load.span.line, "factor": float(env.factor),
+            "critical": {field: {"x_m": float(c.x), "first_force_at_m": float(c.position),
+                                 "reversed": c.reversed, "found": c.how} for field, c in r.positions},
+            "reactions": [{"x_m": float(big.x), "max_force_N": float(big.value),
+                           "max_at_first_force_m": float(big.position), "min_force_N": float(small.value),
+                           "min_at_first_force_m": float(small.position)} for big, small in env.reactions]}
+    return out
+
+
+def _static(r: TargetResult) -> dict:
     return {
         "kind": r.kind,
         "reactions": [{"x_m": float(x), "force_N": float(f), "moment_Nm": float(mo)} for x, f, mo in r.reactions],

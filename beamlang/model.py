@@ -80,7 +80,23 @@ class Settlement:
     span: Span
 
 
-Load = PointLoad | LineLoad | MomentLoad | Settlement
+@dataclass(frozen=True, slots=True)
+class MovingLoad:
+    """Forces (N, positive up) at offsets from the first one (m, first 0, increasing) that travel along
+    the member, in either direction; each force acts while it lies within [lo, hi]."""
+
+    forces: tuple[Fraction, ...]
+    offsets: tuple[Fraction, ...]
+    lo: Fraction
+    hi: Fraction
+    span: Span
+
+    @property
+    def length(self) -> Fraction:
+        return self.offsets[-1]
+
+
+Load = PointLoad | LineLoad | MomentLoad | Settlement | MovingLoad
 
 
 @dataclass(frozen=True, slots=True)
@@ -136,6 +152,19 @@ class Member:
     notes: tuple[str, ...]
     document: s.Document  # the syntax it was built from: author's units, comments, spans
     span: Span
+
+    def moving(self, target: str) -> tuple[Fraction, MovingLoad] | None:
+        """The moving load in a case or combination, with its factor (at most one: the builder checks)."""
+        for case in self.cases:
+            if case.name == target:
+                return next(((Fraction(1), ld) for ld in case.loads if isinstance(ld, MovingLoad)), None)
+        for combo in self.combinations:
+            if combo.name == target:
+                for factor, name in combo.terms:
+                    found = self.moving(name)
+                    if found:
+                        return factor * found[0], found[1]
+        return None
 
     def case(self, name: str) -> Case:
         for case in self.cases:

@@ -15,7 +15,7 @@ from .source import Source, Span
 
 KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
             "material", "section", "support", "case", "point", "uniform", "linear", "moment",
-            "self-weight", "settlement", "combine", "limit", "check", "report", "note")
+            "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 TERMINAL_WORDS = {
@@ -283,6 +283,19 @@ class _Build(Transformer):
 
     def settlement(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Settlement:
         return s.Settlement(q, self._name(direction), at, self._stmt_span())
+
+    def moving(self, *items) -> s.Moving:
+        forces = tuple(i for i in items if isinstance(i, s.Quantity))
+        direction = next(i for i in items if isinstance(i, Token))
+        spacings = next((i[1] for i in items if isinstance(i, tuple) and i[0] == "spacing"), ())
+        travel = next((i[1] for i in items if isinstance(i, tuple) and i[0] == "travel"), (None, None))
+        return s.Moving(forces, self._name(direction), spacings, travel[0], travel[1], self._stmt_span())
+
+    def spacing(self, *qs: s.Quantity) -> tuple[str, tuple[s.Quantity, ...]]:
+        return "spacing", qs
+
+    def travel(self, start: s.Position, end: s.Position) -> tuple[str, tuple[s.Position, s.Position]]:
+        return "travel", (start, end)
 
     def selfweight(self) -> s.SelfWeight:
         return s.SelfWeight(self._stmt_span())

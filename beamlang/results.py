@@ -56,6 +56,11 @@ class TargetResult:
     cross_check: float
     deflection_candidates: tuple[Candidate, ...]  # the extremum search, kept for the calc package
     moment_candidates: tuple[Candidate, ...]
+    envelope: "Envelope | None" = None  # targets with a moving load: every extreme over the group's positions
+    positions: tuple[tuple[str, "Critical"], ...] = ()  # result field -> the group position that gives it
+
+    def position(self, field: str) -> "Critical | None":
+        return dict(self.positions).get(field)
 
 
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
@@ -64,6 +69,8 @@ def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
 
 
 def _target(sol: Solution, t: Target) -> TargetResult:
+    if sol.member.moving(t.name):
+        return _moving_target(sol, t)
     m, c = sol.member, t.curves
     L = m.length
     defl = candidates(c.v, c.theta, Fraction(0), L)
@@ -79,6 +86,56 @@ def _target(sol: Solution, t: Target) -> TargetResult:
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
         regions(sol, defl), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t), tuple(defl), tuple(moment))
+
+
+def _moving_target(sol: Solution, t: Target) -> TargetResult:
+    """The envelope over every position of the target's moving group, in the same shape as a static result."""
+    from .moving import envelope
+    m = sol.member
+    env = envelope(sol, t, factored_loads(sol, t))
+    picked: list[tuple[str, object]] = []
+
+    def cands(q: str) -> list[Candidate]:
+        return [Candidate(c.x, c.value, c.how, None, "", i) for i, c in enumerate(env.of(q))]
+
+    def locate(field: str, q: str, found: Located | None) -> Located | None:
+        if found is not None:
+            crit = next(c for c in env.of(q) if c.x == found.x and c.value == found.value)
+            picked.append((field, crit))
+            found = Located(found.x, found.value, None, "", (found.x,))
+        return found
+
+    defl, moment, shear, slope = cands("v"), cands("M"), cands("V"), cands("theta")
+    max_down = locate("max_down", "v", largest(defl, -1))
+    max_up = locate("max_up", "v", largest(defl, 1))
+    m_pos = locate("moment_positive", "M", largest(moment, 1))
+    m_neg = locate("moment_negative", "M", largest(moment, -1))
+    v_max = locate("shear_max", "V", largest_abs(shear))
+    slope_max = locate("slope_max", "theta", largest_abs(slope))
+    reactions = tuple((sp.x, _bigger(*env.reactions[j]).value, _bigger(*env.reaction_moments[j]).value)
+                      for j, sp in enumerate(m.supports))
+    points = tuple((r.x, _bigger(*env.points[k]).value, Fraction(0)) for k, r in enumerate(m.report_points))
+    governing = env.of("v")[0] if max_down is None else dict(picked)["max_down"]
+    return TargetResult(
+        t.name, t.kind, reactions, max_down, max_up, slope_max,
+        tuple((sp.x, env.support_slopes[j].value) for j, sp in enumerate(m.supports)),
+        m_pos, m_neg, v_max, points, regions(sol, defl), _stress(sol, m_pos, m_neg, v_max),
+        _moving_cross_check(sol, t, env, governing), tuple(defl), tuple(moment), env, tuple(picked))
+
+
+def _bigger(a, b):
+    return a if abs(a.value) >= abs(b.value) else b
+
+
+def _moving_cross_check(sol: Solution, t: Target, env, crit) -> float:
+    """The finite-element cross-check with the group standing where it gives the governing deflection."""
+    from .fem import relative_difference
+    from .moving import standing_loads
+    from .solve import curves_with
+    loads = factored_loads(sol, t) + [(Fraction(1), ld) for ld in standing_loads(env, crit)]
+    from .moving import _scaled
+    curves = curves_with(sol, tuple(_scaled(ld, k) for k, ld in loads))
+    return relative_difference(sol.member, curves.v.xs, loads, curves.v, curves.theta)
 
 
 def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:

@@ -6,7 +6,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from .errors import BeamError, Diagnostic
-from .model import Load, Member, MomentLoad, PointLoad, Settlement
+from .model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 from .statics import breakpoints, resultant, shear_and_moment
 
@@ -94,7 +94,8 @@ def solve(member: Member) -> Solution:
     primary = _primary(member, xs, EI)
     targets = []
     for case in member.cases:
-        solved = _solve_loads(member, xs, EI, primary, case.loads)
+        static = tuple(ld for ld in case.loads if not isinstance(ld, MovingLoad))  # moving: see moving.py
+        solved = _solve_loads(member, xs, EI, primary, static)
         targets.append(Target(case.name, "case", solved, (), solved.curves))
     by_name = {t.name: t for t in targets}
     for combo in member.combinations:
@@ -106,6 +107,16 @@ def solve(member: Member) -> Solution:
 def load_solution(solution: Solution, load: Load) -> LoadSolution:
     """One load alone on the member: its own elastic curve, for showing the superposition."""
     return _solve_loads(solution.member, solution.xs, solution.EI, solution.primary, (load,))
+
+
+def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
+    """Point loads and moments anywhere (breakpoints added where needed) on the member: exact curves."""
+    member = solution.member
+    xs = tuple(sorted(set(solution.xs) | {ld.x for ld in loads if not hasattr(ld, "x1")}))
+    if xs == solution.xs:
+        return _solve_loads(member, xs, solution.EI, solution.primary, loads).curves
+    primary = _primary(member, xs, solution.EI)
+    return _solve_loads(member, xs, solution.EI, primary, loads).curves
 
 
 def _sum(curves: list[Curves], member: Member, xs) -> Curves:

@@ -4,19 +4,25 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .model import LineLoad, Load, Member, MomentLoad, PointLoad, Settlement
+from .model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 
 
 def breakpoints(member: Member) -> tuple[Fraction, ...]:
     """Every x where a curve may change its formula: ends, supports, load positions and ends.
 
-    Report points are not breakpoints: a curve is simply evaluated there."""
+    Report points are not breakpoints (a curve is simply evaluated there) unless a load moves: then the
+    envelope search follows each force past them."""
     xs = {Fraction(0), member.length}
     xs.update(sp.x for sp in member.supports)
     for case in member.cases:
         for load in case.loads:
-            xs.update((load.x1, load.x2) if isinstance(load, LineLoad) else (load.x,))
+            if isinstance(load, MovingLoad):
+                xs.update((load.lo, load.hi))  # where the travel starts and ends
+            else:
+                xs.update((load.x1, load.x2) if isinstance(load, LineLoad) else (load.x,))
+    if any(isinstance(load, MovingLoad) for case in member.cases for load in case.loads):
+        xs.update(r.x for r in member.report_points)
     return tuple(sorted(xs))
 
 

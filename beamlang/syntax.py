@@ -161,6 +161,18 @@ class Settlement:
 
 
 @dataclass(frozen=True, slots=True)
+class Moving:
+    """A group of forces at fixed spacings that travels along the member (a trolley, an axle group)."""
+
+    forces: tuple[Quantity, ...]
+    direction: Name
+    spacings: tuple[Quantity, ...]
+    start: Position | None  # travel range, default the whole member
+    end: Position | None
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Term:
     factor: str | None
     case: Name
@@ -202,9 +214,9 @@ class Note:
 
 Statement = (
     Member | Field | Units | SpanLength | Material | Section | Support | Case | Point | Uniform
-    | Linear | Moment | SelfWeight | Settlement | Combine | Limit | StressCheck | Report | Note
+    | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Limit | StressCheck | Report | Note
 )
-LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement)
+LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement, Moving)
 
 
 @dataclass(frozen=True, slots=True)

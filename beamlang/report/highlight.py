@@ -10,9 +10,9 @@ import html
 import re
 
 STATEMENTS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span", "material",
-              "section", "support", "case", "point", "uniform", "linear", "moment", "self-weight", "settlement",
+              "section", "support", "case", "point", "uniform", "linear", "moment", "self-weight", "settlement", "moving",
               "combine", "limit", "check", "report", "note")
-WORDS = ("down", "up", "clockwise", "counterclockwise", "at", "from", "to", "fixed", "pin", "roller", "spring",
+WORDS = ("down", "up", "and", "spaced", "clockwise", "counterclockwise", "at", "from", "to", "fixed", "pin", "roller", "spring",
          "deflection", "stress", "properties", "rectangle", "round", "tube", "box", "I-shape", "x", "si", "us")
 
 
