@@ -28,6 +28,7 @@ from .model import LineLoad, Load, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Poly
 from .roots import roots_in
 from .solve import Curves, Solution, Target, curves_with
+from .statics import region_bounds
 
 QUANTITIES = ("v", "theta", "M", "V")
 Bi = dict  # {(i, j): c}: sum of c x^i p^j
@@ -74,14 +75,14 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     at_fixed: dict[tuple[str, Fraction], list[Critical]] = {}
     cells = 0
     inner: list = []  # every cell's interior, searched once the edges have set the values to beat
-    best = _Best(_region_bounds(member))
-    static = [_scaled(ld, k) for k, ld in static_loads]
+    best = _Best(list(region_bounds(member)))
+    static = tuple(scaled(ld, k) for k, ld in static_loads)
     for rev in ((False, True) if _asymmetric(load) else (False,)):
-        offsets = tuple(-d for d in load.offsets) if rev else load.offsets
+        offsets = _offsets(load, rev)
         events = _events(sol.xs, offsets, load)
         for p in events:  # the group standing at every event: a static case, searched exactly
             wheels = _wheels(load, offsets, p)
-            curves = curves_with(sol, tuple(static) + tuple(PointLoad(x, factor * F, load.span) for x, F in wheels))
+            curves = curves_with(sol, static + tuple(PointLoad(x, factor * F, load.span) for x, F in wheels))
             _standing(found, curves, member.length, p, rev, best)
             standing = [((q, x0), Critical(_curve(curves, q).at(x0), x0, p, rev, "group standing", True))
                         for x0 in fixed_x for q in ("v", "theta", "M")]
@@ -92,21 +93,21 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
                 best.note(key, c)
         for pa, pb in zip(events, events[1:]):
             on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
-            for cell in _cells(sol.xs, offsets, on, pa, pb):
+            for cell in _cells(sol.xs, offsets, on):
                 cells += 1
                 for q in QUANTITIES:
-                    f = _cell_poly(sol, kernels, target, q, cell, on, offsets, load, factor)
+                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
             for x0 in fixed_x:  # influence lines of the fixed points: one polynomial in p per interval
                 cell = _cell_at(sol.xs, offsets, on, x0)
                 for q in ("v", "theta", "M"):
-                    f = _cell_poly(sol, kernels, target, q, cell, on, offsets, load, factor)
+                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
                                                   best, ((q, x0), q))
             for j, sp in enumerate(member.supports):
                 for kind in ("R", "Rm"):
-                    g = _reaction_line(kernels, kind, j, target, on, offsets, load, factor)
+                    g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
                     at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
                                                     ((kind, j),))
     reactions = tuple(_pair(at_fixed[("R", j)]) for j in range(len(member.supports)))
@@ -123,13 +124,13 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
 
 def standing_loads(env: Envelope, crit: Critical) -> list[PointLoad]:
     """The group's forces (factored) as point loads with the group standing where `crit` was found."""
-    offsets = tuple(-d for d in env.load.offsets) if crit.reversed else env.load.offsets
+    offsets = _offsets(env.load, crit.reversed)
     return [PointLoad(x, env.factor * F, env.load.span) for x, F in _wheels(env.load, offsets, crit.position)]
 
 
-def largest(items, sign: int) -> Critical | None:
-    best = max(items, key=lambda c: sign * c.value, default=None)
-    return best if best is not None and sign * best.value > 0 else None
+def standing_case(env: Envelope, crit: Critical, static_loads: list[tuple[Fraction, Load]]) -> tuple[Load, ...]:
+    """Every load, factored, of the target with the group standing where `crit` was found: a static case."""
+    return tuple(scaled(ld, k) for k, ld in static_loads) + tuple(standing_loads(env, crit))
 
 
 def _largest_abs(items) -> Critical | None:
@@ -141,6 +142,11 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
 
 
 # -- configuration ---------------------------------------------------------------------------------------------
+def _offsets(load: MovingLoad, reversed_: bool) -> tuple[Fraction, ...]:
+    """Offsets of the forces from the first one along x; travelling the other way, they point back."""
+    return tuple(-d for d in load.offsets) if reversed_ else load.offsets
+
+
 def _asymmetric(load: MovingLoad) -> bool:
     d, F = load.offsets, load.forces
     return any(F[i] != F[-1 - i] or d[i] - d[0] != d[-1] - d[-1 - i] for i in range(len(F)))
@@ -179,7 +185,7 @@ class _Cell:
     on: tuple[int | None, ...]
 
 
-def _cells(xs, offsets, on, pa, pb) -> list[_Cell]:
+def _cells(xs, offsets, on) -> list[_Cell]:
     out = []
     for s in range(len(xs) - 1):
         inside = sorted((i for i, t in enumerate(on) if t == s), key=lambda i: offsets[i])
@@ -246,10 +252,10 @@ class _Kernels:
             self._cache[key] = _interpolate_xi(pieces)
         return self._cache[key]
 
-    def group(self, q: str, cell: _Cell, on, offsets) -> Bi:
+    def group(self, q: str, cell: _Cell, offsets) -> Bi:
         key = ("g", q, cell, offsets)
         if key not in self._cache:
-            self._cache[key] = _group_part(self, q, cell, on, offsets)
+            self._cache[key] = _group_part(self, q, cell, offsets)
         return self._cache[key]
 
     def reaction(self, kind: str, j: int, t: int) -> Poly:
@@ -285,17 +291,16 @@ def _lagrange_checked(points: list[tuple[Fraction, Fraction]]) -> Poly:
 
 
 # -- the response on a cell --------------------------------------------------------------------------------------
-def _cell_poly(sol, kernels: _Kernels, target: Target, q: str, cell: _Cell, on, offsets, load: MovingLoad,
-               factor: Fraction) -> Bi:
+def _cell_poly(kernels: _Kernels, target: Target, q: str, cell: _Cell, offsets, factor: Fraction) -> Bi:
     static = _curve(target.curves, q).pieces[cell.s]
     f: Bi = {(i, 0): c for i, c in enumerate(static.coeffs) if c}
-    _add_into(f, kernels.group(q, cell, on, offsets), factor)
+    _add_into(f, kernels.group(q, cell, offsets), factor)
     return f
 
 
-def _group_part(kernels: "_Kernels", q: str, cell: _Cell, on, offsets) -> Bi:
+def _group_part(kernels: "_Kernels", q: str, cell: _Cell, offsets) -> Bi:
     """sum_i F_i K_q(x, p + d_i) on a cell, unfactored."""
-    load = kernels.load
+    load, on = kernels.load, cell.on
     f: Bi = {}
     for i, t in enumerate(on):
         if t is None:
@@ -312,7 +317,8 @@ def _group_part(kernels: "_Kernels", q: str, cell: _Cell, on, offsets) -> Bi:
     return f
 
 
-def _reaction_line(kernels: _Kernels, kind: str, j: int, target: Target, on, offsets, load, factor) -> Poly:
+def _reaction_line(kernels: _Kernels, kind: str, j: int, target: Target, on, offsets, factor) -> Poly:
+    load = kernels.load
     static = target.curves.reactions[j][0 if kind == "R" else 1]
     g = Poly.of(static)
     for i, t in enumerate(on):
@@ -472,10 +478,6 @@ def _line_bound(g: Poly, pa: Fraction, pb: Fraction) -> tuple[float, float]:
     size = sum(abs(float(k)) * abs(float(mid)) ** i for i, k in enumerate(g.coeffs))
     slack = 1e-9 * (size + spread) + 1e-300
     return c[0] + spread + slack, c[0] - spread - slack
-
-
-def _region_bounds(member) -> list[Fraction]:
-    return sorted({Fraction(0), member.length} | {sp.x for sp in member.supports})
 
 
 def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -> int:
@@ -659,7 +661,8 @@ def _lagrange(points: list[tuple[Fraction, Fraction]]) -> Poly:
     return total
 
 
-def _scaled(load: Load, k: Fraction) -> Load:
+def scaled(load: Load, k: Fraction) -> Load:
+    """A static load times a factor."""
     if isinstance(load, PointLoad):
         return PointLoad(load.x, k * load.force, load.span)
     if isinstance(load, MomentLoad):

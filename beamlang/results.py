@@ -4,9 +4,14 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from typing import TYPE_CHECKING
 
 from .extrema import Candidate, Located, candidates, derivative_of, largest, largest_abs
 from .solve import Solution, Target
+from .statics import region_bounds
+
+if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
+    from .moving import Critical, Envelope
 
 SIGN_CONVENTION = ("x from the left end; deflection, loads and reaction forces positive up; bending moment "
                    "positive sagging; slope dv/dx in radians, positive counterclockwise; reaction moments "
@@ -130,19 +135,18 @@ def _bigger(a, b):
 def _moving_cross_check(sol: Solution, t: Target, env, crit) -> float:
     """The finite-element cross-check with the group standing where it gives the governing deflection."""
     from .fem import relative_difference
-    from .moving import standing_loads
+    from .moving import standing_case
     from .solve import curves_with
-    loads = factored_loads(sol, t) + [(Fraction(1), ld) for ld in standing_loads(env, crit)]
-    from .moving import _scaled
-    curves = curves_with(sol, tuple(_scaled(ld, k) for k, ld in loads))
-    return relative_difference(sol.member, curves.v.xs, loads, curves.v, curves.theta)
+    loads = standing_case(env, crit, factored_loads(sol, t))
+    curves = curves_with(sol, loads)
+    return relative_difference(sol.member, curves.v.xs, [(Fraction(1), ld) for ld in loads], curves.v, curves.theta)
 
 
 def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
     """Spans between supports and overhangs, each with its largest deflection (from `defl`)."""
     m = sol.member
     xs = sorted({sp.x for sp in m.supports})
-    bounds = [Fraction(0)] + [x for x in xs if 0 < x < m.length] + [m.length]
+    bounds = region_bounds(m)
     out = []
     for lo, hi in zip(bounds, bounds[1:]):
         inside = any(x <= lo for x in xs) and any(x >= hi for x in xs)

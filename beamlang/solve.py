@@ -112,7 +112,7 @@ def load_solution(solution: Solution, load: Load) -> LoadSolution:
 def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
     """Point loads and moments anywhere (breakpoints added where needed) on the member: exact curves."""
     member = solution.member
-    xs = tuple(sorted(set(solution.xs) | {ld.x for ld in loads if not hasattr(ld, "x1")}))
+    xs = tuple(sorted(set(solution.xs) | {ld.x for ld in loads if isinstance(ld, (PointLoad, MomentLoad))}))
     if xs == solution.xs:
         return _solve_loads(member, xs, solution.EI, solution.primary, loads).curves
     primary = _primary(member, xs, solution.EI)

@@ -26,6 +26,11 @@ def breakpoints(member: Member) -> tuple[Fraction, ...]:
     return tuple(sorted(xs))
 
 
+def region_bounds(member: Member) -> tuple[Fraction, ...]:
+    """The ends and the supports: the bounds of every span and overhang."""
+    return tuple(sorted({Fraction(0), member.length} | {sp.x for sp in member.supports}))
+
+
 def intensity(load: LineLoad) -> Poly:
     """w(t) of a line load on [x1, x2], N/m, positive up."""
     return Poly.line_through(load.x1, load.w1, load.x2, load.w2)

@@ -8,7 +8,7 @@ import pytest
 
 from beamlang.extrema import candidates
 from beamlang.model import PointLoad
-from beamlang.moving import Critical, _scaled, standing_loads
+from beamlang.moving import Critical, scaled, standing_case, standing_loads
 from beamlang.results import factored_loads
 from beamlang.solve import curves_with
 from engine_helpers import EI, analyse_text, member_text
@@ -62,7 +62,7 @@ def _search(a, name: str, steps: int = 120):
     sol, r = a.solution, a.result(name)
     t = sol.target(name)
     env = r.envelope
-    static = [_scaled(ld, k) for k, ld in factored_loads(sol, t)]
+    static = [scaled(ld, k) for k, ld in factored_loads(sol, t)]
     L = sol.member.length
     lo, hi = env.load.lo - env.load.length, env.load.hi + env.load.length
     worst = {"v+": None, "v-": None, "M+": None, "M-": None}
@@ -105,10 +105,9 @@ def test_envelope_dominates_a_dense_search_and_is_attained(two_span, name):
         # coarse: a force leaving the member makes the response jump, and a grid lands beside such a jump
         assert abs(float(worst[key]) - float(located.value)) <= 0.15 * abs(float(located.value))
     sol, t = a.solution, a.solution.target(name)
-    static = tuple(_scaled(ld, k) for k, ld in factored_loads(sol, t))
     for field, q in (("max_down", "v"), ("moment_positive", "M"), ("moment_negative", "M")):
         crit = r.position(field)
-        curves = curves_with(sol, static + tuple(standing_loads(r.envelope, crit)))
+        curves = curves_with(sol, standing_case(r.envelope, crit, factored_loads(sol, t)))
         curve = curves.v if q == "v" else curves.M
         value = curve.at(crit.x, "left") if crit.how == "under a force" else curve.at(crit.x)
         assert abs(float(value) - float(getattr(r, field).value)) <= 1e-12 * abs(float(value))
