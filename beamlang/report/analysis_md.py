@@ -326,8 +326,11 @@ def envelope(a: Analysis, figure: str) -> list[str]:
                     f"{show(r.moment_negative.value if r.moment_negative else None, u, 'moment')} | "
                     f"{show(r.max_down.value if r.max_down else None, u, 'deflection')} | "
                     f"{show(r.max_up.value if r.max_up else None, u, 'deflection')} |")
+    moving = [n for n in names if a.loaded.member.moving(n)]
+    note = ([f"For {', '.join(md(n) for n in moving)} the table gives the extremes over every position of the "
+             "moving group; the figure draws the static part only.", ""] if moving else [])
     return ["## Envelope", "", "| case or combination | largest M+ | largest M- | largest down | largest up |",
-            "|---|---|---|---|---|", *rows, "", f"![Envelope of moment and deflection]({figure})", ""]
+            "|---|---|---|---|---|", *rows, "", *note, f"![Envelope of moment and deflection]({figure})", ""]
 
 
 def checks_detail(a: Analysis) -> list[str]:

@@ -43,6 +43,8 @@ def target_figure(a: Analysis, name: str) -> str:
               (t.curves.M, "moment", "M", [l for l in (r.moment_positive, r.moment_negative) if l]),
               (t.curves.theta, "slope", "θ", r.slope_max and [r.slope_max]),
               (t.curves.v, "deflection", "v", [l for l in (r.max_down, r.max_up) if l])]
+    if r.envelope is not None:  # its extremes come from other group positions than these static curves
+        curves = [(curve, quantity, label, None) for curve, quantity, label, _ in curves]
     for ax, (curve, quantity, label, marks) in zip(axes[1:], curves):
         xs, ys = _sample(curve, u[quantity])
         ax.plot([convert(x, u["length"]) for x in xs], ys, color="#1f4e79", linewidth=1.2)
@@ -88,6 +90,8 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     ax.set_ylim(-1.7, max(1.6, 1.0 + 0.9 * stack))
     ax.set_yticks([])
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
+    if a.solution.member.moving(name):
+        title += "; the moving group is not drawn (see its table)"
     ax.set_title(title, fontsize=8, loc="left")
 
 
@@ -204,7 +208,8 @@ def envelope_figure(a: Analysis) -> str:
         for i, name in enumerate(names):
             xs, ys = _sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
-            ax.plot(x, ys, linewidth=0.9, label=name, color=_PALETTE[i % len(_PALETTE)])
+            tag = f"{name} (static part)" if a.solution.member.moving(name) else name
+            ax.plot(x, ys, linewidth=0.9, label=tag, color=_PALETTE[i % len(_PALETTE)])
             series.append(ys)
         ax.fill_between(x, [max(col) for col in zip(*series)], [min(col) for col in zip(*series)],
                         color="#888888", alpha=0.15, label="envelope")
