@@ -10,13 +10,13 @@ from . import syntax as s
 from .errors import Collector
 from .sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
 from .source import Span
+from .stability import Mechanism, components, keep
 from .units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 
 MIN_SPAN = Fraction(1, 1000)  # m
 FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
 MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "density": "density"}
-SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
-          s.Section: "section"}
+SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span"}
 
 
 def build(doc: s.Document) -> m.Member:
@@ -34,6 +34,7 @@ class _Builder:
         self.errors = Collector(doc.source)
         self.length: Fraction | None = None
         self.support_positions: set[Fraction] = set()
+        self.supports_built: tuple[m.Support, ...] = ()
         self.moving_cases: set[str] = set()
 
     # -- helpers ---------------------------------------------------------------------------
@@ -101,8 +102,11 @@ class _Builder:
             return None
         single = self._singletons(stmts)
         member_span = single["member"].span if "member" in single else stmts[0][1].span
-        for key in ("member", "span", "material", "section"):
-            if key not in single:
+        materials = [st for _, st in stmts if isinstance(st, s.Material)]
+        sections = [st for _, st in stmts if isinstance(st, s.Section)]
+        for key, found in (("member", "member" in single), ("span", "span" in single), ("material", materials),
+                           ("section", sections)):
+            if not found:
                 self.errors.error(member_span, f"this member has no `{key}` line", _EXAMPLES[key])
         if "span" in single:
             self.length = self.positive(single["span"].length, "length", "the span")
@@ -110,27 +114,30 @@ class _Builder:
                 self.errors.error(single["span"].length.span, "a span under 1 mm is surely a typo",
                                   "write the span with its unit, e.g. `span 5.4 m`")
                 self.length = None
-        material = self._material(single.get("material"))
-        section = self._section(single.get("section"))
+        stretches = self._stretches(materials, sections)
         supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
         self.support_positions = {sp.x for sp in supports}
-        cases = self._cases(stmts, material, section, member_span)
+        self.supports_built = supports
+        hinges = self._hinges([st for _, st in stmts if isinstance(st, s.Hinge)], supports)
+        self._stable_with_hinges(supports, hinges)
+        cases = self._cases(stmts, stretches, member_span)
+        self._no_couple_at_hinges(cases, hinges)
         self.moving_cases = {c.name for c in cases if any(isinstance(ld, m.MovingLoad) for ld in c.loads)}
         names = self._names(cases)
         combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
         targets = names | {c.name for c in combos}
         limits = self._limits([st for _, st in stmts if isinstance(st, s.Limit)], targets)
-        checks = self._stress_checks([st for _, st in stmts if isinstance(st, s.StressCheck)], targets,
-                                     material, section)
+        slopes = self._slope_limits([st for _, st in stmts if isinstance(st, s.SlopeLimit)], targets)
+        checks = self._stress_checks([st for _, st in stmts if isinstance(st, s.StressCheck)], targets, stretches)
         reports = self._report_points([st for _, st in stmts if isinstance(st, s.Report)])
-        if self.errors.items or material is None or section is None or self.length is None:
+        if self.errors.items or not stretches or self.length is None:
             return None
         member = single["member"]
         fields = tuple((f, st.text) for f in FIELD_ORDER for _, st in stmts if isinstance(st, s.Field) and st.name == f)
         units = single["units"].system.text if "units" in single else (
             "us" if is_us(single["span"].length.unit) else "si")
-        return m.Member(member.mark.text, member.title, fields, units, self.length, material, section,
-                        supports, cases, combos, limits, checks, reports,
+        return m.Member(member.mark.text, member.title, fields, units, self.length, stretches,
+                        supports, hinges, cases, combos, limits, slopes, checks, reports,
                         tuple(st.text for _, st in stmts if isinstance(st, s.Note)), self.doc, member.span)
 
     def _singletons(self, stmts) -> dict[str, s.Statement]:
@@ -156,9 +163,65 @@ class _Builder:
             self.errors.error(st.span, "only loads are indented; this statement starts at the left margin")
 
     # -- material and section --------------------------------------------------------------
-    def _material(self, st: s.Material | None) -> m.Material | None:
-        if st is None:
-            return None
+    def _stretches(self, materials: list[s.Material], sections: list[s.Section]) -> tuple[m.Stretch, ...]:
+        """Materials and sections, each for the whole member or per stretch, merged into stretches
+        of one material and one section."""
+        mats = self._cover(materials, "material", self._material)
+        secs = self._cover(sections, "section", self._section)
+        if not mats or not secs or self.errors.items:
+            return ()
+        bounds = sorted({x for x1, x2, _ in mats + secs for x in (x1, x2)})
+        out = []
+        for a, b in zip(bounds, bounds[1:]):
+            mid = (a + b) / 2
+            mat = next(v for x1, x2, v in mats if x1 <= mid <= x2)
+            sec = next(v for x1, x2, v in secs if x1 <= mid <= x2)
+            out.append(m.Stretch(a, b, mat, sec))
+        return tuple(out)
+
+    def _cover(self, stmts, key: str, convert) -> list[tuple[Fraction, Fraction, object]]:
+        """[(x1, x2, value)] covering the member once; a gap, an overlap or a mix is an error."""
+        if not stmts:
+            return []
+        if len(stmts) > 1 and any(st.stretch is None for st in stmts):
+            first, second = sorted(stmts, key=lambda st: st.span.line)[:2]
+            self.errors.error(second.span, f"a second `{key}` line; a member has only one unless each says "
+                              "where it applies", f"the first is on line {first.span.line}; give each {key} "
+                              "its stretch, e.g. `... from 0 m to 1.2 m`")
+            return []
+        placed = []
+        for st in stmts:
+            value = convert(st)
+            if st.stretch is None:
+                x1, x2 = Fraction(0), self.length
+            else:
+                x1 = self.position(st.stretch.start, f"start of the {key}")
+                x2 = self.position(st.stretch.end, f"end of the {key}")
+                if x1 is not None and x2 is not None and x1 >= x2:
+                    self.errors.error(st.stretch.span, f"the {key} must end to the right of where it starts",
+                                      "write `from` the left position `to` the right one")
+                    x1 = None
+            if value is None or x1 is None or x2 is None:
+                return []
+            placed.append((x1, x2, value, st))
+        placed.sort(key=lambda p: p[0])
+        at = Fraction(0)
+        for x1, x2, _, st in placed:
+            if x1 > at:
+                self.errors.error(st.stretch.span, f"no {key} covers {_num(at)} m to {_num(x1)} m",
+                                  f"every part of the member needs a {key}: the stretches must meet end to end")
+            elif x1 < at:
+                self.errors.error(st.stretch.span, f"this {key} overlaps another from {_num(x1)} m to "
+                                  f"{_num(min(at, x2))} m", "the stretches must meet end to end, without overlap")
+            at = max(at, x2)
+        if at < self.length:
+            last = placed[-1][3]
+            self.errors.error(last.stretch.span if last.stretch else last.span,
+                              f"no {key} covers {_num(at)} m to {_num(self.length)} m (the end of the member)",
+                              f"every part of the member needs a {key}: the last stretch must end at the span")
+        return [(x1, x2, v) for x1, x2, v, _ in placed]
+
+    def _material(self, st: s.Material) -> m.Material | None:
         values = self._properties(st.properties, MATERIAL_PROPERTIES, "material property", "material properties")
         if "E" not in values and not any(p.name.text == "E" for p in st.properties):
             self.errors.error(st.span, "the material has no elastic modulus E", "for example `E 200 GPa`")
@@ -182,9 +245,7 @@ class _Builder:
             values[name] = self.positive(p.value, kinds[name], _DESCRIBE.get(name, f"the {name}"))
         return values
 
-    def _section(self, st: s.Section | None) -> m.SectionProperties | None:
-        if st is None:
-            return None
+    def _section(self, st: s.Section) -> m.SectionProperties | None:
         shape = st.shape.text
         required, optional = SHAPE_DIMENSIONS[shape]
         kinds = {n: DIMENSION_KIND.get(n, "length") for n in required + optional}
@@ -248,7 +309,7 @@ class _Builder:
         return tuple(sorted(out, key=lambda sp: sp.x))
 
     # -- cases and loads -------------------------------------------------------------------
-    def _cases(self, stmts, material, section, member_span: Span) -> tuple[m.Case, ...]:
+    def _cases(self, stmts, stretches, member_span: Span) -> tuple[m.Case, ...]:
         cases: list[m.Case] = []
         current: tuple[s.Case, list[m.Load]] | None = None
         for line, st in stmts:
@@ -260,9 +321,8 @@ class _Builder:
                 if current is None:
                     self.errors.error(st.span, "this load belongs to no case", "put a `case` line above it")
                     continue
-                load = self._load(st, material, section)
-                if load is not None:
-                    current[1].append(load)
+                loads = self._self_weight(st, stretches) if isinstance(st, s.SelfWeight) else [self._load(st)]
+                current[1].extend(ld for ld in loads if ld is not None)
             elif current and not line.indented:
                 cases.append(self._close_case(*current))
                 current = None
@@ -281,7 +341,7 @@ class _Builder:
                               "group in a case of its own")
         return m.Case(st.name.text, st.title, tuple(loads), st.span)
 
-    def _load(self, st, material, section) -> m.Load | None:
+    def _load(self, st) -> m.Load | None:
         if isinstance(st, s.Point):
             P = self.si(st.force, "force", "a point load", _hint_for(st.force, "force per length",
                         "for a load per length, did you mean `uniform`?"))
@@ -308,7 +368,7 @@ class _Builder:
             w2 = self.si(st.end_intensity, "force per length", "a linear load")
             x1, x2 = self.position(st.start, "load start"), self.position(st.end, "load end")
             return self._line_load(st, x1, x2, w1, w2, "linear")
-        return self._self_weight(st, material, section)
+        raise AssertionError(f"unknown load statement {type(st).__name__}")
 
     def _moving(self, st: s.Moving) -> m.MovingLoad | None:
         forces = [self.positive(q, "force", "a moving force") for q in st.forces]
@@ -358,19 +418,28 @@ class _Builder:
         sign = _sign(st.direction.text)
         return m.LineLoad(x1, x2, sign * w1, sign * w2, origin, st.span)
 
-    def _self_weight(self, st: s.SelfWeight, material, section) -> m.LineLoad | None:
-        if material is None or section is None or self.length is None:
-            return None
-        if material.density is None:
+    def _self_weight(self, st: s.SelfWeight, stretches) -> list[m.LineLoad]:
+        """The weight of every stretch (one load where the weight per length does not change)."""
+        if not stretches or self.length is None:
+            return []
+        if any(sp.material.density is None for sp in stretches):
+            line = next(sp.material.span.line for sp in stretches if sp.material.density is None)
             self.errors.error(st.span, "self-weight needs the material's density",
-                              "add e.g. `density 7850 kg/m^3` to the material line")
-            return None
-        if section.A is None:
+                              f"add e.g. `density 7850 kg/m^3` to the material line (line {line})")
+            return []
+        if any(sp.section.A is None for sp in stretches):
+            line = next(sp.section.span.line for sp in stretches if sp.section.A is None)
             self.errors.error(st.span, "self-weight needs the section area",
-                              "give the area, e.g. `A 5400 mm^2`, or describe the section by its shape")
-            return None
-        w = material.density * STANDARD_GRAVITY * section.A
-        return m.LineLoad(Fraction(0), self.length, -w, -w, "self-weight", st.span)
+                              f"give the area, e.g. `A 5400 mm^2`, or describe the section by its shape (line {line})")
+            return []
+        out: list[m.LineLoad] = []
+        for sp in stretches:
+            w = sp.material.density * STANDARD_GRAVITY * sp.section.A
+            if out and out[-1].w1 == -w:
+                out[-1] = m.LineLoad(out[-1].x1, sp.x2, -w, -w, "self-weight", st.span)
+            else:
+                out.append(m.LineLoad(sp.x1, sp.x2, -w, -w, "self-weight", st.span))
+        return out
 
     def _names(self, cases: tuple[m.Case, ...]) -> set[str]:
         seen: dict[str, m.Case] = {}
@@ -450,22 +519,79 @@ class _Builder:
                 out.append(m.DeflectionLimit(st.target.text, divisor, value, st.span))
         return tuple(out)
 
-    def _stress_checks(self, stmts, targets, material, section) -> tuple[m.StressCheck, ...]:
+    def _stress_checks(self, stmts, targets, stretches) -> tuple[m.StressCheck, ...]:
         out = []
+        no_yield = next((sp.material for sp in stretches if sp.material.yield_strength is None), None)
+        no_depth = next((sp.section for sp in stretches if sp.section.c is None and sp.section.S is None), None)
         for st in stmts:
             ok = self._target(st.target, targets)
-            if material is not None and material.yield_strength is None:
+            if no_yield is not None:
                 self.errors.error(st.span, "a stress check needs the material's yield strength",
-                                  "add e.g. `yield 350 MPa` to the material line")
+                                  f"add e.g. `yield 350 MPa` to the material line (line {no_yield.span.line})")
                 ok = False
-            if section is not None and section.c is None and section.S is None:
+            if no_depth is not None:
                 self.errors.error(st.span, "a stress check needs the section depth, c or S",
-                                  "add e.g. `depth 250 mm` to the section line")
+                                  f"add e.g. `depth 250 mm` to the section line (line {no_depth.span.line})")
                 ok = False
             if ok:
                 out.append(m.StressCheck(st.target.text, st.span))
         return tuple(out)
 
+    def _slope_limits(self, stmts: list[s.SlopeLimit], targets: set[str]) -> tuple[m.SlopeLimit, ...]:
+        out = []
+        for st in stmts:
+            ok = st.target is None or self._target(st.target, targets)
+            value = self.positive(st.value, "angle", "a slope limit", "write the slope in rad, e.g. `0.001 rad`")
+            if ok and value is not None:
+                out.append(m.SlopeLimit(st.target.text if st.target else None, value, st.span))
+        if out and self.supports_built and all(sp.kind == "fixed" for sp in self.supports_built):
+            self.errors.error(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
+                              "a fixed support holds the slope at zero; the limit is for bearings")
+        return tuple(out)
+
+    # -- hinges ----------------------------------------------------------------------------
+    def _hinges(self, stmts: list[s.Hinge], supports: tuple[m.Support, ...]) -> tuple[m.Hinge, ...]:
+        out: list[m.Hinge] = []
+        for st in stmts:
+            x = self.position(st.at, "hinge position")
+            if x is None:
+                continue
+            if x == 0 or x == self.length:
+                self.errors.error(st.at.span, "a hinge at an end of the member releases nothing",
+                                  "an end already carries no moment unless it is fixed; for a pinned end write "
+                                  "`support pin at ...`")
+            elif any(sp.x == x and sp.kind == "fixed" for sp in supports):
+                self.errors.error(st.at.span, "a hinge at a fixed support",
+                                  "a fixed support holds the slope: use a pin there, or move the hinge off it")
+            elif any(h.x == x for h in out):
+                twin = next(h for h in out if h.x == x)
+                self.errors.error(st.at.span, "two hinges at one point", f"the other is on line {twin.span.line}")
+            else:
+                out.append(m.Hinge(x, st.span))
+        return tuple(sorted(out, key=lambda h: h.x))
+
+    def _stable_with_hinges(self, supports: tuple[m.Support, ...], hinges: tuple[m.Hinge, ...]) -> None:
+        """Supports and hinges together: a hinge can turn a stable layout into a mechanism."""
+        if not hinges or not supports or not _stable(list(supports)):
+            return  # without hinges the supports were checked already
+        try:
+            keep(supports, [h.x for h in hinges], components(supports))
+        except Mechanism as exc:
+            h = hinges[exc.hinges[0]] if exc.hinges else hinges[0]
+            others = ", ".join(f"line {hinges[j].span.line}" for j in exc.hinges[1:])
+            self.errors.error(h.span, "this hinge makes the member a mechanism: the parts either side of it can turn",
+                              "each part between hinges needs enough supports to stand on its own, or to hang "
+                              "from a part that does: add a support or remove the hinge"
+                              + (f" (the hinges on {others} take part too)" if others else ""))
+
+    def _no_couple_at_hinges(self, cases, hinges) -> None:
+        at = {h.x: h for h in hinges}
+        for case in cases:
+            for ld in case.loads:
+                if isinstance(ld, m.MomentLoad) and ld.x in at:
+                    self.errors.error(ld.span, "a concentrated moment at a hinge: the hinge cannot pass it on",
+                                      f"put it on the side of the hinge (line {at[ld.x].span.line}) it acts on, "
+                                      "e.g. a millimetre away")
 
     def _report_points(self, stmts: list[s.Report]) -> tuple[m.ReportPoint, ...]:
         points = ((self.position(st.at, "report point"), st) for st in stmts)
@@ -482,6 +608,10 @@ def _why_unstable(supports: list[m.Support]) -> str:
     if all(sp.kind == "spring" and not sp.stiffness for sp in supports):
         return "springs of zero stiffness restrain nothing; give them a stiffness or add a support"
     return "one pin, roller or spring lets the beam turn about it; add a second support or make one fixed"
+
+
+def _num(value: Fraction) -> str:
+    return f"{float(value):.6g}"
 
 
 def _count(n: int, word: str) -> str:

@@ -16,11 +16,11 @@ SQRT3 = Fraction("1.732050807568877293527446341505872366943")
 
 @dataclass(frozen=True, slots=True)
 class Check:
-    kind: str  # "deflection" | "bending stress" | "shear stress"
+    kind: str  # "deflection" | "support slope" | "bending stress" | "shear stress"
     target: str
     actual: Fraction
     allowed: Fraction
-    unit: str  # SI unit of actual and allowed: "m" or "Pa"
+    unit: str  # SI unit of actual and allowed: "m", "rad" or "Pa"
     passed: bool
     x: Fraction | None  # governing location
     basis: str  # how the allowed value was found
@@ -43,6 +43,8 @@ def run_checks(member: Member, results: tuple[TargetResult, ...]) -> tuple[Check
     out: list[Check] = []
     for limit in member.limits:
         out.append(_deflection(limit, by_name[limit.target]))
+    for limit in member.slope_limits:
+        out.extend(_slopes(member, limit, results))
     for check in member.stress_checks:
         out.extend(_stress(member, check, by_name[check.target]))
     return tuple(sorted(out, key=lambda c: (c.span.line, c.kind)))
@@ -73,16 +75,41 @@ def _deflection(limit, r: TargetResult) -> Check:
 
 
 def _stress(member: Member, check, r: TargetResult) -> list[Check]:
-    fy = member.material.yield_strength
     st = r.stress
-    m_at = max((l for l in (r.moment_positive, r.moment_negative) if l is not None),
-               key=lambda l: abs(l.value), default=None)
-    out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy,
-                 m_at.x if m_at else None, "sigma = M c / I against the yield strength", check.span)]
+    fy = st.yield_strength
+    x = st.bending_at.x if st.bending_at else None
+    out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy, x,
+                 "sigma = M c / I against the yield strength" + _where(member, st.bending_at), check.span)]
     if st.shear is not None:
-        out.append(Check("shear stress", check.target, st.shear, fy / SQRT3, "Pa", 3 * st.shear**2 <= fy**2,
-                         r.shear_max.x if r.shear_max else None,
-                         "tau = V Q / (I t) against fy/sqrt(3) (von Mises)", check.span))
+        fy_v = st.shear_yield if st.shear_yield is not None else fy
+        out.append(Check("shear stress", check.target, st.shear, fy_v / SQRT3, "Pa", 3 * st.shear**2 <= fy_v**2,
+                         st.shear_at.x if st.shear_at else None,
+                         "tau = V Q / (I t) against fy/sqrt(3) (von Mises)" + _where(member, st.shear_at), check.span))
+    return out
+
+
+def _where(member: Member, at) -> str:
+    """On a stepped member, the stretch whose section gives the stress."""
+    if not member.stepped or at is None:
+        return ""
+    side = "left" if at.side == "left" else "right"
+    s = member.stretch_at(at.x, side)
+    return f"; section of {_num(s.x1)} m to {_num(s.x2)} m (line {s.section.span.line})"
+
+
+def _slopes(member: Member, limit, results: tuple[TargetResult, ...]) -> list[Check]:
+    """The slope at every support that lets the member turn (a bearing), per target the limit applies to;
+    a fixed support holds the slope at zero and is left out."""
+    out = []
+    for r in results:
+        if limit.target is not None and r.name != limit.target:
+            continue
+        for sp, (x, theta) in zip(member.supports, r.slope_at_supports):
+            if sp.kind == "fixed":
+                continue
+            out.append(Check("support slope", r.name, abs(theta), limit.value, "rad", abs(theta) <= limit.value, x,
+                             f"slope at the {sp.kind} at x = {_num(x)} m (line {sp.span.line}), limit given by "
+                             "the user", limit.span))
     return out
 
 

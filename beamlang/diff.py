@@ -136,8 +136,17 @@ def _index(doc: s.Document) -> dict[tuple, s.Statement]:
             key = ("load", case, kind, n)
         elif isinstance(st, s.Field):
             key = ("field", st.name)
+        elif isinstance(st, (s.Material, s.Section)) and st.stretch is not None:
+            kind = type(st).__name__.lower()  # per stretch: matched by their order in the file
+            n = seen.get((None, kind), 0)
+            seen[(None, kind)] = n + 1
+            key = (kind, n)
         elif isinstance(st, (s.Member, s.Units, s.SpanLength, s.Material, s.Section)):
             key = (type(st).__name__.lower(),)
+        elif isinstance(st, s.Hinge):
+            key = ("hinge", str(st.at))
+        elif isinstance(st, s.SlopeLimit):
+            key = ("slope limit", st.target.text if st.target else "every case")
         elif isinstance(st, s.Support):
             key = ("support", str(st.at))  # a moved support shows as removed and added
         elif isinstance(st, s.Combine):
@@ -168,15 +177,23 @@ def _label(key: tuple) -> str:
         return f"{'combination' if kind == 'combine' else 'stress check' if kind == 'check' else kind} {key[1]}"
     if kind == "limit":
         return f"limit on {key[1]}"
-    if kind in ("support", "report"):
+    if kind in ("support", "report", "hinge"):
         return f"{kind} at {key[1]}"
+    if kind in ("material", "section") and len(key) > 1:
+        return f"{kind}, stretch {key[1] + 1}"
+    if kind == "slope limit":
+        return f"slope limit on {key[1]}"
     return kind
 
 
 def _compare(key: tuple, a: s.Statement, b: s.Statement) -> list[InputChange]:
     shape = lambda st: st.shape.text if isinstance(st, s.Section) else None  # noqa: E731
     if isinstance(a, (s.Material, s.Section)) and type(a) is type(b) and shape(a) == shape(b):
-        return _properties(key[0], a, b)
+        out = _properties(_label(key), a, b)
+        where = lambda st: f"from {st.stretch.start} to {st.stretch.end}" if st.stretch else "whole member"  # noqa: E731
+        if where(a) != where(b):
+            out.append(InputChange("changed", f"{_label(key)} extent", where(a), where(b), b.span.line))
+        return out
     ta, tb = statement_text(a), statement_text(b)
     if ta == tb:
         return []

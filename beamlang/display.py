@@ -17,6 +17,8 @@ REPORT_UNITS = {
 }
 
 
+CHECK_QUANTITY = {"m": "deflection", "rad": "slope", "Pa": "stress"}  # a check's SI unit -> its report quantity
+
 SMALL_US = {"length": "in", "moment": "kip*in"}  # members whose span is written in inches
 
 

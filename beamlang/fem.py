@@ -15,11 +15,12 @@ MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would r
 
 
 def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
-    """The element nodes: both ends and every support, then every other breakpoint that is not
-    closer than MIN_ELEMENT x L to a node already taken (loads between nodes become consistent
-    nodal loads, for which Hermite elements stay exact at the nodes)."""
+    """The element nodes: both ends, every support, hinge and change of section, then every other
+    breakpoint that is not closer than MIN_ELEMENT x L to a node already taken (loads between nodes
+    become consistent nodal loads, for which Hermite elements stay exact at the nodes)."""
     tol = member.length * MIN_ELEMENT
-    nodes = sorted({Fraction(0), member.length, *(sp.x for sp in member.supports)})
+    nodes = sorted({Fraction(0), member.length, *(sp.x for sp in member.supports), *(h.x for h in member.hinges),
+                    *(st.x1 for st in member.stretches)})
     for x in xs:
         if all(abs(x - n) >= tol for n in nodes):
             nodes.append(x)
@@ -28,45 +29,54 @@ def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
 
 
 def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
-    """Deflection and slope at the nodes `xs` under (factor, load) pairs; one element between nodes.
+    """Deflection and slope (right of each node) at the nodes `xs` under (factor, load) pairs; one
+    element between nodes, each with the EI of its stretch; at a hinge the elements either side have
+    rotations of their own (the released degree of freedom).
 
     Precision: the stiffness matrix is ill-conditioned when a very short element sits in a long
     member (condition number about (longest / shortest element)^3), so `fe_nodes` avoids such
     elements; the matrix is assembled in extended precision and solved with iterative refinement."""
     n = len(xs)
     x = np.array([_ld(v) for v in xs], dtype=np.longdouble)
-    EI = _ld(member.material.E * member.section.I)
-    K = np.zeros((2 * n, 2 * n), dtype=np.longdouble)
-    F = np.zeros(2 * n, dtype=np.longdouble)
+    hinge_at = {h.x for h in member.hinges}
+    v_dof, left, right, count = [], [], [], 0
+    for node in xs:  # degrees of freedom: v, then the rotation (two at a hinge: left and right of it)
+        v_dof.append(count)
+        left.append(count + 1)
+        right.append(count + 2 if node in hinge_at else count + 1)
+        count = right[-1] + 1
+    K = np.zeros((count, count), dtype=np.longdouble)
+    F = np.zeros(count, dtype=np.longdouble)
     for e in range(n - 1):
         l = x[e + 1] - x[e]
+        EI = _ld(member.stretch_at((xs[e] + xs[e + 1]) / 2).EI)
         k = EI / l**3 * np.array([[12, 6 * l, -12, 6 * l], [6 * l, 4 * l * l, -6 * l, 2 * l * l],
                                   [-12, -6 * l, 12, -6 * l], [6 * l, 2 * l * l, -6 * l, 4 * l * l]])
-        dofs = [2 * e, 2 * e + 1, 2 * e + 2, 2 * e + 3]
+        dofs = [v_dof[e], right[e], v_dof[e + 1], left[e + 1]]
         K[np.ix_(dofs, dofs)] += k
     index = {v: i for i, v in enumerate(xs)}
     for factor, load in loads:
-        _add_load(F, _ld(factor), load, xs, x, index)
+        _add_load(F, _ld(factor), load, x, (v_dof, left, right))
     fixed: list[int] = []
-    moved = np.zeros(2 * n, dtype=np.longdouble)  # prescribed support movements
+    moved = np.zeros(count, dtype=np.longdouble)  # prescribed support movements
     for factor, load in loads:
         if isinstance(load, Settlement):
-            moved[2 * index[load.x]] += _ld(factor) * _ld(load.movement)
+            moved[v_dof[index[load.x]]] += _ld(factor) * _ld(load.movement)
     for sp in member.supports:
         i = index[sp.x]
         if sp.kind == "spring":
-            K[2 * i, 2 * i] += _ld(sp.stiffness)
-            F[2 * i] += _ld(sp.stiffness) * moved[2 * i]  # the spring's base moves
+            K[v_dof[i], v_dof[i]] += _ld(sp.stiffness)
+            F[v_dof[i]] += _ld(sp.stiffness) * moved[v_dof[i]]  # the spring's base moves
         else:
-            fixed.append(2 * i)
+            fixed.append(v_dof[i])
             if sp.kind == "fixed":
-                fixed.append(2 * i + 1)
-    free = [d for d in range(2 * n) if d not in fixed]
-    u = np.zeros(2 * n)
+                fixed.append(left[i])  # no hinge at a fixed support: one rotation
+    free = [d for d in range(count) if d not in fixed]
+    u = np.zeros(count)
     u[fixed] = moved[fixed].astype(np.float64)
     rhs = F[free] - K[np.ix_(free, fixed)] @ moved[fixed]
     u[free] = _solve_refined(K[np.ix_(free, free)], rhs)
-    return u[0::2], u[1::2]
+    return u[v_dof], u[right]
 
 
 def _ld(value) -> np.longdouble:
@@ -105,16 +115,21 @@ def _element(x: np.ndarray, at) -> int:
     return min(max(int(np.searchsorted(x, _ld(at), side="right")) - 1, 0), len(x) - 2)
 
 
-def _add_load(F: np.ndarray, factor, load, xs, x: np.ndarray, index: dict) -> None:
+def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs) -> None:
     """Consistent (work-equivalent) nodal loads: sum of N_k times the load over the element."""
+    v_dof, left, right = dofs
+
+    def element(e: int) -> list[int]:
+        return [v_dof[e], right[e], v_dof[e + 1], left[e + 1]]
+
     if isinstance(load, (PointLoad, MomentLoad)):
         e = _element(x, load.x)
         l = x[e + 1] - x[e]
         n, d = _shape((_ld(load.x) - x[e]) / l, l)
         weights = n if isinstance(load, PointLoad) else d
         value = factor * _ld(load.force if isinstance(load, PointLoad) else load.moment)
-        for k in range(4):
-            F[2 * e + k] += value * weights[k]
+        for k, d in enumerate(element(e)):
+            F[d] += value * weights[k]
     elif isinstance(load, LineLoad):
         w = intensity(load)
         w0, w1 = _ld(w.coeffs[0]) if w.coeffs else 0, _ld(w.coeffs[1]) if len(w.coeffs) > 1 else 0
@@ -129,8 +144,8 @@ def _add_load(F: np.ndarray, factor, load, xs, x: np.ndarray, index: dict) -> No
                 at = a + (b - a) * g
                 n, _ = _shape((at - x[e]) / l, l)
                 q = factor * (w0 + w1 * at) * wt * (b - a)
-                for k in range(4):
-                    F[2 * e + k] += q * n[k]
+                for k, d in enumerate(element(e)):
+                    F[d] += q * n[k]
 
 
 FLOOR = 1e-12  # differences below this are float noise and are reported as this bound

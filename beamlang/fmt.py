@@ -56,13 +56,13 @@ def _group_key(st: s.Statement) -> str:
 
 
 _KEY = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
-        s.Section: "section", s.Support: "support", s.Case: "case", s.Combine: "combine",
-        s.Limit: "limit", s.StressCheck: "check", s.Report: "report", s.Note: "note"}
+        s.Section: "section", s.Support: "support", s.Hinge: "hinge", s.Case: "case", s.Combine: "combine",
+        s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note"}
 _GROUP_ORDER = ("title", "geometry", "support", "case", "rest", "note", "orphan")
 _MEMBERS = {
     "title": ("member",) + tuple("field:" + f for f in FIELD_ORDER),
     "geometry": ("units", "span", "material", "section"),
-    "support": ("support",), "case": ("case",), "rest": ("combine", "limit", "check", "report"),
+    "support": ("support", "hinge"), "case": ("case",), "rest": ("combine", "limit", "slope", "check", "report"),
     "note": ("note",), "orphan": ("orphan",),
 }
 
@@ -101,6 +101,15 @@ def _limit(st: s.Limit) -> str:
     return f"limit deflection {st.target.text} {allowed}"
 
 
+def _stretch(st: s.Material | s.Section) -> str:
+    return f" from {st.stretch.start} to {st.stretch.end}" if st.stretch is not None else ""
+
+
+def _slope(st: s.SlopeLimit) -> str:
+    target = f" {st.target.text}" if st.target is not None else ""
+    return f"limit slope{target} at supports {_q(st.value)}"
+
+
 def _combine(st: s.Combine) -> str:
     terms = " + ".join((f"{t.factor} " if t.factor is not None else "") + t.case.text for t in st.terms)
     return f"combine {st.name.text} = {terms}"
@@ -111,9 +120,12 @@ _TEXT = {
     s.Field: lambda st: f"{st.name} {_quote(st.text)}",
     s.Units: lambda st: f"units {st.system.text}",
     s.SpanLength: lambda st: f"span {_q(st.length)}",
-    s.Material: lambda st: "material " + (f"{st.name.text} " if st.name else "") + _props(st.properties, MATERIAL_ORDER),
-    s.Section: lambda st: f"section {st.shape.text} " + _props(st.properties, sum(SHAPE_DIMENSIONS[st.shape.text], ())),
+    s.Material: lambda st: ("material " + (f"{st.name.text} " if st.name else "") + _props(st.properties, MATERIAL_ORDER)
+                            + _stretch(st)),
+    s.Section: lambda st: (f"section {st.shape.text} " + _props(st.properties, sum(SHAPE_DIMENSIONS[st.shape.text], ()))
+                           + _stretch(st)),
     s.Support: _support,
+    s.Hinge: lambda st: f"hinge at {st.at}",
     s.Case: lambda st: f"case {st.name.text}" + (f" {_quote(st.title)}" if st.title is not None else ""),
     s.Point: lambda st: f"point {_q(st.force)} {st.direction.text} at {st.at}",
     s.Uniform: _uniform,
@@ -127,6 +139,7 @@ _TEXT = {
                           + (f" from {st.start} to {st.end}" if st.start is not None else "")),
     s.Combine: _combine,
     s.Limit: _limit,
+    s.SlopeLimit: _slope,
     s.StressCheck: lambda st: f"check stress {st.target.text}",
     s.Report: lambda st: f"report deflection at {st.at}",
     s.Note: lambda st: f"note {_quote(st.text)}",

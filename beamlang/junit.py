@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import xml.etree.ElementTree as ET
 
-from .display import report_units, show
+from .display import CHECK_QUANTITY, report_units, show
 from .errors import BeamError
 from .pipeline import Analysis
 
@@ -21,7 +21,7 @@ def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:
             case = ET.SubElement(suite, "testcase", classname=m.mark, name=c.label)
             if not c.passed:
                 failures += 1
-                q = "deflection" if c.unit == "m" else "stress"
+                q = CHECK_QUANTITY[c.unit]
                 ET.SubElement(case, "failure", message=(f"actual {show(c.actual, u, q)}, allowed {show(c.allowed, u, q)}, "
                                                         f"ratio {c.ratio:.3f}"), type="check failed")
         suite.set("tests", str(len(a.checks)))

@@ -34,6 +34,29 @@ class SectionProperties:
 
 
 @dataclass(frozen=True, slots=True)
+class Stretch:
+    """A part of the member, x1 <= x <= x2, with one material and one section (a prismatic member
+    is one stretch; a stepped one has a stretch wherever its material or section changes)."""
+
+    x1: Fraction
+    x2: Fraction
+    material: Material
+    section: SectionProperties
+
+    @property
+    def EI(self) -> Fraction:
+        return self.material.E * self.section.I
+
+
+@dataclass(frozen=True, slots=True)
+class Hinge:
+    """An internal moment release at x: the moment is zero there, the slope may jump."""
+
+    x: Fraction
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Support:
     kind: str  # fixed | pin | roller | spring
     x: Fraction  # m
@@ -123,6 +146,15 @@ class DeflectionLimit:
 
 
 @dataclass(frozen=True, slots=True)
+class SlopeLimit:
+    """The largest slope allowed at every support (bearing), rad; target None: every case and combination."""
+
+    target: str | None
+    value: Fraction
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class StressCheck:
     target: str
     span: Span
@@ -141,17 +173,45 @@ class Member:
     fields: tuple[tuple[str, str], ...]  # title block, canonical order
     units: str  # si | us
     length: Fraction  # m
-    material: Material
-    section: SectionProperties
+    stretches: tuple[Stretch, ...]  # cover 0..length in order, no gap or overlap
     supports: tuple[Support, ...]  # sorted by x
+    hinges: tuple[Hinge, ...]  # sorted by x
     cases: tuple[Case, ...]
     combinations: tuple[Combination, ...]
     limits: tuple[DeflectionLimit, ...]
+    slope_limits: tuple[SlopeLimit, ...]
     stress_checks: tuple[StressCheck, ...]
     report_points: tuple[ReportPoint, ...]
     notes: tuple[str, ...]
     document: s.Document  # the syntax it was built from: author's units, comments, spans
     span: Span
+
+    @property
+    def stepped(self) -> bool:
+        return len(self.stretches) > 1
+
+    @property
+    def material(self) -> Material:
+        """The member's material, when one material runs its whole length."""
+        return self._only("material")
+
+    @property
+    def section(self) -> SectionProperties:
+        """The member's section, when it is prismatic."""
+        return self._only("section")
+
+    def _only(self, attr: str):
+        found = {id(getattr(st, attr)): getattr(st, attr) for st in self.stretches}
+        if len(found) > 1:
+            raise ValueError(f"this member has a {attr} per stretch: use `stretches`")
+        return getattr(self.stretches[0], attr)
+
+    def stretch_at(self, x: Fraction, side: str = "right") -> Stretch:
+        """The stretch holding x; at a change of section, the one to its `side`."""
+        for st in self.stretches:
+            if (st.x1 <= x < st.x2) if side == "right" else (st.x1 < x <= st.x2):
+                return st
+        return self.stretches[-1] if x >= self.length else self.stretches[0]
 
     def moving(self, target: str) -> tuple[Fraction, MovingLoad] | None:
         """The moving load in a case or combination, with its factor (at most one: the builder checks)."""

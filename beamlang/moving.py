@@ -75,7 +75,8 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     at_fixed: dict[tuple[str, Fraction], list[Critical]] = {}
     cells = 0
     inner: list = []  # every cell's interior, searched once the edges have set the values to beat
-    best = _Best(list(region_bounds(member)))
+    stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
+    best = _Best(list(region_bounds(member)), stretches)
     static = tuple(scaled(ld, k) for k, ld in static_loads)
     for rev in ((False, True) if _asymmetric(load) else (False,)):
         offsets = _offsets(load, rev)
@@ -408,11 +409,11 @@ def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: 
             best.note(q, crit)
 
 
-def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, region=None) -> list[Critical]:
+def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
     """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
     response along a line of the plane; the interior only where its bound could beat what `best` holds."""
     out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
-    if g.degree >= 2 and best.wanted(keys, *_line_bound(g, pa, pb), region):
+    if g.degree >= 2 and best.wanted(keys, *_line_bound(g, pa, pb), x_mid):
         for r in roots_in(g.derivative(), pa, pb):
             out.append(Critical(g(r.x), x_of(r.x), r.x, rev, how, r.exact is not None))
     for c in out:
@@ -424,37 +425,40 @@ def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, region=N
 def _cell_edges(f: Bi, q: str, xs, offsets, cell: _Cell, pa, pb, rev, best: "_Best") -> list[Critical]:
     """The edges of one cell: under a force (x = p + d) and at a fixed x."""
     out: list[Critical] = []
-    region = bisect_right(best.bounds, (xs[cell.s] + xs[cell.s + 1]) / 2) - 1
+    mid = (xs[cell.s] + xs[cell.s + 1]) / 2
     for i in (cell.left, cell.right):
         if i is not None:
             out += _on_line(_on_diagonal(f, offsets[i]), lambda p, d=offsets[i]: p + d, pa, pb, rev,
-                            "under a force", best, (q,), region)
+                            "under a force", best, (q,), mid)
     for i, x0 in ((cell.left, xs[cell.s]), (cell.right, xs[cell.s + 1])):
         if i is None:
-            out += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line", best, (q,), region)
+            out += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line", best, (q,), mid)
     return out
 
 
 class _Best:
-    """The largest and smallest value found so far per key, and the largest |v| per span: what a line or a
-    cell must be able to beat (by its float bound) to be searched exactly."""
+    """The largest and smallest value found so far per key, and the largest magnitude per part of the member
+    where each part is checked on its own: |v| per span (span/N limits) and, on a stepped member, |M| and |V|
+    per stretch (the stress uses each stretch's section). What a line or a cell must be able to beat (by its
+    float bound) to be searched exactly."""
 
     ABS = ("theta", "V")  # only the largest magnitude of these is reported
 
-    def __init__(self, bounds: list[Fraction]):
-        self.bounds = bounds
+    def __init__(self, spans: list[Fraction], stretches: list[Fraction] | None = None):
+        self.parts = {"v": spans} | ({"M": stretches, "V": stretches} if stretches else {})
         self.values: dict = {}
-        self.region: dict[int, float] = {}
+        self.region: dict[tuple[str, int], float] = {}
 
     def note(self, key, c: Critical) -> None:
         value = float(c.value)
         b = self.values.setdefault(key, [value, value])
         b[0], b[1] = max(b[0], value), min(b[1], value)
-        if key == "v":
-            for k in _regions_of(self.bounds, c.x):
-                self.region[k] = max(self.region.get(k, 0.0), abs(value))
+        if key in self.parts:
+            for k in _regions_of(self.parts[key], c.x):
+                self.region[(key, k)] = max(self.region.get((key, k), 0.0), abs(value))
 
-    def wanted(self, keys, hi_b: float, lo_b: float, region: int | None = None) -> bool:
+    def wanted(self, keys, hi_b: float, lo_b: float, x_mid: Fraction | None = None) -> bool:
+        """Could a value between lo_b and hi_b (of a cell or line around x_mid) beat what was found?"""
         for key in keys:
             b = self.values.get(key)
             if b is None:
@@ -465,8 +469,10 @@ class _Best:
                     return True
             elif hi_b > b[0] or lo_b < b[1]:
                 return True
-            if key == "v" and region is not None and max(abs(hi_b), abs(lo_b)) > self.region.get(region, 0.0):
-                return True
+            if key in self.parts and x_mid is not None:
+                part = bisect_right(self.parts[key], x_mid) - 1
+                if max(abs(hi_b), abs(lo_b)) > self.region.get((key, part), 0.0):
+                    return True
         return False
 
 
@@ -485,8 +491,8 @@ def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -
     already found: the largest and smallest of v and M, the largest |theta| and |V|, |v| in each span."""
     searched = 0
     for q, f, offsets, cell, pa, pb, rev in inner:
-        region = bisect_right(best.bounds, (xs[cell.s] + xs[cell.s + 1]) / 2) - 1
-        if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), region) for n in (1, 4)):
+        mid = (xs[cell.s] + xs[cell.s + 1]) / 2
+        if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), mid) for n in (1, 4)):
             continue
         searched += 1
         for c in _cell_interior(f, xs, offsets, cell, pa, pb, rev):

@@ -14,7 +14,7 @@ from .errors import BeamError, Collector
 from .source import Source, Span
 
 KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
-            "material", "section", "support", "case", "point", "uniform", "linear", "moment",
+            "material", "section", "support", "hinge", "case", "point", "uniform", "linear", "moment",
             "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
@@ -129,7 +129,19 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
         shown = text[col - 1] if col <= len(text) else ""
         return source.span(number, col, col + 1), f"unexpected character '{shown}'", _expected(expected)
     shown = f"'{word}'" if word else "end of line"
-    return span, f"unexpected {shown}", _expected(expected)
+    misspelt = _misspelt_keyword(text[: col - 1], expected)
+    return span, f"unexpected {shown}", misspelt or _expected(expected)
+
+
+def _misspelt_keyword(before: str, expected: set[str]) -> str | None:
+    """`frm 3 m to span` reads `frm` as a property name and stops at `to`: name the likely keyword."""
+    for word in reversed(before.split()):
+        for terminal in ("FROM", "TO", "AT"):
+            keyword = terminal.lower()
+            if terminal in expected and word != keyword and difflib.get_close_matches(word, [keyword], n=1,
+                                                                                      cutoff=0.6):
+                return f"did you mean '{keyword}' instead of '{word}'?"
+    return None
 
 
 _DIRECTION_EXAMPLES = {"point": "point 12 kN down at 2 m", "uniform": "uniform 2.5 kN/m down",
@@ -255,10 +267,19 @@ class _Build(Transformer):
     def material(self, *items) -> s.Material:
         name = self._name(items[0]) if isinstance(items[0], Token) else None
         props = tuple(i for i in items if isinstance(i, s.Property))
-        return s.Material(name, props, self._stmt_span())
+        stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
+        return s.Material(name, props, self._stmt_span(), stretch)
 
-    def section(self, shape: Token, *props: s.Property) -> s.Section:
-        return s.Section(self._name(shape), props, self._stmt_span())
+    def section(self, shape: Token, *items) -> s.Section:
+        props = tuple(i for i in items if isinstance(i, s.Property))
+        stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
+        return s.Section(self._name(shape), props, self._stmt_span(), stretch)
+
+    def stretch(self, start: s.Position, end: s.Position) -> s.Stretch:
+        return s.Stretch(start, end, self._span(self._find("from", before=start.span.col), end.span))
+
+    def hinge(self, at: s.Position) -> s.Hinge:
+        return s.Hinge(at, self._stmt_span())
 
     def support(self, kind: Token, *rest) -> s.Support:
         stiffness = rest[0] if len(rest) == 2 else None
@@ -315,6 +336,10 @@ class _Build(Transformer):
 
     def limit(self, target: Token, allowance: tuple) -> s.Limit:
         return s.Limit(self._name(target), allowance[0], allowance[1], self._stmt_span())
+
+    def slope_limit(self, *items) -> s.SlopeLimit:
+        target = self._name(items[0]) if isinstance(items[0], Token) else None
+        return s.SlopeLimit(target, items[-1], self._stmt_span())
 
     def stress(self, target: Token) -> s.StressCheck:
         return s.StressCheck(self._name(target), self._stmt_span())

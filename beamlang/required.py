@@ -23,6 +23,9 @@ def required_section(member: Member, checks: tuple[Check, ...]) -> Required:
 
     That holds for a prismatic member on rigid supports without prescribed settlements; springs and
     settlements make deflection (and, with springs, moments) depend on I in other ways."""
+    if member.stepped:
+        return Required(None, None, None, None, "not computed for a stepped member: its stretches have sections "
+                                                "of their own (the check ratios show each check's margin)")
     if any(sp.kind == "spring" for sp in member.supports) or any(
             isinstance(ld, Settlement) for case in member.cases for ld in case.loads):
         return Required(None, None, None, None, "not computed: with springs or settlements deflection is not "

@@ -31,15 +31,21 @@ class Region:
 
 @dataclass(frozen=True, slots=True)
 class Stress:
-    bending: Fraction | None  # Pa, M c / I at the largest |M|
-    shear: Fraction | None  # Pa, V Q / (I t) at the largest |V|
-    yield_strength: Fraction | None
+    """The governing stresses: on a stepped member, those of the stretch with the largest ratio to its yield."""
+
+    bending: Fraction | None  # Pa, M c / I at the largest |M| (of the governing stretch)
+    shear: Fraction | None  # Pa, V Q / (I t) at the largest |V| (of the governing stretch)
+    yield_strength: Fraction | None  # of the stretch where bending governs
+    bending_at: Located | None = None  # the moment that gives `bending`
+    shear_at: Located | None = None
+    shear_yield: Fraction | None = None  # of the stretch where shear governs
 
     @property
     def elastic(self) -> bool | None:
         if self.yield_strength is None or self.bending is None:
             return None
-        shear_ok = self.shear is None or 3 * self.shear**2 <= self.yield_strength**2
+        fy_shear = self.shear_yield if self.shear_yield is not None else self.yield_strength
+        shear_ok = self.shear is None or 3 * self.shear**2 <= fy_shear**2
         return self.bending <= self.yield_strength and shear_ok
 
 
@@ -87,10 +93,16 @@ def _target(sol: Solution, t: Target) -> TargetResult:
         t.name, t.kind,
         tuple((sp.x, f, mo) for sp, (f, mo) in zip(m.supports, c.reactions)),
         largest(defl, -1), largest(defl, 1), largest_abs(slope),
-        tuple((sp.x, c.theta.at(sp.x)) for sp in m.supports),
+        tuple((sp.x, support_slope(c.theta, sp.x)) for sp in m.supports),
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
-        regions(sol, defl), _stress(sol, m_pos, m_neg, v_max), _cross_check(sol, t), tuple(defl), tuple(moment))
+        regions(sol, defl), _stress(sol, moment, shear), _cross_check(sol, t), tuple(defl), tuple(moment))
+
+
+def support_slope(theta, x: Fraction) -> Fraction:
+    """The slope at a support; where it jumps (a hinge over the support), the larger side."""
+    left, right = theta.at(x, "left"), theta.at(x, "right")
+    return left if abs(left) > abs(right) else right
 
 
 def _moving_target(sol: Solution, t: Target) -> TargetResult:
@@ -100,8 +112,8 @@ def _moving_target(sol: Solution, t: Target) -> TargetResult:
     env = envelope(sol, t, factored_loads(sol, t))
     picked: list[tuple[str, object]] = []
 
-    def cands(q: str) -> list[Candidate]:
-        return [Candidate(c.x, c.value, c.how, None, "", i) for i, c in enumerate(env.of(q))]
+    def cands(q: str) -> list[Candidate]:  # segment -1: placed by x alone (a stretch end belongs to both)
+        return [Candidate(c.x, c.value, c.how, None, "", -1) for c in env.of(q)]
 
     def locate(field: str, q: str, found: Located | None) -> Located | None:
         if found is not None:
@@ -124,7 +136,7 @@ def _moving_target(sol: Solution, t: Target) -> TargetResult:
     return TargetResult(
         t.name, t.kind, reactions, max_down, max_up, slope_max,
         tuple((sp.x, env.support_slopes[j].value) for j, sp in enumerate(m.supports)),
-        m_pos, m_neg, v_max, points, regions(sol, defl), _stress(sol, m_pos, m_neg, v_max),
+        m_pos, m_neg, v_max, points, regions(sol, defl), _stress(sol, moment, shear),
         _moving_cross_check(sol, t, env, governing), tuple(defl), tuple(moment), env, tuple(picked))
 
 
@@ -156,18 +168,40 @@ def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
     return tuple(out)
 
 
-def _stress(sol: Solution, m_pos: Located | None, m_neg: Located | None, v_max: Located | None) -> Stress:
-    sec, mat = sol.member.section, sol.member.material
-    big_m = max((abs(l.value) for l in (m_pos, m_neg) if l is not None), default=Fraction(0))
-    bending = None
-    if sec.c is not None:
-        bending = big_m * sec.c / sec.I
-    elif sec.S is not None:
-        bending = big_m / sec.S
-    shear = None
-    if sec.Q is not None and sec.t is not None:
-        shear = (abs(v_max.value) if v_max else Fraction(0)) * sec.Q / (sec.I * sec.t)
-    return Stress(bending, shear, mat.yield_strength)
+def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> Stress:
+    """M c / I and V Q / (I t) in every stretch with its own section; the largest ratio to the stretch's
+    yield governs (on a stepped member it may sit at a step rather than at the largest |M|)."""
+    m = sol.member
+    bending = shearing = None  # (ratio key, stress, located, fy)
+    for st in m.stretches:
+        sec, fy = st.section, st.material.yield_strength
+        inside = lambda c: _in_stretch(sol, c, st)  # noqa: E731
+        ms = [c for c in moment if inside(c)]
+        at = max((l for l in (largest(ms, 1), largest(ms, -1)) if l is not None), key=lambda l: abs(l.value),
+                 default=None)
+        big_m = abs(at.value) if at else Fraction(0)
+        sigma = big_m * sec.c / sec.I if sec.c is not None else (big_m / sec.S if sec.S is not None else None)
+        if sigma is not None and (bending is None or _ratio(sigma, fy) > bending[0]):
+            bending = (_ratio(sigma, fy), sigma, at, fy)
+        if sec.Q is not None and sec.t is not None:
+            v_at = largest_abs([c for c in shear if inside(c)])
+            tau = (abs(v_at.value) if v_at else Fraction(0)) * sec.Q / (sec.I * sec.t)
+            if shearing is None or _ratio(tau, fy) > shearing[0]:
+                shearing = (_ratio(tau, fy), tau, v_at, fy)
+    fy0 = m.stretches[0].material.yield_strength
+    return Stress(bending[1] if bending else None, shearing[1] if shearing else None,
+                  bending[3] if bending else fy0, bending[2] if bending else None,
+                  shearing[2] if shearing else None, shearing[3] if shearing else None)
+
+
+def _ratio(stress: Fraction, fy: Fraction | None) -> Fraction:
+    return stress / fy if fy else stress
+
+
+def _in_stretch(sol: Solution, c: Candidate, st) -> bool:
+    if c.segment < 0:
+        return st.x1 <= c.x <= st.x2
+    return st.x1 <= sol.xs[c.segment] and sol.xs[c.segment + 1] <= st.x2
 
 
 def factored_loads(sol: Solution, t: Target) -> list[tuple[Fraction, object]]:

@@ -67,6 +67,12 @@ def with_section(item: Loaded, section_text: str) -> str:
 
 def try_all(item: Loaded, catalogue: list[tuple[int, str, str]], catalogue_name: str) -> list[Trial]:
     """Every section of the catalogue in this member, lightest first (ties by name)."""
+    if item.member.stepped:
+        line = next(ln for ln in item.document.lines if isinstance(ln.statement, (s.Section, s.Material))
+                    and ln.statement.stretch is not None)
+        raise BeamError([Diagnostic(line.statement.span, "a catalogue sizes a prismatic member; this one is stepped",
+                                    "size each stretch's section by hand, or try the sizes one at a time")],
+                        item.source)
     trials = []
     for number, name, section in catalogue:
         source = Source(f"{catalogue_name}:{number}", with_section(item, section))

@@ -8,7 +8,8 @@ from fractions import Fraction
 from .errors import BeamError, Diagnostic
 from .model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
-from .statics import breakpoints, resultant, shear_and_moment
+from .stability import Mechanism, Restraint, components, equilibrium_column, keep
+from .statics import breakpoints, moment_left, resultant, shear_and_moment
 
 
 @dataclass(frozen=True, slots=True)
@@ -31,22 +32,21 @@ class Curves:
 
 
 @dataclass(frozen=True, slots=True)
-class Restraint:
-    """A support reaction component: `force` (vertical) or `moment`, at member.supports[support]."""
-
-    support: int
-    kind: str
-
-
-@dataclass(frozen=True, slots=True)
 class Primary:
     """The released, statically determinate beam and the compatibility system of the redundants."""
 
-    kind: str  # "cantilever" (fixed at one support) or "simple" (two point supports)
-    kept: tuple[int, ...]  # supports of the primary beam
+    kind: str  # "cantilever" (fixed at one support), "simple" (two point supports) or "hinged"
+    kept: tuple[Restraint, ...]  # reaction components of the primary beam
     redundants: tuple[Restraint, ...]
     flexibility: tuple[tuple[Fraction, ...], ...]  # A in A X = -D0, spring terms 1/k on the diagonal
-    units: tuple[Curves, ...]  # primary response to a unit value of each redundant
+    units: tuple["Curves", ...]  # primary response to a unit value of each redundant
+    statics: tuple[tuple[Fraction, ...], ...]  # inverse of the kept components' equilibrium matrix
+    kinematics: tuple[tuple[Fraction, ...], ...]  # inverse of their support conditions in (c1, c2, jumps)
+
+    @property
+    def supports(self) -> tuple[int, ...]:
+        """The supports of the primary beam, each once."""
+        return tuple(dict.fromkeys(r.support for r in self.kept))
 
 
 @dataclass(frozen=True, slots=True)
@@ -79,7 +79,7 @@ class Target:
 class Solution:
     member: Member
     xs: tuple[Fraction, ...]
-    EI: Fraction
+    EI: tuple[Fraction, ...]  # flexural stiffness of each segment [xs[k], xs[k + 1]]
     primary: Primary
     targets: tuple[Target, ...]
 
@@ -90,7 +90,7 @@ class Solution:
 def solve(member: Member) -> Solution:
     """Superpose the exact curves of every load; cases and combinations follow by linearity."""
     xs = breakpoints(member)
-    EI = member.material.E * member.section.I
+    EI = stiffness(member, xs)
     primary = _primary(member, xs, EI)
     targets = []
     for case in member.cases:
@@ -104,6 +104,11 @@ def solve(member: Member) -> Solution:
     return Solution(member, xs, EI, primary, tuple(targets))
 
 
+def stiffness(member: Member, xs) -> tuple[Fraction, ...]:
+    """EI of every segment (each segment lies inside one stretch: stretch ends are breakpoints)."""
+    return tuple(member.stretch_at((a + b) / 2).EI for a, b in zip(xs, xs[1:]))
+
+
 def load_solution(solution: Solution, load: Load) -> LoadSolution:
     """One load alone on the member: its own elastic curve, for showing the superposition."""
     return _solve_loads(solution.member, solution.xs, solution.EI, solution.primary, (load,))
@@ -115,8 +120,8 @@ def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
     xs = tuple(sorted(set(solution.xs) | {ld.x for ld in loads if isinstance(ld, (PointLoad, MomentLoad))}))
     if xs == solution.xs:
         return _solve_loads(member, xs, solution.EI, solution.primary, loads).curves
-    primary = _primary(member, xs, solution.EI)
-    return _solve_loads(member, xs, solution.EI, primary, loads).curves
+    EI = stiffness(member, xs)
+    return _solve_loads(member, xs, EI, _primary(member, xs, EI), loads).curves
 
 
 def _sum(curves: list[Curves], member: Member, xs) -> Curves:
@@ -136,31 +141,44 @@ def active(member: Member) -> list[int]:
     return [i for i, sp in enumerate(member.supports) if sp.kind != "spring" or sp.stiffness]
 
 
-def choose_primary(member: Member) -> tuple[str, tuple[int, ...], tuple[Restraint, ...]]:
-    """Keep one fixed support (a cantilever) or two point supports; release every other restraint."""
+def choose_primary(member: Member) -> tuple[str, tuple[Restraint, ...], tuple[Restraint, ...]]:
+    """Keep one fixed support (a cantilever) or two point supports, plus one more component per hinge
+    (stability.keep); release every other restraint."""
     idx = active(member)
     sps = member.supports
     fixed = [i for i in idx if sps[i].kind == "fixed"]
+    every = components(sps)
     if fixed:
-        kind, kept = "cantilever", (fixed[0],)
+        kind, first = "cantilever", [Restraint(fixed[0], "force"), Restraint(fixed[0], "moment")]
     else:
         rigid = [i for i in idx if sps[i].kind != "spring"]
         pool = rigid if len(rigid) >= 2 else idx
-        if len(pool) < 2:
-            raise BeamError([Diagnostic(member.span, "these supports cannot carry load: the beam is a mechanism")])
-        kind, kept = "simple", (pool[0], pool[-1])
-    released = []
-    for i in idx:
-        if i not in kept:
-            released.append(Restraint(i, "force"))
-            if sps[i].kind == "fixed":
-                released.append(Restraint(i, "moment"))
-    return kind, kept, tuple(released)
+        kind, first = "simple", [Restraint(i, "force") for i in dict.fromkeys((pool[0], pool[-1]))] if pool else []
+    rigid_forces = [r for r in every if r.kind == "force" and sps[r.support].kind != "spring"]
+    preferred = list(dict.fromkeys(first + rigid_forces + [r for r in every if r.kind == "moment"] + every))
+    try:
+        kept = keep(sps, [h.x for h in member.hinges], preferred)
+    except Mechanism as exc:
+        raise BeamError([_mechanism(member, exc)]) from None
+    if member.hinges:
+        kind = "hinged"
+    return kind, kept, tuple(r for r in every if r not in kept)
+
+
+def _mechanism(member: Member, exc: Mechanism) -> Diagnostic:
+    """The builder reports mechanisms with their hinge; this covers members built some other way."""
+    span = member.hinges[exc.hinges[0]].span if exc.hinges else member.span
+    return Diagnostic(span, "these supports and hinges cannot carry load: the member is a mechanism")
 
 
 def _primary(member: Member, xs, EI) -> Primary:
     kind, kept, redundants = choose_primary(member)
-    units = tuple(_on_primary(member, xs, EI, kind, kept, [_unit(member, r)]) for r in redundants)
+    sps, hinges = member.supports, [h.x for h in member.hinges]
+    columns = [equilibrium_column(sps, hinges, r) for r in kept]
+    statics = _inverse([[col[i] for col in columns] for i in range(len(kept))])
+    kinematics = _inverse([_condition(sps[r.support].x, r.kind, hinges) for r in kept])
+    skeleton = Primary(kind, kept, redundants, (), (), statics, kinematics)
+    units = tuple(_on_primary(member, xs, EI, skeleton, [_unit(member, r)]) for r in redundants)
     A = []
     for i, r in enumerate(redundants):
         row = [_displacement(member, r, u) for u in units]
@@ -168,7 +186,25 @@ def _primary(member: Member, xs, EI) -> Primary:
         if r.kind == "force" and k:
             row[i] += 1 / k
         A.append(tuple(row))
-    return Primary(kind, kept, redundants, tuple(A), units)
+    return Primary(kind, kept, redundants, tuple(A), units, statics, kinematics)
+
+
+def _condition(x, kind: str, hinges) -> list:
+    """The support condition of a kept component in the unknowns (c1, c2, slope jump at each hinge):
+    v = c1 + c2 x + sum of jump (x - h) right of each hinge h; theta = c2 + sum of the jumps left of x."""
+    if kind == "force":
+        return [Fraction(1), x] + [(x - h) if x > h else Fraction(0) for h in hinges]
+    return [Fraction(0), Fraction(1)] + [Fraction(1) if x > h else Fraction(0) for h in hinges]
+
+
+def _inverse(A) -> tuple[tuple, ...]:
+    n = len(A)
+    cols = [linsolve(A, [Fraction(int(i == j)) for i in range(n)]) for j in range(n)]
+    return tuple(tuple(cols[j][i] for j in range(n)) for i in range(n))
+
+
+def _apply(A, b) -> list:
+    return [sum((a * v for a, v in zip(row, b)), Fraction(0)) for row in A]
 
 
 def _unit(member: Member, r: Restraint) -> Load:
@@ -182,7 +218,7 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 
 
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
-    base = _on_primary(member, xs, EI, primary.kind, primary.kept, list(loads))
+    base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
     moved = prescribed(member, loads)
     target = [moved.get(member.supports[r.support].x, Fraction(0)) if r.kind == "force" else Fraction(0)
@@ -198,38 +234,44 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
 
 
-def _on_primary(member: Member, xs, EI, kind: str, kept: tuple[int, ...], loads: list[Load]) -> Curves:
-    """Loads on the determinate primary beam: reactions by statics, then M/EI integrated twice."""
+def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> Curves:
+    """Loads on the determinate primary beam: reactions by statics (equilibrium and zero moment at
+    every hinge), then M/EI integrated twice per segment, with the support conditions fixing the
+    two constants and the slope jump at every hinge."""
     F, Mo = resultant(loads)
-    sps = member.supports
+    sps, hinges = member.supports, [h.x for h in member.hinges]
+    R = _apply(primary.statics, [-F, -Mo] + [-moment_left(loads, h) for h in hinges])
     reactions = [(Fraction(0), Fraction(0)) for _ in sps]
-    if kind == "cantilever":
-        f = kept[0]
-        R = -F
-        reactions[f] = (R, -Mo - R * sps[f].x)
-    else:
-        a, b = kept
-        xa, xb = sps[a].x, sps[b].x
-        Rb = (-Mo + F * xa) / (xb - xa)
-        reactions[a], reactions[b] = (-F - Rb, Fraction(0)), (Rb, Fraction(0))
     actions = list(loads)
-    for i in kept:
-        force, moment = reactions[i]
-        actions += [PointLoad(sps[i].x, force, sps[i].span), MomentLoad(sps[i].x, moment, sps[i].span)]
+    for r, value in zip(primary.kept, R):
+        force, moment = reactions[r.support]
+        sp = sps[r.support]
+        if r.kind == "force":
+            reactions[r.support] = (force + value, moment)
+            actions.append(PointLoad(sp.x, value, sp.span))
+        else:
+            reactions[r.support] = (force, moment + value)
+            actions.append(MomentLoad(sp.x, value, sp.span))
     V, M = shear_and_moment(xs, actions)
-    theta0 = M.map(lambda p: p * (1 / EI)).integral()
+    theta0 = Piecewise(xs, tuple(p * (1 / ei) for p, ei in zip(M.pieces, EI))).integral()
     v0 = theta0.integral()
     moved = prescribed(member, loads)
-    if kind == "cantilever":
-        xf = sps[kept[0]].x
-        c2 = -theta0.at(xf)
-        c1 = moved.get(xf, Fraction(0)) - v0.at(xf) - c2 * xf
-    else:
-        sa, sb = (_settlement(sps[i], reactions[i][0]) + moved.get(sps[i].x, Fraction(0)) for i in kept)
-        c2 = ((sb - v0.at(xb)) - (sa - v0.at(xa))) / (xb - xa)
-        c1 = sa - v0.at(xa) - c2 * xa
-    theta = theta0.map(lambda p: p + Poly.of(c2))
-    v = v0.map(lambda p: p + Poly.of(c1, c2))
+    wanted = []
+    for r in primary.kept:
+        x = sps[r.support].x
+        if r.kind == "force":
+            wanted.append(_settlement(sps[r.support], reactions[r.support][0]) + moved.get(x, Fraction(0)) - v0.at(x))
+        else:
+            wanted.append(-theta0.at(x))
+    c1, c2, *jumps = _apply(primary.kinematics, wanted)
+    theta_add, v_add = [], []
+    for a in xs[:-1]:
+        left = [(h, j) for h, j in zip(hinges, jumps) if h <= a]
+        slope = c2 + sum((j for _, j in left), Fraction(0))
+        theta_add.append(Poly.of(slope))
+        v_add.append(Poly.of(c1 - sum((j * h for h, j in left), Fraction(0)), slope))
+    theta = Piecewise(xs, tuple(p + q for p, q in zip(theta0.pieces, theta_add)))
+    v = Piecewise(xs, tuple(p + q for p, q in zip(v0.pieces, v_add)))
     return Curves(V, M, theta, v, tuple(reactions))
 
 

@@ -9,12 +9,15 @@ from .poly import Piecewise, Poly
 
 
 def breakpoints(member: Member) -> tuple[Fraction, ...]:
-    """Every x where a curve may change its formula: ends, supports, load positions and ends.
+    """Every x where a curve may change its formula: ends, supports, hinges, changes of section or
+    material, load positions and ends.
 
     Report points are not breakpoints (a curve is simply evaluated there) unless a load moves: then the
     envelope search follows each force past them."""
     xs = {Fraction(0), member.length}
     xs.update(sp.x for sp in member.supports)
+    xs.update(h.x for h in member.hinges)
+    xs.update(st.x1 for st in member.stretches)
     for case in member.cases:
         for load in case.loads:
             if isinstance(load, MovingLoad):
@@ -52,6 +55,17 @@ def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]
             force += W(load.x2) - W(load.x1)
             moment += T(load.x2) - T(load.x1)
     return force, moment
+
+
+def moment_left(loads, x) -> Fraction:
+    """The bending moment at x from the loads left of x alone (sagging positive)."""
+    at = Poly.of(0, 1)
+    total = Fraction(0)
+    for load in loads:
+        for where, _, dm in _changes(load, at):
+            if where < x:
+                total += dm(x)
+    return total
 
 
 def shear_and_moment(xs: tuple[Fraction, ...], loads) -> tuple[Piecewise, Piecewise]:

@@ -107,7 +107,8 @@ def symbolic_member(member: Member, load: Load) -> tuple[Member, Load, dict[str,
     sec = dataclasses.replace(member.section, I=sym("I", member.section.I))
     new_load = _symbolic_load(load, pos, sym)
     case = dataclasses.replace(member.cases[0], name="load", loads=(new_load,))
-    m = dataclasses.replace(member, length=L, material=mat, section=sec, supports=tuple(supports), cases=(case,),
+    stretch = dataclasses.replace(member.stretches[0], x2=L, material=mat, section=sec)
+    m = dataclasses.replace(member, length=L, stretches=(stretch,), supports=tuple(supports), cases=(case,),
                             combinations=(), report_points=())
     return m, new_load, names
 
@@ -133,8 +134,9 @@ MAX_REDUNDANTS = 2  # beyond this (or with springs) the general formula is too l
 
 
 def worth_deriving(member: Member, redundants: int) -> bool:
-    """Symbolic formulas are shown for determinate members and for up to two redundants without springs."""
-    return redundants <= MAX_REDUNDANTS and not any(sp.kind == "spring" for sp in member.supports)
+    """Symbolic formulas are shown for prismatic members without hinges or springs, up to two redundants."""
+    return (redundants <= MAX_REDUNDANTS and not any(sp.kind == "spring" for sp in member.supports)
+            and not member.stepped and not member.hinges)
 
 
 def latex(expr) -> str:

@@ -82,10 +82,20 @@ class SpanLength:
 
 
 @dataclass(frozen=True, slots=True)
+class Stretch:
+    """`from 0 m to 1.2 m` after a material or section: the part of the member it applies to."""
+
+    start: Position
+    end: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Material:
     name: Name | None
     properties: tuple[Property, ...]
     span: Span
+    stretch: Stretch | None = None  # None: the whole member
 
 
 @dataclass(frozen=True, slots=True)
@@ -93,12 +103,21 @@ class Section:
     shape: Name
     properties: tuple[Property, ...]
     span: Span
+    stretch: Stretch | None = None  # None: the whole member
 
 
 @dataclass(frozen=True, slots=True)
 class Support:
     kind: Name  # fixed | pin | roller | spring
     stiffness: Quantity | None
+    at: Position
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Hinge:
+    """An internal moment release: the moment is zero there and the slope may jump."""
+
     at: Position
     span: Span
 
@@ -195,6 +214,15 @@ class Limit:
 
 
 @dataclass(frozen=True, slots=True)
+class SlopeLimit:
+    """`limit slope [NAME] at supports 0.001 rad`: no target means every case and combination."""
+
+    target: Name | None
+    value: Quantity
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class StressCheck:
     target: Name
     span: Span
@@ -213,8 +241,9 @@ class Note:
 
 
 Statement = (
-    Member | Field | Units | SpanLength | Material | Section | Support | Case | Point | Uniform
-    | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Limit | StressCheck | Report | Note
+    Member | Field | Units | SpanLength | Material | Section | Support | Hinge | Case | Point | Uniform
+    | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Limit | SlopeLimit | StressCheck | Report
+    | Note
 )
 LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement, Moving)
 

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from .display import convert, number, report_units, show
+from .display import CHECK_QUANTITY, convert, number, report_units, show
 from .pipeline import Analysis
 
 
@@ -29,7 +29,7 @@ def member_table(a: Analysis) -> str:
     if a.checks:
         rows = []
         for c in a.checks:
-            quantity = "deflection" if c.unit == "m" else "stress"
+            quantity = CHECK_QUANTITY[c.unit]
             where = f"x = {number(convert(c.x, L))} {L}" if c.x is not None else ""
             where += f" ({c.region})" if c.region else ""
             rows.append([f"{c.kind} {c.target}", show(c.actual, u, quantity), show(c.allowed, u, quantity),

@@ -47,19 +47,34 @@ def members(draw) -> str:
     lines = [f'member M-{draw(st.integers(1, 99))}{gap()}"Generated member"',
              f"span{gap()}{span} {unit}",
              f"material steel E {u['E']}{gap()}yield {u['yield']} density {u['density']}",
-             draw(st.sampled_from(SECTIONS[system])),
              'project "Generated"  # a comment']
-    supports = draw(st.sampled_from([["fixed at 0 " + unit], ["pin at 0 " + unit, "roller at span"],
-                                     ["fixed at 0 " + unit, "roller at span"], ["fixed at 0 " + unit, "fixed at span"],
-                                     ["pin at 0 " + unit, f"spring {u['spring']} at span/2", "roller at span"]]))
-    lines += [f"support {text}" for text in supports]
+    inside = st.integers(1, span * sub - 1).filter(lambda k: 2 * k != span * sub)  # not an end, not span/2
+    sections = draw(st.lists(st.sampled_from(SECTIONS[system]), min_size=1, max_size=3))
+    if len(sections) == 1:
+        lines.append(sections[0])
+    else:  # a stepped member: stretches meeting end to end
+        cuts = sorted(draw(st.lists(inside, min_size=len(sections) - 1, max_size=len(sections) - 1, unique=True)))
+        ends = ["0 " + unit] + [f"{k} {fine}" for k in cuts] + ["span"]
+        lines += [f"{sec} from {a} to {b}" for sec, a, b in zip(sections, ends, ends[1:])]
+    layouts = [["fixed at 0 " + unit], ["pin at 0 " + unit, "roller at span"],
+               ["fixed at 0 " + unit, "roller at span"], ["fixed at 0 " + unit, "fixed at span"],
+               ["pin at 0 " + unit, f"spring {u['spring']} at span/2", "roller at span"]]
+    choice = draw(st.integers(0, len(layouts) - 1))
+    lines += [f"support {text}" for text in layouts[choice]]
+    hinges: list[int] = []
+    if choice in (2, 3, 4) and draw(st.booleans()):  # layouts that stay stable with one hinge
+        hinges = [draw(inside)]
+        lines.append(f"hinge at {hinges[0]} {fine}")
+    if choice in (1, 2, 4) and draw(st.booleans()):
+        lines.append(f"limit slope at supports {draw(st.sampled_from(['0.001', '0.004', '0.02']))} rad")
+    free = lambda: draw(positions(span, sub, unit, fine).filter(lambda p: p[1] not in hinges))  # noqa: E731
     names = []
     for c in range(draw(st.integers(1, 3))):
         name = ["dead", "live", "snow"][c]
         names.append(name)
         body = [f"case {name}"]
         for _ in range(draw(st.integers(1, 4))):
-            body.append("  " + draw(loads(pos, u)))
+            body.append("  " + draw(loads(pos, u, free)))
         lines.append("\n".join(body))
     if len(names) > 1:
         lines.append("combine total = " + " + ".join(f"{draw(st.sampled_from(['', '1.2 ', '1.6 ']))}{n}" for n in names))
@@ -70,7 +85,8 @@ def members(draw) -> str:
 
 
 @st.composite
-def loads(draw, pos, u) -> str:
+def loads(draw, pos, u, free=None) -> str:
+    """A load line; a couple goes to a `free` position (never on a hinge)."""
     kind = draw(st.sampled_from(["point", "uniform", "partial", "linear", "moment", "self"]))
     direction = draw(st.sampled_from(["down", "up"]))
     number = draw(st.sampled_from(["1", "2.5", "0.75", "12", "1e1"]))
@@ -78,7 +94,7 @@ def loads(draw, pos, u) -> str:
         return f"point {number} {draw(st.sampled_from(u['force']))} {direction} at {pos()[0]}"
     if kind == "moment":
         turn = draw(st.sampled_from(["clockwise", "counterclockwise"]))
-        return f"moment {number} {draw(st.sampled_from(u['moment']))} {turn} at {pos()[0]}"
+        return f"moment {number} {draw(st.sampled_from(u['moment']))} {turn} at {(free or pos)()[0]}"
     if kind == "self":
         return "self-weight"
     line = draw(st.sampled_from(u["line"]))

@@ -31,7 +31,7 @@ def test_examples_use_every_statement_shape_and_support():
     assert kinds == set(s.Statement.__args__)
     fields = {st.name for d in docs for _, st in d.document.statements if isinstance(st, s.Field)}
     assert fields == {"project", "job", "by", "checked", "date", "revision"}
-    shapes = {d.member.section.shape for d in docs}
+    shapes = {st.section.shape for d in docs for st in d.member.stretches}
     assert shapes == {"properties", "rectangle", "round", "tube", "box", "I-shape"}
     supports = {sp.kind for d in docs for sp in d.member.supports}
     assert supports == {"fixed", "pin", "roller", "spring"}
@@ -40,6 +40,9 @@ def test_examples_use_every_statement_shape_and_support():
     assert uniform_forms == {True, False}
     limits = {st.divisor is None for d in docs for _, st in d.document.statements if isinstance(st, s.Limit)}
     assert limits == {True, False}
+    assert any(d.member.stepped for d in docs) and any(d.member.hinges for d in docs)
+    slopes = {st.target is None for d in docs for _, st in d.document.statements if isinstance(st, s.SlopeLimit)}
+    assert slopes == {False}  # the target-less form is covered by tests/test_stepped_hinged.py
     positions = {st.at.form for d in docs for _, st in d.document.statements if isinstance(st, (s.Point, s.Report))}
     assert positions == {"length", "end", "fraction", "from_end"}
 

@@ -57,3 +57,15 @@ def test_catalogues_are_read(tmp_path):
     with pytest.raises(BeamError) as info:
         read_catalogue(bad)
     assert info.value.diagnostics[0].message == "a catalogue starts with the header `name,section`"
+
+
+def test_a_stepped_member_is_not_sized_from_a_catalogue(tmp_path, monkeypatch, capsys):
+    stepped = JOIST.replace("section rectangle width 1.5 in depth 5.5 in  # to be sized",
+                            "section rectangle width 1.5 in depth 5.5 in from 0 ft to 4 ft\n"
+                            "section rectangle width 3 in depth 5.5 in from 4 ft to span")
+    (tmp_path / "j.beam").write_text(stepped, encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    assert main(["size", "j.beam", "--catalogue", str(CATALOGUES / "sawn-lumber-ps20.csv")]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("j.beam:4:1: error: a catalogue sizes a prismatic member; this one is stepped\n")
+    assert (tmp_path / "j.beam").read_text(encoding="utf-8") == stepped  # nothing written

@@ -3,10 +3,11 @@
 from __future__ import annotations
 
 
-from ..display import convert, number, report_units, show
+from ..display import CHECK_QUANTITY, convert, number, report_units, show
 from ..extrema import Candidate
 from ..fem import reported
 from ..fmt import statement_text
+from ..model import LineLoad
 from ..pipeline import Analysis
 from ..roots import square_free
 from ..solve import load_solution, prescribed
@@ -23,7 +24,7 @@ def summary(a: Analysis) -> list[str]:
     lines += ["| check | case or combination | actual | allowed | ratio | result | governs at | input line |",
               "|---|---|---|---|---|---|---|---|"]
     for c in a.checks:
-        q = "deflection" if c.unit == "m" else "stress"
+        q = CHECK_QUANTITY[c.unit]
         where = f"x = {number(convert(c.x, u['length']))} {u['length']}" if c.x is not None else "-"
         if c.region:
             where += f" ({c.region})"
@@ -53,7 +54,8 @@ def target(a: Analysis, name: str, figure: str) -> list[str]:
     if r.envelope is not None:
         return lines + _moving(a, t, r) + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]"
                                            f"({figure})", ""]
-    lines += _superposed(a, t) + _reactions(a, r) + _moment_search(a, r) + _deflection_search(a, t, r)
+    lines += _superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
+    lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]
     return lines
 
@@ -164,14 +166,16 @@ def _each_load(a: Analysis, t) -> list[str]:
              "Each load is solved alone on this member. " + (
                  "First its general formula, derived by the engine for this support layout (the table formula "
                  "for this case), with the value of every symbol; then " if symbolic else
-                 "(General formulas are not shown for members with springs or more than two redundants: they "
-                 "run to many lines.) ") +
+                 "(General formulas are not shown for members with springs, hinges, changes of section or more "
+                 "than two redundants: they run to many lines.) ") +
              "v(x) in m with x in m, coefficients shown to six significant digits (computed exactly). "
              "The case curve is their sum.", ""]
     xs = a.solution.xs
     for ld in t.loads:
         solved = load_solution(a.solution, ld)
-        lines += [f"Load of line {ld.span.line}:", ""]
+        shared = sum(1 for other in t.loads if other.span.line == ld.span.line) > 1  # self-weight per stretch
+        where = f" ({plain(ld.x1)} m to {plain(ld.x2)} m)" if shared and isinstance(ld, LineLoad) else ""
+        lines += [f"Load of line {ld.span.line}{where}:", ""]
         if symbolic:
             lines += _formula(m, ld)
         lines += ["| segment | v(x) |", "|---|---|"]
@@ -224,6 +228,25 @@ def _superposed(a: Analysis, t) -> list[str]:
     lines += ["", "| segment | θ(x) in rad | v(x) in m |", "|---|---|---|"]
     for start, end, (theta, v) in _runs(xs, c.theta, c.v):
         lines.append(f"| {_range(start, end)} | ${poly(theta)}$ | ${poly(v)}$ |")
+    return lines + [""]
+
+
+def _hinges(a: Analysis, t) -> list[str]:
+    """The hinge conditions, verified on the superposed curves: zero moment, a slope jump, no gap."""
+    m = a.loaded.member
+    if not m.hinges:
+        return []
+    c = t.curves
+    lines = ["### Hinge conditions", "", "At every hinge: the moment from either side, the deflection from either side "
+             "(equal: no gap) and the slope jump Δθ = θ(right) - θ(left).", "",
+             "| hinge (input line) | M left | M right | v left = v right | Δθ |", "|---|---|---|---|---|"]
+    for h in m.hinges:
+        ml, mr = c.M.at(h.x, "left"), c.M.at(h.x, "right")
+        vl, vr = c.v.at(h.x, "left"), c.v.at(h.x, "right")
+        assert ml == 0 and mr == 0 and vl == vr, "hinge conditions must hold exactly"
+        jump = c.theta.at(h.x, "right") - c.theta.at(h.x, "left")
+        lines.append(f"| x = {plain(h.x)} m (line {h.span.line}) | {num(ml)} N·m | {num(mr)} N·m | "
+                     f"{plain(vl, 8)} m | {plain(jump, 8)} rad |")
     return lines + [""]
 
 
@@ -338,7 +361,7 @@ def checks_detail(a: Analysis) -> list[str]:
     lines = ["## Checks", "", "| input line | check | case or combination | actual | allowed | ratio | basis | result |",
              "|---|---|---|---|---|---|---|---|"]
     for c in a.checks:
-        q = "deflection" if c.unit == "m" else "stress"
+        q = CHECK_QUANTITY[c.unit]
         lines.append(f"| {c.span.line} | {c.kind} | {md(c.target)} | {show(c.actual, u, q, 6)} | {show(c.allowed, u, q, 6)} | "
                      f"{c.ratio:.4f} | {cell(c.basis)} | {'PASS' if c.passed else 'FAIL'} |")
     lines += ["", "Elastic range: superposition holds only while the member stays linear elastic.", ""]

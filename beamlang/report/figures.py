@@ -50,6 +50,8 @@ def target_figure(a: Analysis, name: str) -> str:
         ax.plot([convert(x, u["length"]) for x in xs], ys, color="#1f4e79", linewidth=1.2)
         ax.fill_between([float(convert(x, u["length"])) for x in xs], ys, 0, color="#1f4e79", alpha=0.12)
         ax.axhline(0, color="black", linewidth=0.6)
+        for x in changes(m, u) + [float(convert(h.x, u["length"])) for h in m.hinges]:
+            ax.axvline(x, color="#777777", linewidth=0.6, linestyle=":")
         ax.set_ylabel(f"{label} ({u[quantity]})")
         for loc in marks or []:
             x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
@@ -77,7 +79,7 @@ def _sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
 
 def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     m = a.loaded.member
-    ax.plot([0, L], [0, 0], color="black", linewidth=3)
+    _draw_stretches(ax, m, u, L)
     for sp in m.supports:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
@@ -85,14 +87,63 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     for case in m.cases:
         if case.name not in factors:
             continue
+        pieces: dict[int, list] = {}  # line loads of one statement (self-weight per stretch): one level, one label
         for load in case.loads:
+            if isinstance(load, LineLoad):
+                pieces.setdefault(load.span.line, []).append(load)
+        for load in case.loads:
+            if isinstance(load, LineLoad) and len(pieces[load.span.line]) > 1:
+                group = pieces[load.span.line]
+                if load is group[0]:
+                    _pieces(ax, group, factors[case.name], u, stack)
+                    stack += 1
+                continue
             stack += _load(ax, load, factors[case.name], u, stack)
     ax.set_ylim(-1.7, max(1.6, 1.0 + 0.9 * stack))
     ax.set_yticks([])
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
     if a.solution.member.moving(name):
         title += "; the moving group is not drawn (see its table)"
+    if m.stepped:
+        title += "; line weight: stiffer stretches thicker, ticks: changes of section"
+    if m.hinges:
+        title += "; open circles: hinges"
     ax.set_title(title, fontsize=8, loc="left")
+
+
+def _draw_stretches(ax, m, u: dict, L: float) -> None:
+    """The member line (thicker where stiffer on a stepped member), section changes and hinges."""
+    if not m.stepped:
+        ax.plot([0, L], [0, 0], color="black", linewidth=3)
+    else:
+        stiffest = max(float(st.EI) for st in m.stretches)
+        for st in m.stretches:
+            width = 1.5 + 3.0 * (float(st.EI) / stiffest) ** (1 / 3)
+            ax.plot([float(convert(st.x1, u["length"])), float(convert(st.x2, u["length"]))], [0, 0],
+                    color="black", linewidth=width, solid_capstyle="butt")
+        for x in changes(m, u):
+            ax.plot([x, x], [-0.3, 0.3], color="#555555", linewidth=0.8)
+    for h in m.hinges:
+        ax.plot([float(convert(h.x, u["length"]))], [0], marker="o", markersize=5, markerfacecolor="white",
+                markeredgecolor="black", markeredgewidth=1.0, zorder=5)
+
+
+def changes(m, u: dict) -> list[float]:
+    """Where the section or material changes, in report length units."""
+    return [float(convert(st.x1, u["length"])) for st in m.stretches[1:]]
+
+
+def _pieces(ax, group: list, factor: Fraction, u: dict, stack: int) -> None:
+    """A line load given per stretch (self-weight of a stepped member): drawn at one level, labelled once."""
+    for piece in group:
+        _load(ax, piece, factor, u, stack, label=False)
+    unit = u["force"] + "/" + u["length"]
+    values = sorted({abs(piece.w1 * factor) for piece in group})
+    x1, x2 = float(convert(group[0].x1, u["length"])), float(convert(group[-1].x2, u["length"]))
+    sign = 1 if group[0].w1 * factor < 0 else -1
+    ax.text((x1 + x2) / 2, (0.25 + 0.9 * stack + 0.7) * sign,
+            f"{group[0].origin}, {number(convert(values[0], unit))} to {number(convert(values[-1], unit))} {unit}",
+            ha="center", va="bottom" if sign > 0 else "top", fontsize=6, color="#8b4513")
 
 
 def _terms(a: Analysis, name: str) -> list[tuple[Fraction, str]]:
@@ -129,7 +180,7 @@ def _circle(center, radius):
     return Ellipse(center, 2 * radius, 0.2, facecolor="white", edgecolor="black", linewidth=0.8)
 
 
-def _load(ax, load, factor: Fraction, u: dict, stack: int) -> int:
+def _load(ax, load, factor: Fraction, u: dict, stack: int, label: bool = True) -> int:
     """Draw one load; distributed loads stack upwards so that none hides another. Returns 1 if stacked."""
     color = "#8b4513"
     if isinstance(load, PointLoad):
@@ -165,8 +216,9 @@ def _load(ax, load, factor: Fraction, u: dict, stack: int) -> int:
         h1, h2 = base + h1 * 0.8 - 0.1, base + h2 * 0.8 - 0.1
         unit = u["force"] + "/" + u["length"]
         text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
-        ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", ha="center",
-                va="bottom" if sign > 0 else "top", fontsize=6, color=color)
+        if label is not False:
+            ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", ha="center",
+                    va="bottom" if sign > 0 else "top", fontsize=6, color=color)
         return 1
     return 0
 

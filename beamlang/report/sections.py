@@ -101,14 +101,40 @@ def signs(a: Analysis, figure: str) -> list[str]:
 
 def section_properties(a: Analysis) -> list[str]:
     m = a.loaded.member
-    sec, mat = m.section, m.material
     small = report_units(m)["section"]
     lines = ["## Section and material", ""]
+    sections = list({id(st.section): st.section for st in m.stretches}.values())
+    materials = list({id(st.material): st.material for st in m.stretches}.values())
+    for sec in sections:
+        lines += _section_table(sec, small)
+    if any(sec.shape in ("round", "tube") for sec in sections):
+        lines += ["π is carried as a 40-digit rational, far below every printed digit.", ""]
+    stress = "MPa" if m.units == "si" else "ksi"
+    for mat in materials:
+        lines += [f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
+                  + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}"
+                     if mat.yield_strength else "")
+                  + (f", density = {number(mat.density, 6)} kg/m^3" if mat.density else "")
+                  + f" (input line {mat.span.line}).", ""]
+    if not m.stepped:
+        return lines + [f"Flexural stiffness: $EI = {num(m.stretches[0].EI)}$ N·m².", ""]
+    length = report_units(m)["length"]
+    lines += ["The member is stepped: each stretch has its own flexural stiffness, and the curvature "
+              "M(x)/EI(x) is integrated stretch by stretch (every change is a segment end).", "",
+              f"| stretch ({length}) | section (input line) | material (input line) | EI (N·m²) |", "|---|---|---|---|"]
+    for st in m.stretches:
+        lines.append(f"| {number(convert(st.x1, length))} to {number(convert(st.x2, length))} | "
+                     f"{st.section.shape} (line {st.section.span.line}) | "
+                     f"{md(st.material.name or 'unnamed')} (line {st.material.span.line}) | ${num(st.EI)}$ |")
+    return lines + [""]
+
+
+def _section_table(sec, small: str) -> list[str]:
     if sec.shape == "properties":
-        lines += [f"Section given by its properties, input line {sec.span.line}.", ""]
+        lines = [f"Section given by its properties, input line {sec.span.line}.", ""]
     else:
         dims = ", ".join(f"{name} = {number(convert(v, small))} {small}" for name, v in sec.dimensions)
-        lines += [f"Section: {sec.shape} ({dims}), input line {sec.span.line}.", ""]
+        lines = [f"Section: {sec.shape} ({dims}), input line {sec.span.line}.", ""]
     formulas = FORMULAS.get(sec.shape, {})
     lines += ["| property | formula | value |", "|---|---|---|"]
     for key, power in (("A", 2), ("I", 4), ("c", 1), ("S", 3), ("Q", 3), ("t", 1)):
@@ -120,27 +146,19 @@ def section_properties(a: Analysis) -> list[str]:
             formula = "$I / c$"
         unit = small if power == 1 else f"{small}^{power}"
         lines.append(f"| {key} | {formula} | {number(convert(value, unit), 6)} {unit} |")
-    if sec.shape in ("round", "tube"):
-        lines += ["", "π is carried as a 40-digit rational, far below every printed digit."]
-    stress = "MPa" if m.units == "si" else "ksi"
-    lines += ["", f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
-              + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}" if mat.yield_strength else "")
-              + (f", density = {number(mat.density, 6)} kg/m^3" if mat.density else "")
-              + f" (input line {mat.span.line}).", "",
-              f"Flexural stiffness: $EI = {num(a.solution.EI)}$ N·m².", ""]
-    return lines
+    return lines + [""]
 
 
 def method(a: Analysis) -> list[str]:
     """The primary beam and the compatibility system shared by every case."""
     sol, m = a.solution, a.loaded.member
     p = sol.primary
-    kept = ", ".join(f"{m.supports[i].kind} at x = {plain(m.supports[i].x)} m (line {m.supports[i].span.line})"
-                     for i in p.kept)
-    lines = ["## Method", ""]
+    kept = ", ".join(_kept(m, p, i) for i in sorted(p.supports))
+    lines = ["## Method", ""] + _hinge_text(m)
     if not p.redundants:
         return lines + [f"The member is statically determinate: a {p.kind} beam on {kept}. Reactions follow "
-                        "from statics; each load's curve is M/EI integrated twice with the support conditions.", ""]
+                        "from statics" + (" (with zero moment at every hinge)" if m.hinges else "") +
+                        "; each load's curve is M/EI integrated twice with the support conditions.", ""]
     names = [_redundant_name(m, r, j) for j, r in enumerate(p.redundants, start=1)]
     lines += [f"The member is statically indeterminate to degree {len(p.redundants)}. Primary (released) beam: "
               f"a {p.kind} beam on {kept}. Redundants: " + "; ".join(names) + ".", "",
@@ -152,6 +170,23 @@ def method(a: Analysis) -> list[str]:
               "on the diagonal for springs:", "",
               "$$A = " + _matrix(p.flexibility) + "$$", ""]
     return lines
+
+
+def _kept(m, p, i: int) -> str:
+    sp = m.supports[i]
+    released = " (its moment released)" if sp.kind == "fixed" and (i, "moment") not in {
+        (r.support, r.kind) for r in p.kept} else ""
+    return f"{sp.kind} at x = {plain(sp.x)} m (line {sp.span.line}){released}"
+
+
+def _hinge_text(m) -> list[str]:
+    if not m.hinges:
+        return []
+    where = ", ".join(f"x = {plain(h.x)} m (line {h.span.line})" for h in m.hinges)
+    return [f"Internal hinges at {where}. At each hinge the bending moment is zero, which gives statics one more "
+            "equation per hinge, and the slope may jump: the elastic curve is continuous there but not smooth. "
+            "Each hinge adds one unknown slope jump to the two constants of integration; the support "
+            "conditions of the primary beam fix them all.", ""]
 
 
 def _redundant_name(m, r, j: int) -> str:
