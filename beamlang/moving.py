@@ -69,7 +69,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     factored static loads (for the group-standing configurations)."""
     member = sol.member
     factor, load = member.moving(target.name)
-    kernels = _kernels_for(sol, load)
+    kernels = kernels_for(sol, load)
     found: dict[str, list[Critical]] = {q: [] for q in QUANTITIES}
     fixed_x = tuple(sorted({sp.x for sp in member.supports} | {r.x for r in member.report_points}))
     at_fixed: dict[tuple[str, Fraction], list[Critical]] = {}
@@ -215,7 +215,7 @@ def _x_range(xs, offsets, cell: _Cell, p: Fraction) -> tuple[Fraction, Fraction]
 _KERNELS: dict[int, tuple[Solution, MovingLoad, "_Kernels"]] = {}
 
 
-def _kernels_for(sol: Solution, load: MovingLoad) -> "_Kernels":
+def kernels_for(sol: Solution, load: MovingLoad) -> "_Kernels":
     """One set of kernels per solved member and moving load, shared by its case and combinations."""
     hit = _KERNELS.get(id(sol))
     if hit is None or hit[0] is not sol or hit[1] is not load:

@@ -137,3 +137,23 @@ def test_travel_limits_keep_the_group_on_them():
     a = analyse_text(_crane("6 m", "moving 10 kN down from 0 m to 1 m"))
     r = a.result("crane")
     assert r.moment_positive.value == Fraction(10000) * 1 * 5 / 6 and r.moment_positive.x == 1
+
+
+def test_drawn_influence_lines_are_the_handbook_ones():
+    # The calc package's figure draws the kernels in floats; on a simple span they must be the textbook
+    # influence lines (Hibbeler, Structural Analysis, 8th ed., ch. 6, from memory): the moment at x0 under a
+    # unit force at xi is xi (L - x0) / L left of x0 and x0 (L - xi) / L right of it, and the deflection at x0 is
+    # the deflection at xi under a unit force at x0 (Maxwell-Betti), xi (L^2 - xi^2 - b^2) b / (6 L E I) left of x0.
+    import numpy as np
+    from beamlang.report.moving_figure import _Lines
+    a = analyse_text(_crane("6 m", "moving 10 kN down"))
+    lines = _Lines(a, "crane")
+    L, x0 = 6.0, 2.0
+    xi = np.linspace(0.0, 6.0, 61)
+    moment = np.where(xi <= x0, xi * (L - x0) / L, x0 * (L - xi) / L)
+    down = lambda q, at: -lines.line(q, x0, at)  # noqa: E731  the kernels are for a unit force up
+    assert np.allclose(down("M", xi), moment, rtol=0, atol=1e-12)
+    b = L - x0
+    left = xi <= x0
+    v = -xi[left] * (L**2 - xi[left] ** 2 - b**2) * b / (6 * L * float(EI))
+    assert np.allclose(down("v", xi[left]), v, rtol=1e-12, atol=1e-18)

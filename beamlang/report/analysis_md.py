@@ -36,7 +36,7 @@ def summary(a: Analysis) -> list[str]:
     return lines + ["", verdict, ""]
 
 
-def target(a: Analysis, name: str, figure: str) -> list[str]:
+def target(a: Analysis, name: str, figure: str, moving_figure: str | None = None) -> list[str]:
     t = a.solution.target(name)
     r = a.result(name)
     m = a.loaded.member
@@ -52,8 +52,9 @@ def target(a: Analysis, name: str, figure: str) -> list[str]:
         lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
                   "(exact, by linearity).", ""]
     if r.envelope is not None:
-        return lines + _moving(a, t, r) + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]"
-                                           f"({figure})", ""]
+        return lines + _moving(a, t, r) + [
+            f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", "",
+            f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
     lines += _superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]
@@ -115,12 +116,35 @@ def _moving(a: Analysis, t, r) -> list[str]:
         lines.append(f"| {sp.kind} | {show(sp.x, u, 'length')} | {show(big.value, u, 'force')} | "
                      f"{show(big.position, u, 'length')} | {show(small.value, u, 'force')} | "
                      f"{show(small.position, u, 'length')} | {sp.span.line} |")
+    lines += _standing_check(a, t, r)
     if m.report_points:
         lines += ["", "Requested points over all positions:", "", "| x | largest up | largest down |", "|---|---|---|"]
         for rp, (up, down) in zip(m.report_points, env.points):
             lines.append(f"| {show(rp.x, u, 'length')} | {show(up.value, u, 'deflection', 6)} | "
                          f"{show(down.value, u, 'deflection', 6)} |")
     return lines + [""]
+
+
+def _standing_check(a: Analysis, t, r) -> list[str]:
+    """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
+    from ..moving import standing_case, standing_loads
+    from ..results import factored_loads
+    from ..solve import curves_with
+    u = report_units(a.loaded.member)
+    lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "
+             "they stand, with the target's other loads), and the response read at the governing x:", "",
+             "| result | forces at | value of the static case | envelope value |", "|---|---|---|---|"]
+    for field, label, kind in MOVING_FIELDS[:4]:
+        loc, crit = getattr(r, field), r.position(field)
+        if loc is None or crit is None:
+            continue
+        loads = standing_case(r.envelope, crit, factored_loads(a.solution, t))
+        curves = curves_with(a.solution, loads)
+        curve = curves.v if kind == "deflection" else curves.M
+        value = curve.at(crit.x, "left") if crit.how == "under a force" else curve.at(crit.x)
+        wheels = ", ".join(show(ld.x, u, "length") for ld in standing_loads(r.envelope, crit)) or "off the member"
+        lines.append(f"| {label} | {wheels} | {show(value, u, kind, 6)} | {show(loc.value, u, kind, 6)} |")
+    return lines
 
 
 def _loads(a: Analysis, t) -> list[str]:

@@ -278,13 +278,31 @@ def envelope_figure(a: Analysis) -> str:
 _PALETTE = ("#1f4e79", "#b22222", "#2e7d32", "#8b4513", "#6a1b9a", "#00838f")
 
 
+def figure_names(a: Analysis) -> dict[str, str]:
+    """Figure key -> file name: "sign convention", "(envelope)", every target's name, and "(moving) NAME" for
+    the influence lines and envelopes of each target with a moving group (no case name has a space)."""
+    out = {"sign convention": "sign-convention.svg", "(envelope)": "envelope.svg"}
+    for i, t in enumerate(a.solution.targets, start=1):
+        out[t.name] = f"{i:02d}-{_safe(t.name)}.svg"
+        if a.solution.member.moving(t.name):
+            out[f"(moving) {t.name}"] = f"{i:02d}-{_safe(t.name)}-moving.svg"
+    return out
+
+
 def all_figures(a: Analysis) -> dict[str, str]:
     """{file name: SVG text} for the whole package, file names sorted and safe."""
-    out = {"sign-convention.svg": sign_convention_figure()}
-    for i, t in enumerate(a.solution.targets, start=1):
-        out[f"{i:02d}-{_safe(t.name)}.svg"] = target_figure(a, t.name)
-    out["envelope.svg"] = envelope_figure(a)
-    return out
+    from .moving_figure import moving_figure
+    out = {}
+    for key, file in figure_names(a).items():
+        if key == "sign convention":
+            out[file] = sign_convention_figure()
+        elif key == "(envelope)":
+            out[file] = envelope_figure(a)
+        elif key.startswith("(moving) "):
+            out[file] = moving_figure(a, key.removeprefix("(moving) "))
+        else:
+            out[file] = target_figure(a, key)
+    return dict(sorted(out.items()))
 
 
 def _safe(name: str) -> str:

@@ -22,14 +22,12 @@ def folder_name(mark: str) -> str:
 
 def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page embeds them)."""
-    from .figures import all_figures
+    from .figures import all_figures, figure_names
     from .html import member_html
     from .markdown import member_markdown
     mark = folder_name(a.loaded.member.mark)
     svgs = all_figures(a)
-    names = {"sign convention": "figures/sign-convention.svg", "(envelope)": "figures/envelope.svg"}  # not a possible case name
-    for (file, _), t in zip(list(svgs.items())[1:], a.solution.targets):
-        names[t.name] = f"figures/{file}"
+    names = {key: f"figures/{file}" for key, file in figure_names(a).items()}
     text = member_markdown(a, names, list(changes))
     files = {f"figures/{k}": v.encode("utf-8") for k, v in svgs.items()}
     files[f"{mark}.md"] = text.encode("utf-8")

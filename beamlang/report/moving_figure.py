@@ -1,0 +1,163 @@
+"""Moving-load figure: Analysis + a target with a moving group -> SVG of influence lines and envelopes.
+
+The influence lines come from the engine's exact kernels (evaluated in floats for drawing); the
+envelopes over x are the largest and smallest response over a fine grid of group positions, for
+the figure only: the values in the tables are the exact ones, and they are marked on the curves."""
+
+from __future__ import annotations
+
+from bisect import bisect_right
+from fractions import Fraction
+
+import numpy as np
+
+from ..display import convert, number, report_units
+from ..moving import kernels_for
+from ..pipeline import Analysis
+from .figures import _pyplot, _svg, changes
+
+POSITIONS = 400  # group positions per direction for the drawn envelopes
+X_SAMPLES = 200  # points along the member for the drawn envelopes
+
+
+class _Lines:
+    """Float influence lines K_q(x, xi) of a unit upward force at xi, from the exact kernels."""
+
+    def __init__(self, a: Analysis, name: str):
+        sol = a.solution
+        self.env = a.result(name).envelope
+        self.kernels = kernels_for(sol, self.env.load)
+        self.xs = sol.xs
+        self.xf = np.array([float(x) for x in sol.xs])
+        self.static = sol.target(name).curves
+        self._float: dict = {}
+
+    def _coeffs(self, q: str, s: int, t: int, side: str, x: float) -> np.ndarray:
+        """Coefficients in xi (highest first) of K_q(x, xi) for x in segment s and xi in segment t."""
+        key = (q, s, t, side)
+        if key not in self._float:
+            field = self.kernels.field(q, s, t, side)
+            deg_x = max((i for i, _ in field), default=0)
+            deg_xi = max((j for _, j in field), default=0)
+            grid = np.zeros((deg_x + 1, deg_xi + 1))
+            for (i, j), c in field.items():
+                grid[i, j] = float(c)
+            self._float[key] = grid
+        grid = self._float[key]
+        in_xi = (x ** np.arange(grid.shape[0])) @ grid
+        return in_xi[::-1]
+
+    def line(self, q: str, x: float, xi: np.ndarray) -> np.ndarray:
+        """K_q(x, xi) for an array of positions inside the travel."""
+        n = len(self.xs) - 1
+        s = min(max(int(np.searchsorted(self.xf, x, side="right")) - 1, 0), n - 1)
+        t_of = np.clip(np.searchsorted(self.xf, xi, side="right") - 1, 0, n - 1)
+        out = np.zeros_like(xi)
+        for t in np.unique(t_of):
+            at = t_of == t
+            if t != s:
+                out[at] = np.polyval(self._coeffs(q, s, int(t), "-", x), xi[at])
+                continue
+            for side, where in (("L", xi > x), ("R", xi <= x)):
+                part = at & where
+                if part.any():
+                    out[part] = np.polyval(self._coeffs(q, s, int(t), side, x), xi[part])
+        return out
+
+    def response(self, q: str, x: float, positions: np.ndarray, offsets) -> np.ndarray:
+        """The static part plus the factored group with its first force at each position."""
+        load, env = self.env.load, self.env
+        k = min(max(bisect_right(self.xs, Fraction(x)) - 1, 0), len(self.xs) - 2)
+        curve = {"v": self.static.v, "M": self.static.M}[q]
+        total = np.full_like(positions, float(curve.pieces[k](Fraction(x))))
+        lo, hi = float(load.lo), float(load.hi)
+        for d, F in zip(offsets, load.forces):
+            xi = positions + float(d)
+            on = (xi >= lo) & (xi <= hi)
+            if on.any():
+                total[on] += float(env.factor * F) * self.line(q, x, xi[on])
+        return total
+
+
+def moving_figure(a: Analysis, name: str) -> str:
+    """Influence lines of v and M at their governing points, and the envelopes of M and v along x."""
+    plt = _pyplot()
+    m = a.loaded.member
+    u = report_units(m)
+    r = a.result(name)
+    lines = _Lines(a, name)
+    load = r.envelope.load
+    to_length = float(convert(Fraction(1), u["length"]))
+    length = lambda x: float(x) * to_length  # noqa: E731  SI metres (exact or float) -> report length unit
+    fig, axes = plt.subplots(4, 1, figsize=(7.0, 8.2), sharex=True, layout=None)
+    fig.subplots_adjust(hspace=0.45, left=0.13, right=0.97, top=0.92, bottom=0.06)
+    xi = np.linspace(float(load.lo), float(load.hi), 801)
+    per_force = 1 / float(convert(Fraction(1), u["force"]))  # newtons in one report force unit
+    for ax, (q, field, quantity, what) in zip(axes[:2], (("v", "max_down", "deflection", "deflection"),
+                                                         ("M", "moment_positive", "moment", "moment"))):
+        at = getattr(r, field) or (r.max_up if q == "v" else r.moment_negative)
+        if at is None:
+            ax.set_axis_off()
+            continue
+        x0 = float(at.x)
+        scale = float(convert(Fraction(1), u[quantity]))
+        ys = -lines.line(q, x0, xi) * per_force * scale  # one report force unit down
+        ax.plot([length(v) for v in xi], ys, color="#1f4e79", linewidth=1.1)
+        ax.axhline(0, color="black", linewidth=0.6)
+        ax.set_ylabel(f"{q} ({u[quantity]})", fontsize=7)
+        ax.set_title(f"influence line: {what} at x = {number(length(at.x))} {u['length']} per 1 {u['force']} "
+                     "down at the position on the axis", fontsize=7, loc="left")
+        crit = r.position(field)
+        if crit is not None:
+            offsets = [-d for d in load.offsets] if crit.reversed else list(load.offsets)
+            for d in offsets:
+                p = crit.position + d
+                if load.lo <= p <= load.hi:
+                    ax.axvline(length(p), color="#8b4513", linewidth=0.8, linestyle="--")
+    positions, offsets_all = _positions(load)
+    xs = np.unique(np.concatenate([np.linspace(0.0, float(m.length), X_SAMPLES), lines.xf]))
+    for ax, (q, quantity, marks) in zip(axes[2:], (("M", "moment", (r.moment_positive, r.moment_negative)),
+                                                 ("v", "deflection", (r.max_down, r.max_up)))):
+        scale = float(convert(Fraction(1), u[quantity]))
+        top, bottom = [], []
+        for x in xs:
+            values = np.concatenate([lines.response(q, float(x), positions, offs) for offs in offsets_all])
+            top.append(values.max() * scale)
+            bottom.append(values.min() * scale)
+        px = [length(x) for x in xs]
+        ax.fill_between(px, top, bottom, color="#1f4e79", alpha=0.15)
+        ax.plot(px, top, color="#1f4e79", linewidth=1.0)
+        ax.plot(px, bottom, color="#1f4e79", linewidth=1.0)
+        ax.axhline(0, color="black", linewidth=0.6)
+        for x in changes(m, u) + [length(h.x) for h in m.hinges]:
+            ax.axvline(x, color="#777777", linewidth=0.6, linestyle=":")
+        ax.set_ylabel(f"{q} ({u[quantity]})", fontsize=7)
+        ax.set_title(f"envelope of {q} over every position of the group (drawn from {2 * POSITIONS if len(offsets_all) > 1 else POSITIONS} "
+                     "positions; the dots are the exact extremes)", fontsize=7, loc="left")
+        for loc in marks:
+            if loc is None:
+                continue
+            x, y = length(loc.x), float(convert(loc.value, u[quantity]))
+            ax.plot([x], [y], "o", color="#b22222", markersize=3)
+            ax.annotate(f"{number(y)} at {number(x)} {u['length']}", (x, y), textcoords="offset points",
+                        xytext=(4, 4 if y >= 0 else -10), fontsize=7, color="#b22222")
+    for ax in axes:
+        for sp in m.supports:
+            ax.axvline(length(sp.x), color="black", linewidth=0.5, alpha=0.4)
+    axes[-1].set_xlabel(f"x ({u['length']}) from the left end; for the influence lines, where a force stands")
+    axes[-1].set_xlim(-0.02 * length(m.length), 1.02 * length(m.length))
+    fig.suptitle(f"{name}: moving group, influence lines and envelopes (dashed: the group where the value governs)",
+                 fontsize=8, x=0.02, ha="left")
+    return _svg(fig)
+
+
+def _positions(load) -> tuple[np.ndarray, list]:
+    """First-force positions from entering to leaving, and the offsets of each travel direction."""
+    forward = list(load.offsets)
+    backward = [-d for d in load.offsets]
+    out = []
+    for offs in (forward, backward) if len(load.forces) > 1 else (forward,):
+        out.append(offs)
+    lo = float(load.lo) - float(max(max(o) for o in out))
+    hi = float(load.hi) - float(min(min(o) for o in out))
+    return np.linspace(lo, hi, POSITIONS), out
