@@ -16,7 +16,7 @@ from .units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 MIN_SPAN = Fraction(1, 1000)  # m
 FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
 MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "density": "density"}
-SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span"}
+SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Catalogue: "catalogue"}
 
 
 def build(doc: s.Document) -> m.Member:

@@ -62,8 +62,9 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("--junit", metavar="FILE", help="also write JUnit XML: one test case per member check")
     size = sub.add_parser("size", help="the lightest section of a catalogue that passes every check")
     size.add_argument("member", metavar="MEMBER.beam")
-    size.add_argument("--catalogue", required=True, metavar="FILE.csv",
-                      help="CSV with a header name,section (see beamlang/catalogues/)")
+    size.add_argument("--catalogue", metavar="FILE.csv",
+                      help="CSV with a header name,section (see beamlang/catalogues/); default: the member's "
+                           "`catalogue` line")
     size.add_argument("--write", action="store_true", help="write the chosen section into the member file")
     size.set_defaults(run=_run_size)
     diff = sub.add_parser("diff", help="what a revision changed: inputs, results and check status")
@@ -196,13 +197,13 @@ def _run_check(args: argparse.Namespace) -> int:
 
 def _run_size(args: argparse.Namespace) -> int:
     from .frontend import load
-    from .size import read_catalogue, try_all, with_section
+    from .size import catalogue_of, read_catalogue, shown, try_all, with_section
     item = load(Path(args.member))
-    catalogue = Path(args.catalogue)
-    trials = try_all(item, read_catalogue(catalogue), catalogue.as_posix())
+    catalogue = Path(args.catalogue) if args.catalogue else catalogue_of(item)
+    trials = try_all(item, read_catalogue(catalogue), shown(catalogue))
     passing = [t for t in trials if t.passed]
     unit = "N/m" if item.member.material.density else "m^2 (area: no density given)"
-    print(f"{item.member.mark}: {len(trials)} sections tried from {catalogue.as_posix()}, {len(passing)} pass; "
+    print(f"{item.member.mark}: {len(trials)} sections tried from {shown(catalogue)}, {len(passing)} pass; "
           f"lightest first (weight in {unit})")
     for t in trials:
         mark = "->" if passing and t is passing[0] else "  "

@@ -141,7 +141,7 @@ def _index(doc: s.Document) -> dict[tuple, s.Statement]:
             n = seen.get((None, kind), 0)
             seen[(None, kind)] = n + 1
             key = (kind, n)
-        elif isinstance(st, (s.Member, s.Units, s.SpanLength, s.Material, s.Section)):
+        elif isinstance(st, (s.Member, s.Units, s.SpanLength, s.Material, s.Section, s.Catalogue)):
             key = (type(st).__name__.lower(),)
         elif isinstance(st, s.Hinge):
             key = ("hinge", str(st.at))

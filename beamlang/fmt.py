@@ -57,11 +57,12 @@ def _group_key(st: s.Statement) -> str:
 
 _KEY = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
         s.Section: "section", s.Support: "support", s.Hinge: "hinge", s.Case: "case", s.Combine: "combine",
-        s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note"}
+        s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note",
+        s.Catalogue: "catalogue"}
 _GROUP_ORDER = ("title", "geometry", "support", "case", "rest", "note", "orphan")
 _MEMBERS = {
     "title": ("member",) + tuple("field:" + f for f in FIELD_ORDER),
-    "geometry": ("units", "span", "material", "section"),
+    "geometry": ("units", "span", "material", "section", "catalogue"),
     "support": ("support", "hinge"), "case": ("case",), "rest": ("combine", "limit", "slope", "check", "report"),
     "note": ("note",), "orphan": ("orphan",),
 }
@@ -143,4 +144,5 @@ _TEXT = {
     s.StressCheck: lambda st: f"check stress {st.target.text}",
     s.Report: lambda st: f"report deflection at {st.at}",
     s.Note: lambda st: f"note {_quote(st.text)}",
+    s.Catalogue: lambda st: f"catalogue {_quote(st.path)}",
 }

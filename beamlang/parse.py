@@ -15,7 +15,7 @@ from .source import Source, Span
 
 KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
             "material", "section", "support", "hinge", "case", "point", "uniform", "linear", "moment",
-            "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note")
+            "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note", "catalogue")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 TERMINAL_WORDS = {
@@ -349,6 +349,9 @@ class _Build(Transformer):
 
     def note(self, text: Token) -> s.Note:
         return s.Note(_unquote(str(text)), self._stmt_span())
+
+    def catalogue(self, path: Token) -> s.Catalogue:
+        return s.Catalogue(_unquote(str(path)), self._stmt_span())
 
 
 def read_source(path: str | Path, shown_as: str | None = None) -> Source:

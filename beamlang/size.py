@@ -54,6 +54,31 @@ def read_catalogue(path: Path) -> list[tuple[int, str, str]]:
     return rows
 
 
+SHIPPED = Path(__file__).resolve().parent / "catalogues"
+
+
+def catalogue_of(item: Loaded) -> Path:
+    """The catalogue named by the member's `catalogue` line: a path from the member's folder, or the
+    file name of a catalogue shipped with beamlang (beamlang/catalogues/)."""
+    line = next((st for _, st in item.document.statements if isinstance(st, s.Catalogue)), None)
+    if line is None:
+        raise BeamError([Diagnostic(Span(item.source.name, 1, 1, 2), "no catalogue to size from",
+                                    "give `--catalogue FILE.csv`, or add e.g. `catalogue \"sawn-lumber-ps20.csv\"` "
+                                    "to the member")])
+    folder = Path(item.path).parent if item.path is not None else Path(".")
+    for candidate in (folder / line.path, SHIPPED / line.path):
+        if candidate.is_file():
+            return candidate
+    shipped = ", ".join(sorted(p.name for p in SHIPPED.glob("*.csv")))
+    raise BeamError([Diagnostic(line.span, f"catalogue '{line.path}' not found beside the member or among the "
+                                "shipped ones", f"the shipped catalogues are: {shipped}")], item.source)
+
+
+def shown(path: Path) -> str:
+    """A catalogue's name in messages: shipped ones by their place in the package, others as given."""
+    return f"beamlang/catalogues/{path.name}" if path.resolve().parent == SHIPPED else path.as_posix()
+
+
 def with_section(item: Loaded, section_text: str) -> str:
     """The member's file text with its section line replaced, indentation and comment kept."""
     line = next(ln for ln in item.document.lines if isinstance(ln.statement, s.Section))

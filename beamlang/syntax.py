@@ -235,6 +235,14 @@ class Report:
 
 
 @dataclass(frozen=True, slots=True)
+class Catalogue:
+    """`catalogue "FILE.csv"`: the sections `beamlang size` tries for this member."""
+
+    path: str
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Note:
     text: str
     span: Span
@@ -243,7 +251,7 @@ class Note:
 Statement = (
     Member | Field | Units | SpanLength | Material | Section | Support | Hinge | Case | Point | Uniform
     | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Limit | SlopeLimit | StressCheck | Report
-    | Note
+    | Note | Catalogue
 )
 LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement, Moving)
 

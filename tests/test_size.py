@@ -69,3 +69,29 @@ def test_a_stepped_member_is_not_sized_from_a_catalogue(tmp_path, monkeypatch, c
     err = capsys.readouterr().err
     assert err.startswith("j.beam:4:1: error: a catalogue sizes a prismatic member; this one is stepped\n")
     assert (tmp_path / "j.beam").read_text(encoding="utf-8") == stepped  # nothing written
+
+
+def test_the_member_names_its_catalogue(tmp_path, monkeypatch, capsys):
+    # The example was sized with its own `catalogue` line: sizing it again picks the section it holds,
+    # so --write changes nothing.
+    example = Path(__file__).resolve().parent.parent / "examples" / "floor-joist-sized-us.beam"
+    text = example.read_text(encoding="utf-8")
+    (tmp_path / "j.beam").write_text(text, encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    assert main(["size", "j.beam", "--write"]) == 0
+    out = capsys.readouterr().out
+    assert "sections tried from beamlang/catalogues/sawn-lumber-ps20.csv" in out
+    assert "lightest passing: 2x10;" in out
+    assert (tmp_path / "j.beam").read_text(encoding="utf-8") == text
+
+
+def test_a_catalogue_that_is_not_there(tmp_path, monkeypatch, capsys):
+    (tmp_path / "j.beam").write_text(JOIST + 'catalogue "our-stock.csv"\n', encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    assert main(["size", "j.beam"]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("j.beam:11:1: error: catalogue 'our-stock.csv' not found beside the member or among "
+                          "the shipped ones\n")
+    (tmp_path / "k.beam").write_text(JOIST, encoding="utf-8")
+    assert main(["size", "k.beam"]) == 2
+    assert "error: no catalogue to size from" in capsys.readouterr().err
