@@ -11,6 +11,7 @@ Table 3-23, case 1, from memory)."""
 from __future__ import annotations
 
 from fractions import Fraction as F
+from pathlib import Path
 
 import pytest
 import sympy
@@ -249,3 +250,65 @@ def test_diff_names_stretch_hinge_and_slope_limit_changes():
         ("added", "slope limit on every case", None, "limit slope at supports 0.004 rad"),
         ("removed", "hinge at 7.5 m", "hinge at 7.5 m", None),
     ]
+
+
+# -- the three examples of stepped and hinged members, against their references ------------------------------------
+EXAMPLES = Path(__file__).resolve().parent.parent / "examples"
+
+
+def _example(name: str):
+    return analyse_text((EXAMPLES / name).read_text(encoding="utf-8"))
+
+
+def _unit_load_integral(stretches, pieces):
+    """Sum over [lo, hi] pieces of M(x) m(x) / EI(x), exactly, with EI from the member's stretches."""
+    x = sympy.Symbol("x")
+    total = sympy.Integer(0)
+    for lo, hi, expr in pieces:
+        cuts = sorted({lo, hi} | {st.x1 for st in stretches if lo < st.x1 < hi})
+        for a, b in zip(cuts, cuts[1:]):
+            st = next(s for s in stretches if s.x1 <= a and b <= s.x2)
+            EI = sympy.Rational(st.EI.numerator, st.EI.denominator)
+            total += sympy.integrate(expr, (x, sympy.Rational(a.numerator, a.denominator),
+                                            sympy.Rational(b.numerator, b.denominator))) / EI
+    return total, x
+
+
+def _fraction(expr) -> F:
+    return F(int(sympy.numer(expr)), int(sympy.denom(expr)))
+
+
+def test_hinged_purlin_example_by_statics():
+    # P-9, balanced snow 1.05 kN/m: the drop-in length between the hinges (6.9 m to 11.1 m) hangs on them,
+    # w x 4.2 / 2 at each; the end bay then by moments about its pin: 6 R = w 6.9^2 / 2 + 2.205 x 6.9.
+    r = _example("hinged-roof-purlin.beam").result("snow")
+    w = F(1050)
+    hang = w * F(42, 10) / 2
+    inner = (w * F(69, 10) ** 2 / 2 + hang * F(69, 10)) / 6
+    outer = w * F(69, 10) + hang - inner
+    assert [f for _, f, _ in r.reactions] == [outer, inner, inner, outer]
+
+
+def test_cover_plated_girder_example_by_unit_load():
+    # G-5, live case: 62 kN at 3 m and 6 m on the 9 m span; midspan deflection = integral of M m / EI
+    # stretch by stretch (M of the two forces, m of a unit force at midspan; symmetric halves).
+    a = _example("cover-plated-girder.beam")
+    x = sympy.Symbol("x")
+    m = x / 2  # left half; M is 62 kN x x up to the first force, then constant 186 kN m
+    half, _ = _unit_load_integral(a.loaded.member.stretches, [(F(0), F(3), 62000 * x * m), (F(3), F(9, 2), 186000 * m)])
+    r = a.result("live")
+    assert r.max_down.value == -2 * _fraction(half) and r.max_down.x == F(9, 2)
+
+
+def test_stepped_shaft_example_by_unit_load():
+    # SH-2, chain case: 2.4 kN down at the sprocket (0.79 m), bearings at 0.04 m and 0.7 m. Its deflection
+    # there is P times the integral of m^2 / EI, m the moment of a unit force at the sprocket.
+    a = _example("conveyor-shaft-stepped.beam")
+    x = sympy.Symbol("x")
+    A, B, C = sympy.Rational(4, 100), sympy.Rational(7, 10), sympy.Rational(79, 100)
+    inside = -(C - B) * (x - A) / (B - A)
+    outside = -(C - x)
+    integral, _ = _unit_load_integral(a.loaded.member.stretches,
+                                      [(F(4, 100), F(7, 10), inside**2), (F(7, 10), F(79, 100), outside**2)])
+    v = a.solution.target("chain").curves.v.at(F(79, 100))
+    assert v == -2400 * _fraction(integral)
