@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
+from .extrema import SAME
 from .model import Member
 from .results import TargetResult
 from .source import Span
@@ -60,7 +61,8 @@ def _deflection(limit, r: TargetResult) -> Check:
     for region in r.regions:
         allowed = region.basis / limit.divisor
         actual = abs(region.max_abs.value) if region.max_abs else Fraction(0)
-        if best is None or actual / allowed > best[0] / best[1]:
+        # a larger ratio governs; equal ones (symmetry, to the precision of irrational places) keep the first
+        if best is None or actual / allowed > best[0] / best[1] * (1 + SAME):
             best = (actual, allowed, region)
     actual, allowed, region = best
     n = _num(limit.divisor)

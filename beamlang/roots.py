@@ -51,58 +51,76 @@ def _sturm(p: Poly) -> list[Poly]:
     return seq
 
 
+def _square_free_sturm(p: Poly) -> tuple[Poly, list[Poly]]:
+    """The square-free part of p and its Sturm sequence. The sequence of p ends in gcd(p, p') (up to a
+    constant), so when that is a constant p is already square-free and one pass serves both."""
+    if p.degree <= 1:
+        return p, [p]
+    seq = _sturm(p)
+    if seq[-1].degree == 0:
+        return p, seq
+    q = _monic(p.divmod(_monic(seq[-1]))[0])
+    return q, (_sturm(q) if q.degree > 1 else [q])
+
+
 def _changes(seq: list[Poly], x: Fraction) -> int:
     signs = [v for v in (q(x) for q in seq) if v != 0]
     return sum(1 for u, v in zip(signs, signs[1:]) if (u < 0) != (v < 0))
 
 
 def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
-    """Every distinct real root of p strictly inside (a, b), in increasing order."""
-    if p.degree < 1 or a >= b or not _may_vanish(p, a, b):
+    """Every distinct real root of p strictly inside (a, b), in increasing order.
+
+    The search runs on p shifted to the segment start (h = x - a): its coefficients are those of the
+    Taylor form at a, small where the segment is short, so the float steps stay well conditioned."""
+    if p.degree < 1 or a >= b:
         return []
-    q = square_free(p)
+    c = p.taylor(a)
+    width = b - a
+    if not _may_vanish(c, width):
+        return []
+    q, seq = _square_free_sturm(_monic(c))
     if q.degree == 1:
-        x = -q.coeffs[0] / q.coeffs[1]
-        return [Root(x, x, x, q)] if a < x < b else []
-    seq = _sturm(q)
+        h = -q.coeffs[0] / q.coeffs[1]
+        return [Root(a + h, a + h, a + h, p)] if 0 < h < width else []
     found: list[Root] = []
-    stack = [(a, b)]
+    stack = [(Fraction(0), width)]
     while stack:
         lo, hi = stack.pop()
         n = _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)
         if n == 0:
             continue
         if n == 1 and q(lo) != 0:
-            found.append(_refine(q, lo, hi))
+            found.append(_refine(q, lo, hi, a, p))
             continue
         mid = (lo + hi) / 2
         if q(mid) == 0:
-            found.append(Root(mid, mid, mid, q))
+            found.append(Root(a + mid, a + mid, a + mid, p))
         stack += [(lo, mid), (mid, hi)]
     return sorted(found, key=lambda r: r.x)
 
 
-def _may_vanish(p: Poly, a: Fraction, b: Fraction) -> bool:
-    """False when p surely has no root in [a, b]: |p(a)| exceeds the Taylor bound of the rest."""
-    c = p.taylor(a).coeffs
-    width = b - a
+def _may_vanish(c: Poly, width: Fraction) -> bool:
+    """False when the polynomial (in h, the Taylor form at the segment start) surely has no root for
+    0 <= h <= width: |c0| exceeds the bound of the rest."""
     rest, power = Fraction(0), Fraction(1)
-    for ck in c[1:]:
+    for ck in c.coeffs[1:]:
         power *= width
         rest += abs(ck) * power
-    return abs(c[0]) <= rest
+    return bool(c.coeffs) and abs(c.coeffs[0]) <= rest
 
 
-def _refine(q: Poly, lo: Fraction, hi: Fraction) -> Root:
-    """Narrow a simple root's isolating interval to below |x| * 2**-64, exactly verified."""
-    tight = _float_bracket(q, lo, hi)
+def _refine(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
+    """Narrow a simple root of q (in h = x - at) to below |x| * 2**-56, exactly verified; a Root in x."""
+    tight = _float_bracket(q, lo, hi, at)
     if tight is not None:
         lo, hi = tight
-    return _bisect(q, lo, hi)
+    return _bisect(q, lo, hi, at, p)
 
 
-def _float_bracket(q: Poly, lo: Fraction, hi: Fraction) -> tuple[Fraction, Fraction] | None:
-    """Safeguarded Newton in floats, then a bracket of a few ulps whose sign change is checked exactly."""
+def _float_bracket(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> tuple[Fraction, Fraction] | None:
+    """Safeguarded Newton in floats, then a bracket of a few ulps of x = at + h whose sign change is
+    checked exactly."""
     coeffs = [float(c) for c in q.coeffs]
     deriv = [i * c for i, c in enumerate(coeffs)][1:]
     a, b = float(lo), float(hi)
@@ -121,8 +139,9 @@ def _float_bracket(q: Poly, lo: Fraction, hi: Fraction) -> tuple[Fraction, Fract
         d = _horner(deriv, x)
         newton = x - f / d if d else math.nan
         x = newton if a < newton < b else (a + b) / 2
-    for bits in (48, 40, 30):  # float evaluation loses digits to cancellation: widen until verified
-        width = Fraction(max(abs(x), 1e-300)) * Fraction(1, 2**bits)
+    scale = max(abs(float(at) + x), abs(x), 1e-300)  # widths relative to x, not to h
+    for bits in (REFINE_BITS + 1, 53, 48, 40, 30):  # floats lose digits to cancellation: widen until verified
+        width = Fraction(scale) * Fraction(1, 2**bits)
         lo2, hi2 = max(lo, Fraction(x) - width), min(hi, Fraction(x) + width)
         f_lo, f_hi = q(lo2), q(hi2)
         if f_lo != 0 and f_hi != 0 and (f_lo > 0) != (f_hi > 0):
@@ -137,32 +156,33 @@ def _horner(coeffs: list[float], x: float) -> float:
     return acc
 
 
-def _bisect(q: Poly, lo: Fraction, hi: Fraction) -> Root:
-    """Bisect a simple root to full double precision; recognise small-denominator rational roots."""
+def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
+    """Bisect a simple root of q (in h = x - at) to full double precision in x; recognise small-denominator
+    rational roots."""
     s_lo = q(lo) > 0
-    tol = max(abs(lo), abs(hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+    tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
     guessed = False
     while hi - lo > tol:
         mid = (lo + hi) / 2
         value = q(mid)
         if value == 0:
-            return Root(mid, mid, mid, q)
+            return Root(at + mid, at + mid, at + mid, p)
         if (value > 0) == s_lo:
             lo = mid
         else:
             hi = mid
         if not guessed and hi - lo < Fraction(1, 10**9):
             guessed = True
-            guess = _rational_guess(q, lo, hi)
+            guess = _rational_guess(q, lo, hi, at)
             if guess is not None:
-                return Root(guess, guess, guess, q)
-    guess = _rational_guess(q, lo, hi)
-    return Root(guess, guess, guess, q) if guess is not None else Root(lo, hi, None, q)
+                return Root(guess, guess, guess, p)
+    guess = _rational_guess(q, lo, hi, at)
+    return Root(guess, guess, guess, p) if guess is not None else Root(at + lo, at + hi, None, p)
 
 
-def _rational_guess(q: Poly, lo: Fraction, hi: Fraction) -> Fraction | None:
-    """A rational with a small denominator inside (lo, hi) that is exactly a root, if any."""
+def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> Fraction | None:
+    """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any."""
     if hi - lo > Fraction(1, 10**9):
         return None
-    c = ((lo + hi) / 2).limit_denominator(10**12)
-    return c if lo <= c <= hi and q(c) == 0 else None
+    c = (at + (lo + hi) / 2).limit_denominator(10**12)
+    return c if lo <= c - at <= hi and q(c - at) == 0 else None
