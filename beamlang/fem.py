@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from bisect import bisect_left
 from fractions import Fraction
 
 import numpy as np
@@ -21,10 +22,10 @@ def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
     tol = member.length * MIN_ELEMENT
     nodes = sorted({Fraction(0), member.length, *(sp.x for sp in member.supports), *(h.x for h in member.hinges),
                     *(st.x1 for st in member.stretches)})
-    for x in xs:
-        if all(abs(x - n) >= tol for n in nodes):
-            nodes.append(x)
-            nodes.sort()
+    for x in xs:  # nodes stay sorted: only the neighbours of x can be too close
+        k = bisect_left(nodes, x)
+        if all(abs(x - nodes[j]) >= tol for j in (k - 1, k) if 0 <= j < len(nodes)):
+            nodes.insert(k, x)
     return tuple(nodes)
 
 

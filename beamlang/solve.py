@@ -99,7 +99,8 @@ def solve(member: Member) -> Solution:
         targets.append(Target(case.name, "case", solved, (), solved.curves))
     by_name = {t.name: t for t in targets}
     for combo in member.combinations:
-        total = _sum([by_name[name].curves.scaled(f) for f, name in combo.terms], member, xs)
+        total = _sum([by_name[name].curves if f == 1 else by_name[name].curves.scaled(f)
+                      for f, name in combo.terms], member, xs)
         targets.append(Target(combo.name, "combination", None, combo.terms, total))
     return Solution(member, xs, EI, primary, tuple(targets))
 
@@ -125,8 +126,10 @@ def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
 
 
 def _sum(curves: list[Curves], member: Member, xs) -> Curves:
-    total = _zero(member, xs)
-    for c in curves:
+    if not curves:
+        return _zero(member, xs)
+    total = curves[0]
+    for c in curves[1:]:
         total = total + c
     return total
 
@@ -207,9 +210,10 @@ def _apply(A, b) -> list:
     return [sum((a * v for a, v in zip(row, b)), Fraction(0)) for row in A]
 
 
-def _unit(member: Member, r: Restraint) -> Load:
+def _unit(member: Member, r: Restraint, value=Fraction(1)) -> Load:
+    """The redundant as a load on the primary beam: a force or a couple at its support."""
     sp = member.supports[r.support]
-    return PointLoad(sp.x, Fraction(1), sp.span) if r.kind == "force" else MomentLoad(sp.x, Fraction(1), sp.span)
+    return PointLoad(sp.x, value, sp.span) if r.kind == "force" else MomentLoad(sp.x, value, sp.span)
 
 
 def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
@@ -224,13 +228,17 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
     target = [moved.get(member.supports[r.support].x, Fraction(0)) if r.kind == "force" else Fraction(0)
               for r in primary.redundants]
     X = linsolve(primary.flexibility, [t - d for t, d in zip(target, D0)]) if D0 else ()
-    total = base
-    for x_j, unit, r in zip(X, primary.units, primary.redundants):
-        part = unit.scaled(x_j)
-        reactions = list(part.reactions)
+    if not X:
+        return LoadSolution(tuple(loads), base, D0, (), base)
+    # the real member: the primary beam under the loads and the redundants found (the same exact curves as
+    # base + sum of X_j times the unit curves, by linearity, for one more integration instead of many sums)
+    acting = list(loads) + [_unit(member, r, x_j) for x_j, r in zip(X, primary.redundants)]
+    total = _on_primary(member, xs, EI, primary, acting)
+    reactions = list(total.reactions)
+    for x_j, r in zip(X, primary.redundants):
         force, moment = reactions[r.support]
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
-        total = total + Curves(part.V, part.M, part.theta, part.v, tuple(reactions))
+    total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions))
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
 
 
