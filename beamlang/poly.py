@@ -3,8 +3,7 @@
 from __future__ import annotations
 
 from bisect import bisect_left, bisect_right
-from dataclasses import dataclass
-from functools import lru_cache
+from dataclasses import dataclass, field
 from fractions import Fraction
 from math import gcd
 from typing import Iterable, Sequence
@@ -20,7 +19,6 @@ def _trim(coeffs: Iterable) -> tuple:
     return tuple(out)
 
 
-@lru_cache(maxsize=8192)
 def _integer_form(coeffs: tuple) -> tuple[int, list[int]]:
     """(D, integer coefficients) with p = (sum of ints_i x^i) / D."""
     D = 1
@@ -37,6 +35,7 @@ class Poly:
     `symbolic.Sym` numbers to derive each load's formula in symbols."""
 
     coeffs: tuple = ()
+    _form: tuple | None = field(default=None, compare=False, repr=False)  # integer form, made on first use
 
     @staticmethod
     def of(*coeffs) -> "Poly":
@@ -89,7 +88,11 @@ class Poly:
 
     def _exact_at(self, x: Fraction) -> Fraction:
         """Horner's rule on integers: p(n/d) = sum(c_i n^i d^(k-i)) / (D d^k), one Fraction at the end."""
-        D, ints = _integer_form(self.coeffs)
+        form = self._form
+        if form is None:
+            form = _integer_form(self.coeffs)
+            object.__setattr__(self, "_form", form)  # a cache: the value of the polynomial does not change
+        D, ints = form
         n, d = x.numerator, x.denominator
         acc, dpow = ints[-1], 1
         for c in reversed(ints[:-1]):
