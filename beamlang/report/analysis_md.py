@@ -261,6 +261,7 @@ def _hinges(a: Analysis, t) -> list[str]:
     if not m.hinges:
         return []
     c = t.curves
+    u = report_units(m)
     lines = ["### Hinge conditions", "", "At every hinge: the moment from either side, the deflection from either side "
              "(equal: no gap) and the slope jump Δθ = θ(right) - θ(left).", "",
              "| hinge (input line) | M left | M right | v left = v right | Δθ |", "|---|---|---|---|---|"]
@@ -269,8 +270,8 @@ def _hinges(a: Analysis, t) -> list[str]:
         vl, vr = c.v.at(h.x, "left"), c.v.at(h.x, "right")
         assert ml == 0 and mr == 0 and vl == vr, "hinge conditions must hold exactly"
         jump = c.theta.at(h.x, "right") - c.theta.at(h.x, "left")
-        lines.append(f"| x = {plain(h.x)} m (line {h.span.line}) | {num(ml)} N·m | {num(mr)} N·m | "
-                     f"{plain(vl, 8)} m | {plain(jump, 8)} rad |")
+        lines.append(f"| x = {show(h.x, u, 'length')} (line {h.span.line}) | {show(ml, u, 'moment')} | "
+                     f"{show(mr, u, 'moment')} | {show(vl, u, 'deflection', 6)} | {plain(jump, 8)} rad |")
     return lines + [""]
 
 
