@@ -30,8 +30,10 @@ class Check:
 
     @property
     def label(self) -> str:
-        """How the check is named wherever it is listed: kind, target and input line."""
-        return f"{self.kind} {self.target} (line {self.span.line})"
+        """How the check is named wherever it is listed: kind, target and input line (and the support,
+        for a slope limit, which gives one check per support)."""
+        where = f" at x = {_num(self.x)} m" if self.kind == "support slope" else ""
+        return f"{self.kind} {self.target}{where} (line {self.span.line})"
 
     @property
     def ratio(self) -> float:

@@ -219,6 +219,8 @@ def _prop_text(p: s.Property) -> str:
 # -- results and checks ---------------------------------------------------------------------------
 
 def _key(c) -> str:
+    if c.kind == "support slope":  # one check per support
+        return f"{c.kind} {c.target} at x = {float(c.x):.6g} m"
     basis = c.basis.split(",")[0] if c.kind == "deflection" else c.kind
     return f"{c.kind} {c.target}" + (f" ({basis})" if c.kind == "deflection" else "")
 

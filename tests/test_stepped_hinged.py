@@ -317,3 +317,13 @@ def test_stepped_shaft_example_by_unit_load():
                                       [(F(4, 100), F(7, 10), inside**2), (F(7, 10), F(79, 100), outside**2)])
     v = a.solution.target("chain").curves.v.at(F(79, 100))
     assert v == -2400 * _fraction(integral)
+
+
+def test_slope_checks_are_named_per_support():
+    # one check per bearing: JUnit names and the diff's matching must tell them apart
+    from beamlang.diff import _key
+    text = _text("6 m", ["properties I 8e7 mm^4"], ["pin at 0 m", "roller at 4 m", "roller at span"],
+                 ["uniform 5 kN/m down"], ["limit slope at supports 0.003 rad"])
+    checks = analyse_text(text).checks
+    assert [c.label for c in checks] == [f"support slope a at x = {x} m (line 10)" for x in (0, 4, 6)]
+    assert len({_key(c) for c in checks}) == 3
