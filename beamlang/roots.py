@@ -51,6 +51,41 @@ def _sturm(p: Poly) -> list[Poly]:
     return seq
 
 
+def _quadratic(q: Poly, width: Fraction, at: Fraction, p: Poly) -> list[Root] | None:
+    """Roots of a monic h^2 + B h + C inside (0, width) in closed form: exact when the discriminant is
+    a rational square, else bracketed by integer square roots to below |x| * 2**-56. None when a bracket
+    straddles an end of the interval (the general search decides those)."""
+    C, B = q.coeffs[0], q.coeffs[1]
+    D = B * B - 4 * C
+    if D < 0:
+        return []
+    if D == 0:
+        h = -B / 2
+        return [Root(at + h, at + h, at + h, p)] if 0 < h < width else []
+    nd, d = D.numerator * D.denominator, D.denominator
+    s = math.isqrt(nd)
+    if s * s == nd:  # rational roots
+        r = Fraction(s, d)
+        return [Root(at + h, at + h, at + h, p) for h in sorted(((-B - r) / 2, (-B + r) / 2)) if 0 < h < width]
+    out = []
+    for sign in (-1, 1):
+        k = 64
+        while True:
+            S = math.isqrt(nd << (2 * k))  # sqrt(nd) * 2**k lies in [S, S + 1)
+            lo_r, hi_r = Fraction(S, d << k), Fraction(S + 1, d << k)
+            lo, hi = ((-B + lo_r) / 2, (-B + hi_r) / 2) if sign > 0 else ((-B - hi_r) / 2, (-B - lo_r) / 2)
+            tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+            if hi - lo <= tol:
+                break
+            k *= 2
+        if hi <= 0 or lo >= width:
+            continue
+        if lo <= 0 or hi >= width:
+            return None
+        out.append(Root(at + lo, at + hi, None, p))
+    return out
+
+
 def _square_free_sturm(p: Poly) -> tuple[Poly, list[Poly]]:
     """The square-free part of p and its Sturm sequence. The sequence of p ends in gcd(p, p') (up to a
     constant), so when that is a constant p is already square-free and one pass serves both."""
@@ -79,6 +114,10 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
     width = b - a
     if not _may_vanish(c, width):
         return []
+    if c.degree == 2:
+        found = _quadratic(c * (1 / c.coeffs[-1]), width, a, p)  # leading coefficient +1 (not _monic's |.|)
+        if found is not None:
+            return found
     q, seq = _square_free_sturm(_monic(c))
     if q.degree == 1:
         h = -q.coeffs[0] / q.coeffs[1]

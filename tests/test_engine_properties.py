@@ -6,6 +6,7 @@ from fractions import Fraction as F
 
 import numpy as np
 from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from beamlang.model import LineLoad, MomentLoad, PointLoad
 from beamlang.roots import roots_in
@@ -168,3 +169,20 @@ def test_model_loads_keep_their_kinds():
                                  {"a": ["point 1 kN down at 1 m", "moment 1 kN*m clockwise at 2 m", "uniform 1 kN/m up"]}))
     kinds = [type(l) for l in a.loaded.member.cases[0].loads]
     assert kinds == [PointLoad, MomentLoad, LineLoad]
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.integers(-60, 60), st.integers(-60, 60), st.integers(1, 40), st.integers(-20, 20), st.integers(1, 9),
+       st.sampled_from([1, -1, F(-1, 48000), F(7, 3)]))
+def test_quadratic_roots_in_closed_form_agree_with_the_general_search(b, c, scale, a, w, lead):
+    # a quadratic's roots come from its discriminant; the same polynomial times a factor whose root lies far
+    # outside the interval goes through the Sturm search: both must find the same roots, equally exact
+    p = Poly.of(F(c, scale), F(b, scale), 1) * lead
+    lo, hi = F(a, 4), F(a, 4) + F(w, 3)
+    direct = roots_in(p, lo, hi)
+    general = roots_in(p * Poly.of(-(hi + 10), 1), lo, hi)
+    assert len(direct) == len(general)
+    for r1, r2 in zip(direct, general):
+        assert (r1.exact is None) == (r2.exact is None)
+        assert abs(r1.x - r2.x) <= max(abs(r1.x), F(1, 10**6)) * F(1, 2**54)
+        assert r1.lo <= r1.x <= r1.hi and p(r1.lo) * p(r1.hi) <= 0  # a true bracket of a root of p
