@@ -36,7 +36,7 @@ def summary(a: Analysis) -> list[str]:
     return lines + ["", verdict, ""]
 
 
-def target(a: Analysis, name: str, figure: str, moving_figure: str | None = None) -> list[str]:
+def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None = None) -> list[str]:
     t = a.solution.target(name)
     r = a.result(name)
     m = a.loaded.member
@@ -52,9 +52,11 @@ def target(a: Analysis, name: str, figure: str, moving_figure: str | None = None
         lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
                   "(exact, by linearity).", ""]
     if r.envelope is not None:
-        return lines + _moving(a, t, r) + [
-            f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", "",
-            f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
+        lines += _moving(a, t, r) + [
+            f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", ""]
+        if figure is None:  # the moving group alone: no static curves to draw
+            return lines
+        return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
     lines += _superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]

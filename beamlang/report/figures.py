@@ -283,8 +283,10 @@ def figure_names(a: Analysis) -> dict[str, str]:
     the influence lines and envelopes of each target with a moving group (no case name has a space)."""
     out = {"sign convention": "sign-convention.svg", "(envelope)": "envelope.svg"}
     for i, t in enumerate(a.solution.targets, start=1):
-        out[t.name] = f"{i:02d}-{_safe(t.name)}.svg"
-        if a.solution.member.moving(t.name):
+        moving = a.solution.member.moving(t.name)
+        if not moving or any(p.coeffs for p in t.curves.v.pieces):  # a moving case alone has no static curves
+            out[t.name] = f"{i:02d}-{_safe(t.name)}.svg"
+        if moving:
             out[f"(moving) {t.name}"] = f"{i:02d}-{_safe(t.name)}-moving.svg"
     return out
 
