@@ -76,10 +76,11 @@ class TargetResult:
 
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
     """Every case and combination of a solved member."""
-    return tuple(_target(solution, t) for t in solution.targets)
+    fe: dict = {}  # case name -> its finite-element solution, summed for the combinations
+    return tuple(_target(solution, t, fe) for t in solution.targets)
 
 
-def _target(sol: Solution, t: Target) -> TargetResult:
+def _target(sol: Solution, t: Target, fe: dict) -> TargetResult:
     if sol.member.moving(t.name):
         return _moving_target(sol, t)
     m, c = sol.member, t.curves
@@ -96,7 +97,7 @@ def _target(sol: Solution, t: Target) -> TargetResult:
         tuple((sp.x, support_slope(c.theta, sp.x)) for sp in m.supports),
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
-        regions(sol, defl), _stress(sol, moment, shear), _cross_check(sol, t), tuple(defl), tuple(moment))
+        regions(sol, defl), _stress(sol, moment, shear), _cross_check(sol, t, fe), tuple(defl), tuple(moment))
 
 
 def support_slope(theta, x: Fraction) -> Fraction:
@@ -213,6 +214,15 @@ def factored_loads(sol: Solution, t: Target) -> list[tuple[Fraction, object]]:
     return out
 
 
-def _cross_check(sol: Solution, t: Target) -> float:
-    from .fem import relative_difference
-    return relative_difference(sol.member, sol.xs, factored_loads(sol, t), t.curves.v, t.curves.theta)
+def _cross_check(sol: Solution, t: Target, fe: dict) -> float:
+    """The finite-element model of every case; a combination's is the factored sum of its cases' element
+    solutions (the element model is linear too, so solving it again would check nothing new)."""
+    from .fem import fe_nodes, nodal_solution, relative_difference
+    if t.kind == "combination" and all(name in fe for _, name in t.terms):
+        v = sum(float(f) * fe[name][0] for f, name in t.terms)
+        theta = sum(float(f) * fe[name][1] for f, name in t.terms)
+        return relative_difference(sol.member, sol.xs, (), t.curves.v, t.curves.theta, (v, theta))
+    nodal = nodal_solution(sol.member, fe_nodes(sol.member, sol.xs), factored_loads(sol, t))
+    if t.kind == "case":
+        fe[t.name] = nodal
+    return relative_difference(sol.member, sol.xs, (), t.curves.v, t.curves.theta, nodal)
