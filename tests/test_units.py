@@ -101,3 +101,15 @@ def test_section_properties_wrong_kind():
     assert (d.span.line, d.span.col) == (4, 22)
     assert d.message == ('the second moment of area I must be a second moment of area (e.g. "10 mm^4"); '
                          'got "8e7 mm^3", which is a section modulus')
+
+
+def test_an_angle_in_degrees_is_a_fraction_of_pi_and_the_package_says_so(tmp_path):
+    # the SI brochure (BIPM, 9th ed., table 8, from memory): 1 degree = (pi/180) rad; pint carries pi to 50 digits
+    from beamlang.report.sections import inputs
+    from engine_helpers import analyse_text, member_text
+    f = factor_of("deg")
+    assert abs(f.factor * 180 - Fraction("3.14159265358979323846264338327950288419716939937510")) < Fraction(1, 10**49)
+    a = analyse_text(member_text("6 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]},
+                                 extra=["limit slope at supports 0.1 deg"]))
+    row = next(line for line in inputs(a) if line.startswith("| deg |"))
+    assert "fraction of π rad" in row and "exact by definition" not in row

@@ -58,6 +58,10 @@ def _quantities(obj) -> list[s.Quantity]:
     return found
 
 
+ANGLE_TOKENS = ("deg", "\u00b0", "arcmin", "arcsec", "grad")
+ANGLE = "a fraction of π rad (a degree is π/180 rad); π carried as a 50-digit rational (not exact beyond that)"
+
+
 def inputs(a: Analysis) -> list[str]:
     """Every number as written, its exact SI value, and every conversion factor used."""
     from ..fmt import statement_text
@@ -73,7 +77,8 @@ def inputs(a: Analysis) -> list[str]:
            "Conversion factors used (exact):", "", "| unit | SI | source |", "|---|---|---|"]
     for unit in sorted(units):
         f = factor_of(unit)
-        source = NIST if any(tok in unit for tok in US_TOKENS) else "SI prefixes, exact by definition"
+        source = (ANGLE if any(tok in unit for tok in ANGLE_TOKENS) else NIST if any(tok in unit for tok in US_TOKENS)
+                  else "SI prefixes, exact by definition")
         out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {source} |")
     return out + [""]
 
