@@ -83,7 +83,7 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
 def _ld(value) -> np.longdouble:
     """A Fraction in extended precision (numerator and denominator converted separately)."""
     value = Fraction(value)
-    return np.longdouble(value.numerator) / np.longdouble(value.denominator)
+    return np.longdouble(int(value.numerator)) / np.longdouble(int(value.denominator))
 
 
 def _solve_refined(K: np.ndarray, F: np.ndarray) -> np.ndarray:

@@ -6,9 +6,12 @@ from bisect import bisect_left, bisect_right
 from dataclasses import dataclass, field
 from fractions import Fraction
 from math import gcd
+
+from .exact import Q
 from typing import Iterable, Sequence
 
 Number = Fraction | int
+RATIONAL = (Fraction, int, type(Q(0)))  # exact numbers (the others are symbolic.Sym or floats)
 ZERO = Fraction(0)
 
 
@@ -79,12 +82,12 @@ class Poly:
     __rmul__ = __mul__
 
     def __call__(self, x):
-        if not isinstance(x, (Fraction, int)) or not self.coeffs or not isinstance(self.coeffs[-1], (Fraction, int)):
+        if not isinstance(x, RATIONAL) or not self.coeffs or not isinstance(self.coeffs[-1], RATIONAL):
             acc = 0
             for c in reversed(self.coeffs):
                 acc = acc * x + c
             return acc
-        return self._exact_at(Fraction(x))
+        return self._exact_at(x)
 
     def _exact_at(self, x: Fraction) -> Fraction:
         """Horner's rule on integers: p(n/d) = sum(c_i n^i d^(k-i)) / (D d^k), one Fraction at the end."""
@@ -98,7 +101,7 @@ class Poly:
         for c in reversed(ints[:-1]):
             dpow *= d
             acc = acc * n + c * dpow
-        return Fraction(acc, D * dpow)
+        return Q(acc, D * dpow)
 
     def derivative(self) -> "Poly":
         return Poly(tuple(i * c for i, c in enumerate(self.coeffs) if i))

@@ -6,6 +6,7 @@ import math
 from dataclasses import dataclass
 from fractions import Fraction
 
+from .exact import Q, fraction
 from .poly import Poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
@@ -65,14 +66,14 @@ def _quadratic(q: Poly, width: Fraction, at: Fraction, p: Poly) -> list[Root] | 
     nd, d = D.numerator * D.denominator, D.denominator
     s = math.isqrt(nd)
     if s * s == nd:  # rational roots
-        r = Fraction(s, d)
+        r = Q(s, d)
         return [Root(at + h, at + h, at + h, p) for h in sorted(((-B - r) / 2, (-B + r) / 2)) if 0 < h < width]
     out = []
     for sign in (-1, 1):
         k = 64
         while True:
             S = math.isqrt(nd << (2 * k))  # sqrt(nd) * 2**k lies in [S, S + 1)
-            lo_r, hi_r = Fraction(S, d << k), Fraction(S + 1, d << k)
+            lo_r, hi_r = Q(S, d << k), Q(S + 1, d << k)
             lo, hi = ((-B + lo_r) / 2, (-B + hi_r) / 2) if sign > 0 else ((-B - hi_r) / 2, (-B - lo_r) / 2)
             tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
             if hi - lo <= tol:
@@ -223,5 +224,5 @@ def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> Fracti
     """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any."""
     if hi - lo > Fraction(1, 10**9):
         return None
-    c = (at + (lo + hi) / 2).limit_denominator(10**12)
+    c = fraction(at + (lo + hi) / 2).limit_denominator(10**12)
     return c if lo <= c - at <= hi and q(c - at) == 0 else None

@@ -4,9 +4,11 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from .exact import Q
+
 # pi to 40 significant digits: round and tube properties are irrational, so they carry this
 # rational value (relative error below 1e-39, far beneath every printed digit).
-PI = Fraction("3.141592653589793238462643383279502884197")
+PI = Q("3.141592653589793238462643383279502884197")
 
 SHAPE_DIMENSIONS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     # shape: (required dimensions, optional ones); `flange` is width x thickness

@@ -23,7 +23,7 @@ class Sym:
             return other.value, other.expr
         import sympy
         other = Fraction(other)
-        return other, sympy.Rational(other.numerator, other.denominator)
+        return other, sympy.Rational(int(other.numerator), int(other.denominator))
 
     def __add__(self, other):
         v, e = self._pair(other)
@@ -165,7 +165,7 @@ def _expr(c):
     if isinstance(c, Sym):
         return c.expr
     c = Fraction(c)
-    return sympy.Rational(c.numerator, c.denominator)
+    return sympy.Rational(int(c.numerator), int(c.denominator))
 
 
 def _value(c) -> Fraction:

@@ -8,6 +8,7 @@ from fractions import Fraction
 from functools import lru_cache
 
 from .errors import Diagnostic
+from .exact import Q
 from .syntax import Quantity
 
 KINDS = {
@@ -31,7 +32,7 @@ COMMON_UNITS = ("m", "mm", "cm", "km", "ft", "in", "N", "kN", "MN", "lbf", "kip"
                 "GPa", "psi", "ksi", "kN/m", "N/mm", "kip/ft", "lbf/ft", "lbf/in", "kN*m", "N*m",
                 "kip*ft", "kip*in", "lbf*ft", "kg/m^3", "lb/ft^3", "mm^4", "in^4", "cm^4", "m^4",
                 "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad")
-STANDARD_GRAVITY = Fraction(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
+STANDARD_GRAVITY = Q(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
 
 
 @dataclass(frozen=True, slots=True)
@@ -77,7 +78,7 @@ def factor_of(unit: str) -> Factor | None:
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
             TypeError, ValueError, SyntaxError, AssertionError, KeyError):
         return None
-    magnitude = Fraction(q.magnitude)
+    magnitude = Q(Fraction(q.magnitude))
     kind = next((n for n, d in _dimensions().items() if d == q.dimensionality), None)
     return Factor(unit, _si_unit(kind), magnitude, kind)
 
@@ -117,7 +118,7 @@ def exact_number(text: str, span) -> Fraction:
     if len(mantissa.replace(".", "")) > MAX_DIGITS or (exponent and abs(int(exponent)) > MAX_DIGITS):
         raise UnitProblem(Diagnostic(span, f"the number {text[:40]} is out of range",
                                      f"numbers have at most {MAX_DIGITS} digits and exponents up to {MAX_DIGITS}"))
-    return Fraction(text)
+    return Q(text)
 
 
 def _magnitude(value: Fraction) -> str:
