@@ -189,8 +189,8 @@ class _Builder:
                               "where it applies", f"the first is on line {first.span.line}; give each {key} "
                               "its stretch, e.g. `... from 0 m to 1.2 m`")
             return []
-        placed = []
-        for st in stmts:
+        placed, ok = [], True
+        for st in stmts:  # every statement is converted, so that all their problems are reported together
             value = convert(st)
             if st.stretch is None:
                 x1, x2 = Fraction(0), self.length
@@ -202,8 +202,11 @@ class _Builder:
                                       "write `from` the left position `to` the right one")
                     x1 = None
             if value is None or x1 is None or x2 is None:
-                return []
+                ok = False
+                continue
             placed.append((x1, x2, value, st))
+        if not ok:
+            return []
         placed.sort(key=lambda p: p[0])
         at = Fraction(0)
         for x1, x2, _, st in placed:
