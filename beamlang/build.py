@@ -183,6 +183,10 @@ class _Builder:
         """[(x1, x2, value)] covering the member once; a gap, an overlap or a mix is an error."""
         if not stmts:
             return []
+        if self.length is None:  # no usable span (reported already): check the lines' own values only
+            for st in stmts:
+                convert(st)
+            return []
         if len(stmts) > 1 and any(st.stretch is None for st in stmts):
             first, second = sorted(stmts, key=lambda st: st.span.line)[:2]
             self.errors.error(second.span, f"a second `{key}` line; a member has only one unless each says "
