@@ -34,7 +34,6 @@ class _Builder:
         self.errors = Collector(doc.source)
         self.length: Fraction | None = None
         self.support_positions: set[Fraction] = set()
-        self.supports_built: tuple[m.Support, ...] = ()
         self.moving_cases: set[str] = set()
 
     # -- helpers ---------------------------------------------------------------------------
@@ -117,7 +116,6 @@ class _Builder:
         stretches = self._stretches(materials, sections)
         supports = self._supports([st for _, st in stmts if isinstance(st, s.Support)], member_span)
         self.support_positions = {sp.x for sp in supports}
-        self.supports_built = supports
         hinges = self._hinges([st for _, st in stmts if isinstance(st, s.Hinge)], supports)
         self._stable_with_hinges(supports, hinges)
         cases = self._cases(stmts, stretches, member_span)
@@ -127,7 +125,7 @@ class _Builder:
         combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
         targets = names | {c.name for c in combos}
         limits = self._limits([st for _, st in stmts if isinstance(st, s.Limit)], targets)
-        slopes = self._slope_limits([st for _, st in stmts if isinstance(st, s.SlopeLimit)], targets)
+        slopes = self._slope_limits([st for _, st in stmts if isinstance(st, s.SlopeLimit)], targets, supports)
         checks = self._stress_checks([st for _, st in stmts if isinstance(st, s.StressCheck)], targets, stretches)
         reports = self._report_points([st for _, st in stmts if isinstance(st, s.Report)])
         if self.errors.items or not stretches or self.length is None:
@@ -544,14 +542,15 @@ class _Builder:
                 out.append(m.StressCheck(st.target.text, st.span))
         return tuple(out)
 
-    def _slope_limits(self, stmts: list[s.SlopeLimit], targets: set[str]) -> tuple[m.SlopeLimit, ...]:
+    def _slope_limits(self, stmts: list[s.SlopeLimit], targets: set[str],
+                      supports: tuple[m.Support, ...]) -> tuple[m.SlopeLimit, ...]:
         out = []
         for st in stmts:
             ok = st.target is None or self._target(st.target, targets)
             value = self.positive(st.value, "angle", "a slope limit", "write the slope in rad, e.g. `0.001 rad`")
             if ok and value is not None:
                 out.append(m.SlopeLimit(st.target.text if st.target else None, value, st.span))
-        if out and self.supports_built and all(sp.kind == "fixed" for sp in self.supports_built):
+        if out and supports and all(sp.kind == "fixed" for sp in supports):
             self.errors.error(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
                               "a fixed support holds the slope at zero; the limit is for bearings")
         return tuple(out)
@@ -570,8 +569,7 @@ class _Builder:
             elif any(sp.x == x and sp.kind == "fixed" for sp in supports):
                 self.errors.error(st.at.span, "a hinge at a fixed support",
                                   "a fixed support holds the slope: use a pin there, or move the hinge off it")
-            elif any(h.x == x for h in out):
-                twin = next(h for h in out if h.x == x)
+            elif (twin := next((h for h in out if h.x == x), None)) is not None:
                 self.errors.error(st.at.span, "two hinges at one point", f"the other is on line {twin.span.line}")
             else:
                 out.append(m.Hinge(x, st.span))
@@ -607,8 +605,8 @@ class _Builder:
 
 def _stable(supports: list[m.Support]) -> bool:
     """A straight beam under transverse load is stable with one fixed end or two point restraints."""
-    active = [sp for sp in supports if sp.kind != "spring" or sp.stiffness]
-    return any(sp.kind == "fixed" for sp in active) or len(active) >= 2
+    restraints = components(supports)  # a spring of zero stiffness restrains nothing
+    return any(r.kind == "moment" for r in restraints) or len({r.support for r in restraints}) >= 2
 
 
 def _why_unstable(supports: list[m.Support]) -> str:

@@ -139,18 +139,13 @@ def _zero(member: Member, xs) -> Curves:
     return Curves(z, z, z, z, tuple((Fraction(0), Fraction(0)) for _ in member.supports))
 
 
-def active(member: Member) -> list[int]:
-    """Supports that restrain something (a spring of zero stiffness does not)."""
-    return [i for i, sp in enumerate(member.supports) if sp.kind != "spring" or sp.stiffness]
-
-
 def choose_primary(member: Member) -> tuple[str, tuple[Restraint, ...], tuple[Restraint, ...]]:
     """Keep one fixed support (a cantilever) or two point supports, plus one more component per hinge
     (stability.keep); release every other restraint."""
-    idx = active(member)
     sps = member.supports
+    every = components(sps)  # a spring of zero stiffness restrains nothing and has none
+    idx = list(dict.fromkeys(r.support for r in every))
     fixed = [i for i in idx if sps[i].kind == "fixed"]
-    every = components(sps)
     if fixed:
         kind, first = "cantilever", [Restraint(fixed[0], "force"), Restraint(fixed[0], "moment")]
     else:
