@@ -50,8 +50,7 @@ def target_figure(a: Analysis, name: str) -> str:
         ax.plot([convert(x, u["length"]) for x in xs], ys, color="#1f4e79", linewidth=1.2)
         ax.fill_between([float(convert(x, u["length"])) for x in xs], ys, 0, color="#1f4e79", alpha=0.12)
         ax.axhline(0, color="black", linewidth=0.6)
-        for x in changes(m, u) + [float(convert(h.x, u["length"])) for h in m.hinges]:
-            ax.axvline(x, color="#777777", linewidth=0.6, linestyle=":")
+        mark_changes_and_hinges(ax, m, u)
         ax.set_ylabel(f"{label} ({u[quantity]})")
         for loc in marks or []:
             x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
@@ -131,6 +130,12 @@ def _draw_stretches(ax, m, u: dict, L: float) -> None:
 def changes(m, u: dict) -> list[float]:
     """Where the section or material changes, in report length units."""
     return [float(convert(st.x1, u["length"])) for st in m.stretches[1:]]
+
+
+def mark_changes_and_hinges(ax, m, u: dict) -> None:
+    """Dotted verticals on a curve's axes where the section changes and at every hinge."""
+    for x in changes(m, u) + [float(convert(h.x, u["length"])) for h in m.hinges]:
+        ax.axvline(x, color="#777777", linewidth=0.6, linestyle=":")
 
 
 def _pieces(ax, group: list, factor: Fraction, u: dict, stack: int) -> None:
@@ -216,7 +221,7 @@ def _load(ax, load, factor: Fraction, u: dict, stack: int, label: bool = True) -
         h1, h2 = base + h1 * 0.8 - 0.1, base + h2 * 0.8 - 0.1
         unit = u["force"] + "/" + u["length"]
         text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
-        if label is not False:
+        if label:
             ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", ha="center",
                     va="bottom" if sign > 0 else "top", fontsize=6, color=color)
         return 1

@@ -14,7 +14,7 @@ import numpy as np
 from ..display import convert, number, report_units
 from ..moving import kernels_for
 from ..pipeline import Analysis
-from .figures import _pyplot, _svg, changes
+from .figures import _pyplot, _svg, mark_changes_and_hinges
 
 POSITIONS = 400  # group positions per direction for the drawn envelopes
 X_SAMPLES = 200  # points along the member for the drawn envelopes
@@ -129,8 +129,7 @@ def moving_figure(a: Analysis, name: str) -> str:
         ax.plot(px, top, color="#1f4e79", linewidth=1.0)
         ax.plot(px, bottom, color="#1f4e79", linewidth=1.0)
         ax.axhline(0, color="black", linewidth=0.6)
-        for x in changes(m, u) + [length(h.x) for h in m.hinges]:
-            ax.axvline(x, color="#777777", linewidth=0.6, linestyle=":")
+        mark_changes_and_hinges(ax, m, u)
         ax.set_ylabel(f"{q} ({u[quantity]})", fontsize=7)
         ax.set_title(f"envelope of {q} over every position of the group (drawn from {2 * POSITIONS if len(offsets_all) > 1 else POSITIONS} "
                      "positions; the dots are the exact extremes)", fontsize=7, loc="left")
