@@ -78,8 +78,8 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
     static = tuple(scaled(ld, k) for k, ld in static_loads)
-    for rev in ((False, True) if _asymmetric(load) else (False,)):
-        offsets = _offsets(load, rev)
+    for rev in directions(load):
+        offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
         for p in events:  # the group standing at every event: a static case, searched exactly
             wheels = _wheels(load, offsets, p)
@@ -125,7 +125,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
 
 def standing_loads(env: Envelope, crit: Critical) -> list[PointLoad]:
     """The group's forces (factored) as point loads with the group standing where `crit` was found."""
-    offsets = _offsets(env.load, crit.reversed)
+    offsets = group_offsets(env.load, crit.reversed)
     return [PointLoad(x, env.factor * F, env.load.span) for x, F in _wheels(env.load, offsets, crit.position)]
 
 
@@ -143,9 +143,14 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
 
 
 # -- configuration ---------------------------------------------------------------------------------------------
-def _offsets(load: MovingLoad, reversed_: bool) -> tuple[Fraction, ...]:
+def group_offsets(load: MovingLoad, reversed_: bool) -> tuple[Fraction, ...]:
     """Offsets of the forces from the first one along x; travelling the other way, they point back."""
     return tuple(-d for d in load.offsets) if reversed_ else load.offsets
+
+
+def directions(load: MovingLoad) -> tuple[bool, ...]:
+    """The travel directions to search (reversed: True): both unless the group is symmetric."""
+    return (False, True) if _asymmetric(load) else (False,)
 
 
 def _asymmetric(load: MovingLoad) -> bool:

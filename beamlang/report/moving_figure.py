@@ -12,7 +12,7 @@ from fractions import Fraction
 import numpy as np
 
 from ..display import convert, number, report_units
-from ..moving import kernels_for
+from ..moving import directions, group_offsets, kernels_for, standing_loads
 from ..pipeline import Analysis
 from .figures import _pyplot, _svg, mark_changes_and_hinges
 
@@ -109,11 +109,8 @@ def moving_figure(a: Analysis, name: str) -> str:
                      "down at the position on the axis", fontsize=7, loc="left")
         crit = r.position(field)
         if crit is not None:
-            offsets = [-d for d in load.offsets] if crit.reversed else list(load.offsets)
-            for d in offsets:
-                p = crit.position + d
-                if load.lo <= p <= load.hi:
-                    ax.axvline(length(p), color="#8b4513", linewidth=0.8, linestyle="--")
+            for force in standing_loads(r.envelope, crit):
+                ax.axvline(length(force.x), color="#8b4513", linewidth=0.8, linestyle="--")
     positions, offsets_all = _positions(load)
     xs = np.unique(np.concatenate([np.linspace(0.0, float(m.length), X_SAMPLES), lines.xf]))
     for ax, (q, quantity, marks) in zip(axes[2:], (("M", "moment", (r.moment_positive, r.moment_negative)),
@@ -151,12 +148,8 @@ def moving_figure(a: Analysis, name: str) -> str:
 
 
 def _positions(load) -> tuple[np.ndarray, list]:
-    """First-force positions from entering to leaving, and the offsets of each travel direction."""
-    forward = list(load.offsets)
-    backward = [-d for d in load.offsets]
-    out = []
-    for offs in (forward, backward) if len(load.forces) > 1 else (forward,):
-        out.append(offs)
+    """First-force positions from entering to leaving, and the offsets of each travel direction searched."""
+    out = [group_offsets(load, rev) for rev in directions(load)]
     lo = float(load.lo) - float(max(max(o) for o in out))
     hi = float(load.hi) - float(min(min(o) for o in out))
     return np.linspace(lo, hi, POSITIONS), out
