@@ -52,15 +52,22 @@ def equilibrium_column(supports, hinge_xs, r: Restraint) -> list:
 def keep(supports, hinge_xs, preferred: list[Restraint]) -> tuple[Restraint, ...]:
     """The first independent components in `preferred` order, as many as there are equations."""
     need = 2 + len(hinge_xs)
-    kept, basis = [], []
+    kept = []
+    for r in _independent(supports, hinge_xs, preferred):
+        kept.append(r)
+        if len(kept) == need:
+            return tuple(kept)
+    raise Mechanism(_culprits(supports, hinge_xs, preferred, need - len(kept)))
+
+
+def _independent(supports, hinge_xs, preferred):
+    """The components of `preferred`, in order, whose columns are independent of those before them."""
+    basis: list = []
     for r in preferred:
         reduced = _reduce(equilibrium_column(supports, hinge_xs, r), basis)
         if reduced is not None:
             basis.append(reduced)
-            kept.append(r)
-            if len(kept) == need:
-                return tuple(kept)
-    raise Mechanism(_culprits(supports, hinge_xs, preferred, need - len(kept)))
+            yield r
 
 
 def _reduce(column: list, basis: list[tuple[int, list]]) -> tuple[int, list] | None:
@@ -75,12 +82,7 @@ def _reduce(column: list, basis: list[tuple[int, list]]) -> tuple[int, list] | N
 
 
 def _rank(supports, hinge_xs, preferred) -> int:
-    basis: list = []
-    for r in preferred:
-        reduced = _reduce(equilibrium_column(supports, hinge_xs, r), basis)
-        if reduced is not None:
-            basis.append(reduced)
-    return len(basis)
+    return sum(1 for _ in _independent(supports, hinge_xs, preferred))
 
 
 def _culprits(supports, hinge_xs, preferred, deficiency: int) -> tuple[int, ...]:
