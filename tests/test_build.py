@@ -40,17 +40,18 @@ def _committed() -> dict[str, bytes]:
     return {k: v for k, v in _tree(ROOT / "out").items() if k != "README.md"}
 
 
-def test_out_results_are_current(built):
-    """results.json is the engine's own output: it must match whatever library versions are installed."""
+def test_out_results_and_figures_are_current(built):
+    """results.json and the SVG figures are beamlang's own output: they must match whatever library versions
+    are installed."""
     committed = _committed()
     assert sorted(committed) == sorted(built), "rebuild out/ with: beamlang build examples -o out"
-    for name in (n for n in built if n.endswith("results.json")):
+    for name in (n for n in built if n.endswith(("results.json", ".svg"))):
         assert committed[name] == built[name], f"out/{name} differs: rebuild out/ with: beamlang build examples -o out"
 
 
 def test_out_packages_are_current(built):
-    """Markdown, HTML and SVG also carry the bytes of sympy, matplotlib and the Markdown libraries: compared in
-    full where the installed versions are the ones the committed packages name in their traceability section."""
+    """Markdown and HTML also carry the bytes of sympy and the Markdown libraries: compared in full where the
+    installed versions are the ones the committed packages name in their traceability section."""
     committed = _committed()
     stamp = re.search(r"built by beamlang \S+ with (.+?)\. Nothing", committed["B-3/B-3.md"].decode("utf-8"))
     assert stamp, "the committed package names no library versions"

@@ -97,6 +97,7 @@ def test_input_errors_win_over_failures(capsys, tmp_path, monkeypatch):
 @pytest.mark.parametrize("command", ["check", "fmt"])
 def test_check_and_fmt_do_not_import_plotting_or_markdown(command):
     probe = (f"import sys; from beamlang.cli import main; main(['{command}', '--check' if '{command}' == 'fmt' else "
-             "'--json', 'examples']); print('matplotlib' in sys.modules, 'markdown_it' in sys.modules, file=sys.stderr)")
+             "'--json', 'examples']); print('beamlang.report.svgplot' in sys.modules, 'markdown_it' in sys.modules, "
+             "file=sys.stderr)")
     done = subprocess.run([sys.executable, "-c", probe], cwd=EXAMPLES.parent, capture_output=True, text=True)
     assert done.stderr.strip().splitlines()[-1] == "False False"

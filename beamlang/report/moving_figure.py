@@ -14,7 +14,8 @@ import numpy as np
 from ..display import convert, number, report_units
 from ..moving import directions, group_offsets, kernels_for, standing_loads
 from ..pipeline import Analysis
-from .figures import _pyplot, _svg, mark_changes_and_hinges
+from .figures import CURVE, LABEL_ROOM, LOAD, MARK, mark_changes_and_hinges
+from .svgplot import Figure
 
 POSITIONS = 400  # group positions per direction for the drawn envelopes
 X_SAMPLES = 200  # points along the member for the drawn envelopes
@@ -81,7 +82,6 @@ class _Lines:
 
 def moving_figure(a: Analysis, name: str) -> str:
     """Influence lines of v and M at their governing points, and the envelopes of M and v along x."""
-    plt = _pyplot()
     m = a.loaded.member
     u = report_units(m)
     r = a.result(name)
@@ -89,28 +89,29 @@ def moving_figure(a: Analysis, name: str) -> str:
     load = r.envelope.load
     to_length = float(convert(Fraction(1), u["length"]))
     length = lambda x: float(x) * to_length  # noqa: E731  SI metres (exact or float) -> report length unit
-    fig, axes = plt.subplots(4, 1, figsize=(7.0, 8.2), sharex=True, layout=None)
-    fig.subplots_adjust(hspace=0.45, left=0.13, right=0.97, top=0.92, bottom=0.06)
+    fig = Figure(title=f"{name}: moving group, influence lines and envelopes (dashed: the group where the value "
+                       "governs)")
+    axes = [fig.panel(110.0, LABEL_ROOM) for _ in range(4)]
     xi = np.linspace(float(load.lo), float(load.hi), 801)
     per_force = 1 / float(convert(Fraction(1), u["force"]))  # newtons in one report force unit
     for ax, (q, field, quantity, what) in zip(axes[:2], (("v", "max_down", "deflection", "deflection"),
                                                          ("M", "moment_positive", "moment", "moment"))):
         at = getattr(r, field) or (r.max_up if q == "v" else r.moment_negative)
         if at is None:
-            ax.set_axis_off()
+            ax.axis = False
             continue
         x0 = float(at.x)
         scale = float(convert(Fraction(1), u[quantity]))
         ys = -lines.line(q, x0, xi) * per_force * scale  # one report force unit down
-        ax.plot([length(v) for v in xi], ys, color="#1f4e79", linewidth=1.1)
-        ax.axhline(0, color="black", linewidth=0.6)
-        ax.set_ylabel(f"{q} ({u[quantity]})", fontsize=7)
-        ax.set_title(f"influence line: {what} at x = {number(length(at.x))} {u['length']} per 1 {u['force']} "
-                     "down at the position on the axis", fontsize=7, loc="left")
+        ax.line([length(v) for v in xi], ys, color=CURVE, width=1.1)
+        ax.hline(0, width=0.6)
+        ax.ylabel = f"{q} ({u[quantity]})"
+        ax.title = (f"influence line: {what} at x = {number(length(at.x))} {u['length']} per 1 {u['force']} "
+                    "down at the position on the axis", 7.0)
         crit = r.position(field)
         if crit is not None:
             for force in standing_loads(r.envelope, crit):
-                ax.axvline(length(force.x), color="#8b4513", linewidth=0.8, linestyle="--")
+                ax.vline(length(force.x), color=LOAD, width=0.8, dash="dashed")
     positions, offsets_all = _positions(load)
     xs = np.unique(np.concatenate([np.linspace(0.0, float(m.length), X_SAMPLES), lines.xf]))
     for ax, (q, quantity, marks) in zip(axes[2:], (("M", "moment", (r.moment_positive, r.moment_negative)),
@@ -122,29 +123,28 @@ def moving_figure(a: Analysis, name: str) -> str:
             top.append(values.max() * scale)
             bottom.append(values.min() * scale)
         px = [length(x) for x in xs]
-        ax.fill_between(px, top, bottom, color="#1f4e79", alpha=0.15)
-        ax.plot(px, top, color="#1f4e79", linewidth=1.0)
-        ax.plot(px, bottom, color="#1f4e79", linewidth=1.0)
-        ax.axhline(0, color="black", linewidth=0.6)
+        ax.band(px, top, bottom, CURVE, 0.15)
+        ax.line(px, top, color=CURVE, width=1.0)
+        ax.line(px, bottom, color=CURVE, width=1.0)
+        ax.hline(0, width=0.6)
         mark_changes_and_hinges(ax, m, u)
-        ax.set_ylabel(f"{q} ({u[quantity]})", fontsize=7)
-        ax.set_title(f"envelope of {q} over every position of the group (drawn from {2 * POSITIONS if len(offsets_all) > 1 else POSITIONS} "
-                     "positions; the dots are the exact extremes)", fontsize=7, loc="left")
+        ax.ylabel = f"{q} ({u[quantity]})"
+        ax.title = (f"envelope of {q} over every position of the group (drawn from "
+                    f"{2 * POSITIONS if len(offsets_all) > 1 else POSITIONS} positions; the dots are the exact extremes)", 7.0)
         for loc in marks:
             if loc is None:
                 continue
             x, y = length(loc.x), float(convert(loc.value, u[quantity]))
-            ax.plot([x], [y], "o", color="#b22222", markersize=3)
-            ax.annotate(f"{number(y)} at {number(x)} {u['length']}", (x, y), textcoords="offset points",
-                        xytext=(4, 4 if y >= 0 else -10), fontsize=7, color="#b22222")
+            ax.dot(x, y, 3.5, MARK)
+            right = x > 0.6 * length(m.length)  # keep the label inside the axes
+            ax.text(x, y, f"{number(y)} at {number(x)} {u['length']}", 7.0, MARK, "end" if right else "start",
+                    dx=-4 if right else 4, dy=4 if y >= 0 else -10)
     for ax in axes:
         for sp in m.supports:
-            ax.axvline(length(sp.x), color="black", linewidth=0.5, alpha=0.4)
-    axes[-1].set_xlabel(f"x ({u['length']}) from the left end; for the influence lines, where a force stands")
-    axes[-1].set_xlim(-0.02 * length(m.length), 1.02 * length(m.length))
-    fig.suptitle(f"{name}: moving group, influence lines and envelopes (dashed: the group where the value governs)",
-                 fontsize=8, x=0.02, ha="left")
-    return _svg(fig)
+            ax.vline(length(sp.x), width=0.5, opacity=0.4)
+    axes[-1].xlabel = f"x ({u['length']}) from the left end; for the influence lines, where a force stands"
+    fig.xlim = (-0.02 * length(m.length), 1.02 * length(m.length))
+    return fig.svg()
 
 
 def _positions(load) -> tuple[np.ndarray, list]:

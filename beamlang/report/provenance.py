@@ -5,9 +5,10 @@ from __future__ import annotations
 from functools import lru_cache
 from importlib.metadata import PackageNotFoundError, version
 
-# sympy writes the formulas, numpy runs the cross-check, matplotlib draws the figures, the other three turn the
-# Markdown and its TeX into HTML and MathML. A package rebuilds byte for byte when these versions are the same.
-LIBRARIES = ("sympy", "numpy", "matplotlib", "markdown-it-py", "mdit-py-plugins", "latex2mathml")
+# sympy writes the formulas, numpy runs the cross-check, the other three turn the Markdown and its TeX into HTML
+# and MathML (the figures are beamlang's own SVG: report/svgplot.py). A package rebuilds byte for byte when these
+# versions are the same.
+LIBRARIES = ("sympy", "numpy", "markdown-it-py", "mdit-py-plugins", "latex2mathml")
 
 
 @lru_cache(maxsize=1)

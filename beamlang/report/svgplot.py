@@ -1,0 +1,387 @@
+"""SVG plotting: panels stacked over one shared x axis -> SVG text that depends on nothing but the data.
+
+The calc package's figures need lines, filled bands and polygons, arrows, markers, text, ticks and a
+grid; this module draws exactly that. Coordinates are in points (1/72 in), rounded to 0.01 pt, so the
+same figure gives the same bytes on every machine and with every library version. Text is SVG text in
+a common sans-serif; its width is estimated (GLYPH) only to leave room for labels and legends."""
+
+from __future__ import annotations
+
+import math
+from xml.sax.saxutils import escape
+
+FONT = "DejaVu Sans, Verdana, Arial, Helvetica, sans-serif"
+GLYPH = 0.6  # estimated average advance of a character, as a fraction of the font size (layout only)
+TICK = 3.5  # tick length, pt
+TICK_FONT = 7.0
+GRID = "#b0b0b0"
+DASHES = {"dotted": "1 1.6", "dashed": "3.7 1.6"}
+_SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
+
+
+def text_width(s: str, size: float) -> float:
+    """Estimated width of a (possibly multi-line) label."""
+    return GLYPH * size * max(len(line) for line in s.split("\n"))
+
+
+def _n(v: float) -> str:
+    """One coordinate: two decimals, no trailing zeros, no negative zero."""
+    s = f"{v:.2f}".rstrip("0").rstrip(".")
+    return "0" if s in ("-0", "") else s
+
+
+def nice_ticks(lo: float, hi: float, least: int) -> tuple[list[float], float]:
+    """Ticks in [lo, hi] at the largest step of 1, 2, 2.5 or 5 times a power of ten that gives at least
+    `least` of them."""
+    k = math.floor(math.log10(hi - lo))
+    for step in sorted((m * 10.0**e for e in range(k - 3, k + 2) for m in (1, 2, 2.5, 5)), reverse=True):
+        first, last = math.ceil(lo / step - 1e-9), math.floor(hi / step + 1e-9)
+        if last - first + 1 >= least:
+            return [k * step for k in range(first, last + 1)], step
+    return [lo, hi], hi - lo  # pragma: no cover - a range of less than a thousandth of its own size
+
+
+def tick_labels(values: list[float], step: float) -> tuple[list[str], int]:
+    """Labels with as many decimals as the step needs, and a power of ten taken out when the numbers are
+    very large or small (the axis label then says x10^k)."""
+    big = max((abs(v) for v in values), default=0.0)
+    exp = math.floor(math.log10(big)) if big and (big >= 1e5 or big < 1e-3) else 0
+    scaled = step / 10.0**exp
+    decimals = max(0, -math.floor(math.log10(scaled) + 1e-9))
+    if abs(scaled * 10**decimals - round(scaled * 10**decimals)) > 1e-6:  # a step of 2.5 x 10^k
+        decimals += 1
+    out = []
+    for v in values:
+        s = f"{v / 10.0**exp:.{decimals}f}"
+        out.append(s.lstrip("-") if float(s) == 0 else s.replace("-", "\u2212"))
+    return out, exp
+
+
+def _limits(lo: float | None, hi: float | None, margin: float = 0.05) -> tuple[float, float]:
+    """Data extent plus a margin on each side; a flat extent is opened up around its value."""
+    if lo is None or hi is None:
+        return 0.0, 1.0
+    if hi - lo <= 1e-12 * max(abs(lo), abs(hi), 1e-300):
+        d = abs(lo) * 0.1 or 1.0
+        return lo - d, hi + d
+    d = (hi - lo) * margin
+    return lo - d, hi + d
+
+
+class Panel:
+    """One axes box: items in data coordinates, drawn in the order they were added."""
+
+    def __init__(self, height: float):
+        self.height = height
+        self.items: list[tuple] = []
+        self.xlim: tuple[float, float] | None = None
+        self.ylim: tuple[float, float] | None = None
+        self.axis = True  # frame, ticks and grid
+        self.yticks = True
+        self.title: tuple[str, float] | None = None
+        self.ylabel: str | None = None
+        self.xlabel: str | None = None
+        self.legend: list[tuple[str, str, str]] = []  # (label, colour, "line" | "band")
+        self.margin = 0.05  # of the y extent, above and below the data
+        self._x: list[float] = []
+        self._y: list[float] = []
+
+    # drawing -------------------------------------------------------------------------------------------
+    def line(self, xs, ys, color: str = "black", width: float = 1.0, dash: str | None = None,
+             opacity: float = 1.0, label: str | None = None) -> None:
+        xs, ys = [float(v) for v in xs], [float(v) for v in ys]
+        self._extend(xs, ys)
+        self.items.append(("line", xs, ys, color, width, dash, opacity))
+        if label:
+            self.legend.append((label, color, "line"))
+
+    def band(self, xs, top, bottom, color: str, opacity: float, label: str | None = None) -> None:
+        """The area between two curves over the same xs (a curve and zero, or an envelope)."""
+        xs = [float(v) for v in xs]
+        top = [float(v) for v in top]
+        bottom = [float(v) for v in bottom] if not isinstance(bottom, (int, float)) else [float(bottom)] * len(xs)
+        self._extend(xs + xs, top + bottom)
+        self.items.append(("polygon", xs + xs[::-1], top + bottom[::-1], color, opacity, None, 0.0, True))
+        if label:
+            self.legend.append((label, color, "band"))
+
+    def polygon(self, xs, ys, fill: str, opacity: float = 1.0, edge: str | None = None, width: float = 0.8) -> None:
+        xs, ys = [float(v) for v in xs], [float(v) for v in ys]
+        self._extend(xs, ys)
+        self.items.append(("polygon", xs, ys, fill, opacity, edge, width, True))
+
+    def hline(self, y: float, color: str = "black", width: float = 0.6) -> None:
+        self._y.append(float(y))
+        self.items.append(("hline", float(y), color, width))
+
+    def vline(self, x: float, color: str = "black", width: float = 0.6, dash: str | None = None,
+              opacity: float = 1.0) -> None:
+        self.items.append(("vline", float(x), color, width, dash, opacity))
+
+    def dot(self, x: float, y: float, size: float, face: str | None, edge: str | None = None,
+            edge_width: float = 1.0) -> None:
+        """A round marker `size` pt across; face None leaves it open."""
+        self._extend([float(x)], [float(y)])
+        self.items.append(("dot", float(x), float(y), size, face, edge or face, edge_width))
+
+    def ellipse(self, x: float, y: float, rx: float, ry: float, face: str, edge: str, width: float) -> None:
+        """Radii in data units of each axis."""
+        self.items.append(("ellipse", float(x), float(y), float(rx), float(ry), face, edge, width))
+
+    def arrow(self, start: tuple[float, float], tip: tuple[float, float], color: str, width: float = 1.0,
+              filled: bool = False) -> None:
+        self.items.append(("arrow", tuple(map(float, start)), tuple(map(float, tip)), color, width, filled))
+
+    def text(self, x: float, y: float, s: str, size: float = 7.0, color: str = "black", anchor: str = "start",
+             baseline: str = "baseline", dx: float = 0.0, dy: float = 0.0) -> None:
+        """`anchor` start | middle | end; `baseline` baseline | bottom | top | middle; dx, dy in pt (dy up)."""
+        self.items.append(("text", float(x), float(y), s, size, color, anchor, baseline, dx, dy))
+
+    def _extend(self, xs: list[float], ys: list[float]) -> None:
+        self._x += xs
+        self._y += ys
+
+    # layout helpers ---------------------------------------------------------------------------------------
+    def x_extent(self) -> tuple[float, float] | None:
+        return (min(self._x), max(self._x)) if self._x else None
+
+    def y_range(self) -> tuple[float, float]:
+        if self.ylim:
+            return self.ylim
+        return _limits(min(self._y, default=None), max(self._y, default=None), self.margin)
+
+    def y_ticks(self) -> tuple[list[float], list[str], int]:
+        if not (self.axis and self.yticks):
+            return [], [], 0
+        lo, hi = self.y_range()
+        ticks, step = nice_ticks(lo, hi, max(3, int(self.height / 30)))
+        labels, exp = tick_labels(ticks, step)
+        return ticks, labels, exp
+
+
+class Figure:
+    """Panels stacked top to bottom, sharing one x axis; x tick labels under the last panel only."""
+
+    def __init__(self, width: float = 504.0, title: str | None = None, title_size: float = 8.0):
+        self.width = width
+        self.title = title
+        self.title_size = title_size
+        self.panels: list[Panel] = []
+        self.xlim: tuple[float, float] | None = None
+
+    def panel(self, height: float, margin: float = 0.05) -> Panel:
+        """A new panel under the others; `margin` is the room above and below the data, as a fraction of its
+        extent (room for labels at the extremes)."""
+        p = Panel(height)
+        p.margin = margin
+        self.panels.append(p)
+        return p
+
+    def _x_range(self) -> tuple[float, float]:
+        if self.xlim:
+            return self.xlim
+        extents = [e for e in (p.x_extent() for p in self.panels) if e]
+        if not extents:
+            return 0.0, 1.0
+        return _limits(min(e[0] for e in extents), max(e[1] for e in extents))
+
+    def svg(self) -> str:
+        x0, x1 = self._x_range()
+        axis_panels = [p for p in self.panels if p.axis]
+        xt, xstep = nice_ticks(x0, x1, max(3, int(self.width / 100))) if axis_panels else ([], 1.0)
+        xlabels, xexp = tick_labels(xt, xstep)
+        yticks = {id(p): p.y_ticks() for p in self.panels}
+        widest = max((text_width(s, TICK_FONT) for t in yticks.values() for s in t[1]), default=0.0)
+        has_ylabel = any(p.ylabel for p in self.panels)
+        left = 8.0 + (widest + TICK + 3.0 if widest else 0.0) + (12.0 if has_ylabel else 0.0)
+        if not axis_panels:
+            left = 4.0
+        right = max(8.0, text_width(xlabels[-1], TICK_FONT) / 2 + 4) if xlabels else 4.0
+        plot_w = self.width - left - right
+        body: list[str] = []
+        y = 6.0
+        if self.title:
+            y += self.title_size
+            body.append(_text(6.0, y, self.title, self.title_size, "black", "start"))
+            y += 6.0
+        last = self.panels[-1] if self.panels else None
+        for k, p in enumerate(self.panels):
+            y = _header(body, p, left, plot_w, y)
+            ticks, labels, exp = yticks[id(p)]
+            box = (left, y, plot_w, p.height)
+            _panel(body, p, box, (x0, x1), ticks, labels, exp, xt, xlabels if p is last else None, k)
+            y += p.height
+            if p.axis:
+                y += TICK + 2.0
+            xlabel = p.xlabel
+            if p is last and p.axis:
+                y += TICK_FONT + 2.0
+                if xexp:
+                    xlabel = (xlabel or "x") + _power(xexp)
+            if xlabel:
+                y += 8.0 + 2.0
+                body.append(_text(left + plot_w / 2, y, xlabel, 8.0, "black", "middle"))
+            y += 8.0
+        height = y
+        head = (f'<?xml version="1.0" encoding="utf-8"?>\n'
+                f'<svg xmlns="http://www.w3.org/2000/svg" width="{_n(self.width)}pt" height="{_n(height)}pt" '
+                f'viewBox="0 0 {_n(self.width)} {_n(height)}" font-family="{FONT}">\n'
+                f'<rect width="100%" height="100%" fill="white"/>\n')
+        return head + "".join(body) + "</svg>\n"
+
+
+def _header(body: list[str], p: Panel, left: float, plot_w: float, y: float) -> float:
+    """The panel's title and legend rows above its box; returns the top of the box."""
+    if p.title:
+        text, size = p.title
+        y += size + 2.0
+        body.append(_text(left, y, text, size, "black", "start"))
+        y += 2.0
+    if p.legend:
+        rows: list[list[tuple[float, tuple]]] = [[]]
+        x = 0.0
+        for entry in p.legend:
+            w = 18.0 + text_width(entry[0], 7.0) + 10.0
+            if x and x + w > plot_w:
+                rows.append([])
+                x = 0.0
+            rows[-1].append((x, entry))
+            x += w
+        for row in rows:
+            y += 10.0
+            for dx, (label, color, kind) in row:
+                sx = left + dx
+                if kind == "band":
+                    body.append(f'<rect x="{_n(sx)}" y="{_n(y - 6)}" width="14" height="6" fill="{color}" '
+                                f'fill-opacity="0.15" stroke="none"/>\n')
+                else:
+                    body.append(_seg(sx, y - 3, sx + 14, y - 3, color, 1.2))
+                body.append(_text(sx + 18, y, label, 7.0, "black", "start"))
+        y += 2.0
+    return y + 4.0 if (p.title or p.legend) else y + 2.0
+
+
+def _panel(body: list[str], p: Panel, box, xr, yt, ylabels, yexp, xt, xlabels, k: int) -> None:
+    left, top, w, h = box
+    x0, x1 = xr
+    y0, y1 = p.y_range()
+    px = lambda x: left + (x - x0) / (x1 - x0) * w  # noqa: E731
+    py = lambda y: top + (y1 - y) / (y1 - y0) * h  # noqa: E731
+    if p.axis:
+        for t in xt:
+            body.append(_seg(px(t), top, px(t), top + h, GRID, 0.8, ' stroke-opacity="0.3"'))
+        for t in yt:
+            body.append(_seg(left, py(t), left + w, py(t), GRID, 0.8, ' stroke-opacity="0.3"'))
+        body.append(f'<clipPath id="c{k}"><rect x="{_n(left)}" y="{_n(top)}" width="{_n(w)}" height="{_n(h)}"/>'
+                    f'</clipPath>\n<g clip-path="url(#c{k})">\n')
+    free: list[str] = []  # markers, arrows and text: not clipped
+    for item in p.items:
+        kind = item[0]
+        if kind == "line":
+            _, xs, ys, color, width, dash, opacity = item
+            body.append(f'<polyline points="{_points(xs, ys, px, py)}" fill="none" stroke="{color}" '
+                        f'stroke-width="{_n(width)}"'
+                        f'{_dash(dash, opacity)} stroke-linejoin="round"/>\n')
+        elif kind == "polygon":
+            _, xs, ys, fill, opacity, edge, width, _ = item
+            attrs = f' fill-opacity="{opacity:g}"' if opacity != 1 else ""
+            if edge:  # an edge of the fill's own colour fades with it
+                attrs += f' stroke="{edge}" stroke-width="{_n(width)}"'
+                attrs += f' stroke-opacity="{opacity:g}"' if edge == fill and opacity != 1 else ""
+            else:
+                attrs += ' stroke="none"'
+            body.append(f'<polygon points="{_points(xs, ys, px, py)}" fill="{fill}"{attrs}/>\n')
+        elif kind == "hline":
+            _, yv, color, width = item
+            body.append(_seg(left, py(yv), left + w, py(yv), color, width))
+        elif kind == "vline":
+            _, xv, color, width, dash, opacity = item
+            body.append(_seg(px(xv), top, px(xv), top + h, color, width, _dash(dash, opacity)))
+        elif kind == "ellipse":
+            _, xv, yv, rx, ry, face, edge, width = item
+            body.append(f'<ellipse cx="{_n(px(xv))}" cy="{_n(py(yv))}" rx="{_n(rx / (x1 - x0) * w)}" '
+                        f'ry="{_n(ry / (y1 - y0) * h)}" fill="{face}" stroke="{edge}" stroke-width="{_n(width)}"/>\n')
+        elif kind == "dot":
+            _, xv, yv, size, face, edge, ew = item
+            free.append(f'<circle cx="{_n(px(xv))}" cy="{_n(py(yv))}" r="{_n(size / 2)}" fill="{face or "none"}" '
+                        f'stroke="{edge}" stroke-width="{_n(ew)}"/>\n')
+        elif kind == "arrow":
+            free.append(_arrow(item, px, py))
+        elif kind == "text":
+            _, xv, yv, s, size, color, anchor, baseline, dx, dy = item
+            free.append(_text(px(xv) + dx, py(yv) - dy, s, size, color, anchor, baseline))
+    if p.axis:
+        body.append("</g>\n")
+        body.append(f'<rect x="{_n(left)}" y="{_n(top)}" width="{_n(w)}" height="{_n(h)}" fill="none" '
+                    f'stroke="black" stroke-width="0.8"/>\n')
+        for t, label in zip(yt, ylabels):
+            body.append(_seg(left - TICK, py(t), left, py(t), "black", 0.8))
+            body.append(_text(left - TICK - 2.0, py(t), label, TICK_FONT, "black", "end", "middle"))
+        for i, t in enumerate(xt):
+            body.append(_seg(px(t), top + h, px(t), top + h + TICK, "black", 0.8))
+            if xlabels is not None:
+                body.append(_text(px(t), top + h + TICK + 1.5, xlabels[i], TICK_FONT, "black", "middle", "top"))
+        if p.ylabel:
+            label = p.ylabel + (_power(yexp) if yexp else "")
+            cx, cy = 10.0, top + h / 2
+            body.append(f'<text x="{_n(cx)}" y="{_n(cy)}" font-size="8" text-anchor="middle" '
+                        f'transform="rotate(-90 {_n(cx)} {_n(cy)})">{escape(label)}</text>\n')
+    body += free
+
+
+def _seg(x1: float, y1: float, x2: float, y2: float, color: str, width: float, extra: str = "") -> str:
+    return (f'<line x1="{_n(x1)}" y1="{_n(y1)}" x2="{_n(x2)}" y2="{_n(y2)}" stroke="{color}" '
+            f'stroke-width="{_n(width)}"{extra}/>\n')
+
+
+def _points(xs: list[float], ys: list[float], px, py) -> str:
+    return " ".join(f"{_n(px(a))},{_n(py(b))}" for a, b in zip(xs, ys))
+
+
+def _power(exp: int) -> str:
+    """What an axis label adds when its tick labels are in units of 10^exp."""
+    return f", \u00d710{str(exp).translate(_SUPERSCRIPT)}"
+
+
+def _dash(dash: str | None, opacity: float) -> str:
+    out = f' stroke-dasharray="{DASHES[dash]}"' if dash else ""
+    return out + (f' stroke-opacity="{opacity:g}"' if opacity != 1 else "")
+
+
+def _arrow(item: tuple, px, py) -> str:
+    """A shaft from start to 2 pt short of the tip, and an open (two strokes) or filled head at the tip."""
+    _, (sx, sy), (tx, ty), color, width, filled = item
+    ax, ay, bx, by = px(sx), py(sy), px(tx), py(ty)
+    length = math.hypot(bx - ax, by - ay) or 1.0
+    ux, uy = (bx - ax) / length, (by - ay) / length
+    bx, by = bx - 2.0 * ux, by - 2.0 * uy  # stop short of the member line, as a drawn arrow does
+    head, half = 5.0, 2.2
+    lx, ly = bx - head * ux + half * uy, by - head * uy - half * ux
+    rx, ry = bx - head * ux - half * uy, by - head * uy + half * ux
+    shaft = _seg(ax, ay, bx, by, color, width)
+    if filled:
+        return shaft + (f'<polygon points="{_n(lx)},{_n(ly)} {_n(bx)},{_n(by)} {_n(rx)},{_n(ry)}" fill="{color}" '
+                        f'stroke="none"/>\n')
+    return shaft + (f'<polyline points="{_n(lx)},{_n(ly)} {_n(bx)},{_n(by)} {_n(rx)},{_n(ry)}" fill="none" '
+                    f'stroke="{color}" stroke-width="{_n(width)}"/>\n')
+
+
+def _text(x: float, y: float, s: str, size: float, color: str, anchor: str, baseline: str = "baseline") -> str:
+    """Text at a point; lines below one another; `baseline` puts the block's bottom, top or middle at y."""
+    lines = s.split("\n")
+    step = 1.2 * size
+    if baseline == "bottom":
+        first = y - 0.24 * size - step * (len(lines) - 1)
+    elif baseline == "top":
+        first = y + 0.76 * size
+    elif baseline == "middle":
+        first = y + 0.36 * size - step * (len(lines) - 1) / 2
+    else:
+        first = y
+    fill = "" if color == "black" else f' fill="{color}"'
+    anchor_attr = "" if anchor == "start" else f' text-anchor="{anchor}"'
+    if len(lines) == 1:
+        return f'<text x="{_n(x)}" y="{_n(first)}" font-size="{_n(size)}"{anchor_attr}{fill}>{escape(s)}</text>\n'
+    spans = "".join(f'<tspan x="{_n(x)}" y="{_n(first + i * step)}">{escape(line)}</tspan>'
+                    for i, line in enumerate(lines))
+    return f'<text font-size="{_n(size)}"{anchor_attr}{fill}>{spans}</text>\n'
