@@ -111,3 +111,25 @@ def test_sampled_points_are_exact_values_of_the_curve():
     xs, ys = figures._sample(a.solution.target("live").curves.M, "kN*m")
     for x, y in zip(xs, ys):
         assert y == pytest.approx(float(Fraction(10) * x * (6 - x) / 2), rel=1e-12, abs=1e-12)
+
+
+def _examples():
+    from casefiles import EXAMPLES
+    return sorted(EXAMPLES.glob("*.beam"))
+
+
+@pytest.mark.parametrize("path", _examples(), ids=lambda p: p.stem)
+def test_every_load_label_lies_inside_the_loads_panel(path):
+    # Upward line loads are drawn below the member and downward ones above it; a label outside the first
+    # panel's frame would sit on a curve and be read as part of it.
+    from beamlang.pipeline import analyse
+    a = analyse(path)
+    for key in figures.figure_names(a):
+        if key in ("sign convention", "(envelope)") or key.startswith("(moving) "):
+            continue
+        root = ET.fromstring(figures.target_figure(a, key))
+        x, y, w, h = _box(root)
+        labels = [t for t in root.iter(f"{SVG}text") if t.get("fill") in (figures.LOAD, figures.SETTLE)]
+        for t in labels:
+            for line in (t.findall(f"{SVG}tspan") or [t]):
+                assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (key, t.text)

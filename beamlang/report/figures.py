@@ -68,7 +68,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     for sp in m.supports:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
-    stack = 0
+    levels = {1: 0, -1: 0}  # line loads drawn so far above the member (downward loads) and below it (upward)
     for case in m.cases:
         if case.name not in factors:
             continue
@@ -80,11 +80,10 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
             if isinstance(load, LineLoad) and len(pieces[load.span.line]) > 1:
                 group = pieces[load.span.line]
                 if load is group[0]:
-                    _pieces(ax, group, factors[case.name], u, stack)
-                    stack += 1
+                    _pieces(ax, group, factors[case.name], u, levels)
                 continue
-            stack += _load(ax, load, factors[case.name], u, stack)
-    ax.ylim = (-1.7, max(1.6, 1.0 + 0.9 * stack))
+            _load(ax, load, factors[case.name], u, levels, L)
+    ax.ylim = (min(-1.7, -(1.3 + 0.9 * levels[-1])), max(1.6, 1.0 + 0.9 * levels[1]))
     ax.yticks = False
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
     if a.solution.member.moving(name):
@@ -122,15 +121,17 @@ def mark_changes_and_hinges(ax, m, u: dict) -> None:
         ax.vline(x, color="#777777", width=0.6, dash="dotted")
 
 
-def _pieces(ax, group: list, factor: Fraction, u: dict, stack: int) -> None:
+def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int]) -> None:
     """A line load given per stretch (self-weight of a stepped member): drawn at one level, labelled once."""
+    sign = _side(group[0], factor)
+    base = _base(sign, levels[sign])
     for piece in group:
-        _load(ax, piece, factor, u, stack, label=False)
+        _load(ax, piece, factor, u, dict(levels), 0.0, label=False)  # every piece at the same level
+    levels[sign] += 1
     unit = u["force"] + "/" + u["length"]
     values = sorted({abs(piece.w1 * factor) for piece in group})
     x1, x2 = float(convert(group[0].x1, u["length"])), float(convert(group[-1].x2, u["length"]))
-    sign = 1 if group[0].w1 * factor < 0 else -1
-    ax.text((x1 + x2) / 2, (0.25 + 0.9 * stack + 0.7) * sign,
+    ax.text((x1 + x2) / 2, (base + 0.85) * sign,
             f"{group[0].origin}, {number(convert(values[0], unit))} to {number(convert(values[-1], unit))} {unit}",
             6.0, LOAD, "middle", "bottom" if sign > 0 else "top")
 
@@ -168,34 +169,51 @@ LOAD = "#8b4513"
 SETTLE = "#6a1b9a"
 
 
-def _load(ax, load, factor: Fraction, u: dict, stack: int, label: bool = True) -> int:
-    """Draw one load; distributed loads stack upwards so that none hides another. Returns 1 if stacked."""
+def _anchor(x: float, L: float) -> str:
+    """A label centred on its load, or reaching inwards from a load at an end of the member."""
+    return "start" if x < 0.08 * L else "end" if x > 0.92 * L else "middle"
+
+
+def _side(load: LineLoad, factor: Fraction) -> int:
+    """1: drawn above the member (a downward load), -1: below it (an upward one)."""
+    return 1 if (load.w1 + load.w2) * factor < 0 else -1
+
+
+def _base(sign: int, level: int) -> float:
+    """Distance from the member line to the near edge of a line load at a level; below the member the first
+    level starts under the support symbols."""
+    return (0.1 if sign > 0 else 1.15) + 0.9 * level
+
+
+def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float, label: bool = True) -> None:
+    """Draw one load; line loads stack outwards from the member (downward ones above it, upward ones below)
+    so that none hides another; `levels` counts the levels taken on each side."""
     if isinstance(load, PointLoad):
         x = float(convert(load.x, u["length"]))
         up = load.force > 0
         ax.arrow((x, 1.1 if not up else -1.1), (x, 0.05 if not up else -0.05), LOAD, 1.2)
         ax.text(x, 1.2 if not up else -1.2, number(convert(abs(load.force * factor), u["force"])) + f" {u['force']}",
-                7.0, LOAD, "middle", "bottom" if not up else "top")
+                7.0, LOAD, _anchor(x, L), "bottom" if not up else "top")
     elif isinstance(load, MomentLoad):
         x = float(convert(load.x, u["length"]))
         turn = "counterclockwise" if load.moment > 0 else "clockwise"
         ax.dot(x, 0, 9.0, None, LOAD)
         ax.text(x, 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} {u['moment']}\n{turn}",
-                6.0, LOAD, "middle", "bottom")
-        return 0
+                6.0, LOAD, _anchor(x, L), "bottom")
     elif isinstance(load, Settlement):
         x = float(convert(load.x, u["length"]))
         down = load.movement < 0
         ax.arrow((x, -0.75 if down else -1.25), (x, -1.25 if down else -0.75), SETTLE, 1.0, filled=True)
         ax.text(x, -1.35, f"settles {number(convert(abs(load.movement * factor), u['deflection']))} {u['deflection']}"
-                + ("" if down else " up"), 6.0, SETTLE, "middle", "top")
+                + ("" if down else " up"), 6.0, SETTLE, _anchor(x, L), "top")
     elif isinstance(load, LineLoad):
         x1, x2 = float(convert(load.x1, u["length"])), float(convert(load.x2, u["length"]))
         w1, w2 = load.w1 * factor, load.w2 * factor
         big = max(abs(w1), abs(w2)) or 1
         h1, h2 = 0.2 + 0.6 * float(abs(w1) / big), 0.2 + 0.6 * float(abs(w2) / big)
-        sign = 1 if (w1 + w2) < 0 else -1  # downward loads drawn above the member
-        base = 0.1 + 0.9 * stack
+        sign = _side(load, factor)
+        base = _base(sign, levels[sign])
+        levels[sign] += 1
         ax.polygon([x1, x1, x2, x2], [base * sign, (base + h1 * 0.8) * sign, (base + h2 * 0.8) * sign, base * sign],
                    LOAD, 0.15, edge=LOAD, width=0.8)
         h1, h2 = base + h1 * 0.8 - 0.1, base + h2 * 0.8 - 0.1
@@ -204,8 +222,6 @@ def _load(ax, load, factor: Fraction, u: dict, stack: int, label: bool = True) -
         if label:
             ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", 6.0, LOAD, "middle",
                     "bottom" if sign > 0 else "top")
-        return 1
-    return 0
 
 
 def sign_convention_figure() -> str:

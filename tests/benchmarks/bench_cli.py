@@ -61,19 +61,35 @@ def main() -> None:
         verdict = "within budget" if t <= budget else "OVER: see the stage timings below"
         print(f"{name:34} {t:10.2f} s {budget:6.1f} s  {verdict}")
     print(f"{'engine only (solve + results), one member':44} {eng * 1000:8.0f} ms")
-    t0 = time.perf_counter()
-    import beamlang.report.figures as figures
-    from beamlang.pipeline import analyse
-    a = analyse(EXAMPLE)
-    t1 = time.perf_counter()
-    figures.all_figures(a)
-    t2 = time.perf_counter()
-    from beamlang.report.package import package_files
-    package_files(a)
-    t3 = time.perf_counter()
-    print(f"stages of build, one member: analyse {t1 - t0:.2f} s, figures {t2 - t1:.2f} s, "
-          f"whole package incl. figures again {t3 - t2:.2f} s")
+    print(stage_line(EXAMPLE))
 
+
+def stage_line(path: Path) -> str:
+    """The stages of one build in this process, first call (imports included) then a second, warm one."""
+    import json
+
+    from beamlang.jsonout import member_json
+    from beamlang.pipeline import analyse
+    from beamlang.report.figures import all_figures, figure_names
+    from beamlang.report.html import member_html
+    from beamlang.report.markdown import member_markdown
+    rows = []
+    for _ in range(2):
+        t = [time.perf_counter()]
+        a = analyse(path)
+        t.append(time.perf_counter())
+        svgs = all_figures(a)
+        t.append(time.perf_counter())
+        text = member_markdown(a, {k: f"figures/{f}" for k, f in figure_names(a).items()}, [])
+        t.append(time.perf_counter())
+        member_html(text, "bench", {f"figures/{k}": v for k, v in svgs.items()})
+        t.append(time.perf_counter())
+        json.dumps(member_json(a))
+        t.append(time.perf_counter())
+        rows.append([b - a for a, b in zip(t, t[1:])])
+    names = ("analyse", "figures", "Markdown (sympy formulas)", "HTML (MathML)", "JSON")
+    return "stages of one build, first / warm: " + ", ".join(
+        f"{n} {first * 1000:.0f} / {warm * 1000:.0f} ms" for n, first, warm in zip(names, *rows))
 
 if __name__ == "__main__":
     main()
