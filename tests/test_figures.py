@@ -7,10 +7,12 @@ import xml.etree.ElementTree as ET
 from fractions import Fraction
 
 import pytest
+from hypothesis import HealthCheck, given, settings
 
 from beamlang.report import figures
 from beamlang.report.svgplot import Figure, nice_ticks, tick_labels
 from engine_helpers import analyse_text, member_text
+from strategies import members
 
 SVG = "{http://www.w3.org/2000/svg}"
 
@@ -133,3 +135,18 @@ def test_every_load_label_lies_inside_the_loads_panel(path):
         for t in labels:
             for line in (t.findall(f"{SVG}tspan") or [t]):
                 assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (key, t.text)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(members())
+def test_figures_of_generated_members_are_xml_with_labels_in_their_panel(text):
+    a = analyse_text(text)
+    for file, svg in figures.all_figures(a).items():
+        root = ET.fromstring(svg)
+        if file in ("sign-convention.svg", "envelope.svg") or file.endswith("-moving.svg"):
+            continue
+        x, y, w, h = _box(root)
+        for t in root.iter(f"{SVG}text"):
+            if t.get("fill") in (figures.LOAD, figures.SETTLE):
+                for line in (t.findall(f"{SVG}tspan") or [t]):
+                    assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (file, t.text)

@@ -12,6 +12,7 @@ from .svgplot import Figure
 SAMPLES_PER_SEGMENT = 40
 CURVE = "#1f4e79"
 MARK = "#b22222"
+POINTS_PER_LEVEL = 30.0  # height of one unit of the loads panel (a level is 0.9): labels keep their room
 LABEL_ROOM = 0.16  # y margin of a curve's panel: the labels of its marked extremes fit inside the frame
 
 
@@ -84,6 +85,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
                 continue
             _load(ax, load, factors[case.name], u, levels, L)
     ax.ylim = (min(-1.7, -(1.3 + 0.9 * levels[-1])), max(1.6, 1.0 + 0.9 * levels[1]))
+    ax.height = max(100.0, POINTS_PER_LEVEL * (ax.ylim[1] - ax.ylim[0]))  # more levels: a taller panel, same scale
     ax.yticks = False
     title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
     if a.solution.member.moving(name):

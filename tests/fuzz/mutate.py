@@ -1,7 +1,9 @@
 """Mutation fuzzing: damage the examples (delete, duplicate, swap tokens, flip units and directions,
 insert random bytes and Unicode) and check that beamlang answers with a result or a clean error.
 
-Run any number: python tests/fuzz/mutate.py 10000   (prints a summary; exit 1 on the first crash)."""
+Run any number: python tests/fuzz/mutate.py 10000 [SEED] [--build]   (prints a summary; exit 1 on a crash).
+With --build, every input that checks is also built into a calc package (figures, Markdown, HTML), about
+ten times slower."""
 
 from __future__ import annotations
 
@@ -53,7 +55,7 @@ def mutate(text: str, rng: random.Random) -> str:
     return "".join(lines)
 
 
-def check_one(text: str, workdir: Path) -> str | None:
+def check_one(text: str, workdir: Path, build: bool = False) -> str | None:
     """None when beamlang behaved; otherwise a description of the problem."""
     import contextlib
     import io
@@ -61,7 +63,8 @@ def check_one(text: str, workdir: Path) -> str | None:
     path = workdir / "fuzz.beam"
     path.write_text(text, encoding="utf-8", errors="surrogatepass")
     n_lines = max(1, len(text.splitlines()))
-    for argv in (["fmt", "--check", "fuzz.beam"], ["check", "fuzz.beam"]):
+    commands = [["fmt", "--check", "fuzz.beam"], ["check", "fuzz.beam"]]
+    for argv in commands:
         err, out = io.StringIO(), io.StringIO()
         with contextlib.redirect_stderr(err), contextlib.redirect_stdout(out):
             code = main(argv)
@@ -77,10 +80,12 @@ def check_one(text: str, workdir: Path) -> str | None:
                     return f"{argv[0]}: position outside the file: {m.group(0)}"
         elif code not in (0, 1):
             return f"{argv[0]}: unexpected exit code {code}"
+        elif build and argv[0] == "check":  # a member that checks must also build
+            commands.append(["build", "fuzz.beam", "-o", "fuzz-out"])
     return None
 
 
-def run(count: int, seed: int = 0, workdir: Path | None = None) -> tuple[int, list[str]]:
+def run(count: int, seed: int = 0, workdir: Path | None = None, build: bool = False) -> tuple[int, list[str]]:
     import os
     import tempfile
     rng = random.Random(seed)
@@ -92,7 +97,7 @@ def run(count: int, seed: int = 0, workdir: Path | None = None) -> tuple[int, li
         try:
             for _ in range(count):
                 text = mutate(rng.choice(examples), rng)
-                problem = check_one(text, Path(workdir or tmp))
+                problem = check_one(text, Path(workdir or tmp), build)
                 if problem:
                     problems.append(problem + "\n--- input ---\n" + text)
         finally:
@@ -101,11 +106,14 @@ def run(count: int, seed: int = 0, workdir: Path | None = None) -> tuple[int, li
 
 
 if __name__ == "__main__":
-    n = int(sys.argv[1]) if len(sys.argv) > 1 else 1000
-    seed = int(sys.argv[2]) if len(sys.argv) > 2 else 0
+    args = [a for a in sys.argv[1:] if a != "--build"]
+    n = int(args[0]) if args else 1000
+    seed = int(args[1]) if len(args) > 1 else 0
+    build = "--build" in sys.argv
     t0 = time.perf_counter()
-    count, problems = run(n, seed)
-    print(f"{count} mutated inputs, seed {seed}, {time.perf_counter() - t0:.0f} s, {len(problems)} problems")
+    count, problems = run(n, seed, build=build)
+    print(f"{count} mutated inputs{' (built when they check)' if build else ''}, seed {seed}, "
+          f"{time.perf_counter() - t0:.0f} s, {len(problems)} problems")
     for p in problems[:5]:
         print(p)
     sys.exit(1 if problems else 0)
