@@ -1,8 +1,11 @@
 """Symbolic formulas: Member + one load -> that load's elastic curve in symbols (P or w, a, b, L, E, I, ...).
 
-The engine itself derives them: the same solver runs on numbers that carry a sympy expression beside
+The engine itself derives them: the same solver runs on numbers that carry a symbolic expression beside
 their exact value. Orderings and zero tests use the value, so the formula is the one that holds for this
-layout (which segment lies where); the algebra is done by sympy. Used only by the calc package."""
+layout (which segment lies where). The expressions are elements of sympy's field of rational functions
+in the member's symbols (`sympy.polys.fields`), kept reduced at every step: measured on the examples, the
+same formulas as with plain sympy expressions and `together` at the end, 7 times faster (10.6 s -> 1.5 s
+for all of them, one fixed-end load 8.9 s -> 0.5 s). Used only by the calc package."""
 
 from __future__ import annotations
 
@@ -16,14 +19,12 @@ from .model import Load, Member, MomentLoad, PointLoad, Settlement
 @dataclass(frozen=True, slots=True, eq=False)
 class Sym:
     value: Fraction
-    expr: object  # a sympy expression
+    expr: object  # a rational function of the symbols (sympy FracElement); takes exact numbers as they are
 
     def _pair(self, other):
         if isinstance(other, Sym):
             return other.value, other.expr
-        import sympy
-        other = Fraction(other)
-        return other, sympy.Rational(int(other.numerator), int(other.denominator))
+        return other, other
 
     def __add__(self, other):
         v, e = self._pair(other)
@@ -83,13 +84,38 @@ class Sym:
 
 def symbolic_member(member: Member, load: Load) -> tuple[Member, Load, dict[str, Fraction]]:
     """The member with only `load`, every number a Sym; also {symbol name: its value}."""
-    import sympy
-    names: dict[str, Fraction] = {}
+    names = _names(member, load)
+    generators = dict(zip(names, _field(tuple(names))))
 
     def sym(name: str, value: Fraction) -> Sym:
-        names[name] = value
-        return Sym(value, sympy.Symbol(name, positive=True))
+        return Sym(value, generators[name])
 
+    m, new_load = _build(member, load, sym)
+    return m, new_load, names
+
+
+def _names(member: Member, load: Load) -> dict[str, Fraction]:
+    """The symbols the member and load need, in the order they are met, with their values."""
+    names: dict[str, Fraction] = {}
+
+    def note(name: str, value: Fraction) -> Fraction:
+        names[name] = value
+        return Fraction(value)
+
+    _build(member, load, note)
+    return names
+
+
+def _field(names: tuple[str, ...]) -> list:
+    import sympy
+    from sympy.polys.domains import QQ
+    from sympy.polys.fields import field
+    _, *gens = field([sympy.Symbol(n, positive=True) for n in names], QQ)
+    return gens
+
+
+def _build(member: Member, load: Load, sym) -> tuple[Member, Load]:
+    """The member with only `load`, its numbers made by `sym(name, value)` (symbols, or names noted)."""
     L = sym("L", member.length)
 
     def pos(value: Fraction, name: str) -> Sym | Fraction:
@@ -110,7 +136,7 @@ def symbolic_member(member: Member, load: Load) -> tuple[Member, Load, dict[str,
     stretch = dataclasses.replace(member.stretches[0], x2=L, material=mat, section=sec)
     m = dataclasses.replace(member, length=L, stretches=(stretch,), supports=tuple(supports), cases=(case,),
                             combinations=(), report_points=())
-    return m, new_load, names
+    return m, new_load
 
 
 def _symbolic_load(load: Load, pos, sym) -> Load:
@@ -163,7 +189,7 @@ def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fract
 def _expr(c):
     import sympy
     if isinstance(c, Sym):
-        return c.expr
+        return c.expr.as_expr()
     c = Fraction(c)
     return sympy.Rational(int(c.numerator), int(c.denominator))
 
