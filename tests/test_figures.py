@@ -150,3 +150,21 @@ def test_figures_of_generated_members_are_xml_with_labels_in_their_panel(text):
             if t.get("fill") in (figures.LOAD, figures.SETTLE):
                 for line in (t.findall(f"{SVG}tspan") or [t]):
                     assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (file, t.text)
+
+
+def test_deflection_limit_is_drawn_at_its_allowed_value():
+    # span/360 on a 6 m span allows 16.67 mm (the limit as the governing codes write it: common practice,
+    # no source); the dashed line must sit at that value on the deflection axis, below the member.
+    a = analyse_text(member_text("6 m", ["pin at 0 m", "roller at span"], {"live": ["uniform 10 kN/m down"]},
+                                 extra=["limit deflection live span/360"]))
+    root = ET.fromstring(figures.target_figure(a, "live"))
+    assert any(t.text == "span/360: 16.67 mm" for t in root.iter(f"{SVG}text"))
+    frames = [r for r in root.iter(f"{SVG}rect") if r.get("stroke") == "black"]
+    top, h = float(frames[4].get("y")), float(frames[4].get("height"))
+    ticks = [(float(t.get("y")) - 0.36 * 7, float(t.text.replace("\u2212", "-"))) for t in root.iter(f"{SVG}text")
+             if t.get("text-anchor") == "end" and top <= float(t.get("y")) <= top + h + 3]
+    (ya, va), (yb, vb) = ticks[0], ticks[-1]
+    dashed = [e for e in root.iter(f"{SVG}polyline") if e.get("stroke") == figures.MARK and e.get("stroke-dasharray")]
+    assert len(dashed) == 1
+    y = float(dashed[0].get("points").split()[0].split(",")[1])
+    assert va + (y - ya) * (vb - va) / (yb - ya) == pytest.approx(-6000 / 360, abs=0.05)

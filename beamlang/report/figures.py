@@ -40,6 +40,8 @@ def target_figure(a: Analysis, name: str) -> str:
         ax.hline(0, width=0.6)
         mark_changes_and_hinges(ax, m, u)
         ax.ylabel = f"{label} ({u[quantity]})"
+        if quantity == "deflection" and r.envelope is None:
+            limit_lines(ax, m, r, u)
         for loc in marks or []:
             x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
             ax.dot(x, y, 3.5, MARK)
@@ -49,6 +51,24 @@ def target_figure(a: Analysis, name: str) -> str:
     ax.xlabel = f"x ({u['length']}) from the left end"
     fig.xlim = (-0.03 * L, 1.03 * L)  # a support symbol at an end fits inside the frame
     return fig.svg()
+
+
+def limit_lines(ax, m, r, u: dict) -> None:
+    """Each deflection limit on this target as a dashed line over each span and overhang, at the allowed value on
+    the side the member deflects there (the check compares the largest deflection either way)."""
+    limits = [limit for limit in m.limits if limit.target == r.name]
+    for limit in limits:
+        for region in r.regions:
+            allowed = limit.value if limit.value is not None else region.basis / limit.divisor
+            side = -1 if region.max_abs is None or region.max_abs.value <= 0 else 1
+            y = float(convert(side * allowed, u["deflection"]))
+            x1, x2 = (float(convert(v, u["length"])) for v in (region.lo, region.hi))
+            ax.line([x1, x2], [y, y], color=MARK, width=0.8, dash="dashed")
+            what = "limit" if limit.value is not None else f"span/{number(limit.divisor)}"
+            if region.kind != "span" and limit.value is None:
+                what = f"2 x {region.kind}/{number(limit.divisor)}"
+            ax.text((x1 + x2) / 2, y, f"{what}: {number(abs(y))} {u['deflection']}", 6.0, MARK, "middle",
+                    dy=3 if side > 0 else -8)
 
 
 def _sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:

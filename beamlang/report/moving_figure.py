@@ -14,7 +14,7 @@ import numpy as np
 from ..display import convert, number, report_units
 from ..moving import directions, group_offsets, kernels_for, standing_loads
 from ..pipeline import Analysis
-from .figures import CURVE, LABEL_ROOM, LOAD, MARK, mark_changes_and_hinges
+from .figures import CURVE, LABEL_ROOM, LOAD, MARK, limit_lines, mark_changes_and_hinges
 from .svgplot import Figure
 
 POSITIONS = 400  # group positions per direction for the drawn envelopes
@@ -128,6 +128,8 @@ def moving_figure(a: Analysis, name: str) -> str:
         ax.line(px, bottom, color=CURVE, width=1.0)
         ax.hline(0, width=0.6)
         mark_changes_and_hinges(ax, m, u)
+        if q == "v":
+            limit_lines(ax, m, r, u)
         ax.ylabel = f"{q} ({u[quantity]})"
         ax.title = (f"envelope of {q} over every position of the group (drawn from "
                     f"{2 * POSITIONS if len(offsets_all) > 1 else POSITIONS} positions; the dots are the exact extremes)", 7.0)
