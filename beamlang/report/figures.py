@@ -67,8 +67,11 @@ def limit_lines(ax, m, r, u: dict) -> None:
             what = "limit" if limit.value is not None else f"span/{number(limit.divisor)}"
             if region.kind != "span" and limit.value is None:
                 what = f"2 x {region.kind}/{number(limit.divisor)}"
-            ax.text((x1 + x2) / 2, y, f"{what}: {number(abs(y))} {u['deflection']}", 6.0, MARK, "middle",
-                    dy=3 if side > 0 else -8)
+            L = float(convert(m.length, u["length"]))
+            short = x2 - x1 < 0.3 * L  # a short overhang: the label reaches inwards from the member's end
+            x, anchor = ((x2, "end") if short and x2 >= L else (x1, "start") if short and x1 <= 0
+                         else ((x1 + x2) / 2, "middle"))
+            ax.text(x, y, f"{what}: {number(abs(y))} {u['deflection']}", 6.0, MARK, anchor, dy=3 if side > 0 else -8)
 
 
 def _sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
