@@ -8,6 +8,7 @@ from fractions import Fraction
 from . import model as m
 from . import syntax as s
 from .errors import Collector
+from .exact import plain
 from .sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
 from .source import Span
 from .stability import Mechanism, components, keep
@@ -213,16 +214,16 @@ class _Builder:
         at = Fraction(0)
         for x1, x2, _, st in placed:
             if x1 > at:
-                self.errors.error(st.stretch.span, f"no {key} covers {_num(at)} m to {_num(x1)} m",
+                self.errors.error(st.stretch.span, f"no {key} covers {plain(at)} m to {plain(x1)} m",
                                   f"every part of the member needs a {key}: the stretches must meet end to end")
             elif x1 < at:
-                self.errors.error(st.stretch.span, f"this {key} overlaps another from {_num(x1)} m to "
-                                  f"{_num(min(at, x2))} m", "the stretches must meet end to end, without overlap")
+                self.errors.error(st.stretch.span, f"this {key} overlaps another from {plain(x1)} m to "
+                                  f"{plain(min(at, x2))} m", "the stretches must meet end to end, without overlap")
             at = max(at, x2)
         if at < self.length:
             last = placed[-1][3]
             self.errors.error(last.stretch.span if last.stretch else last.span,
-                              f"no {key} covers {_num(at)} m to {_num(self.length)} m (the end of the member)",
+                              f"no {key} covers {plain(at)} m to {plain(self.length)} m (the end of the member)",
                               f"every part of the member needs a {key}: the last stretch must end at the span")
         return [(x1, x2, v) for x1, x2, v, _ in placed]
 
@@ -614,9 +615,6 @@ def _why_unstable(supports: list[m.Support]) -> str:
         return "springs of zero stiffness restrain nothing; give them a stiffness or add a support"
     return "one pin, roller or spring lets the beam turn about it; add a second support or make one fixed"
 
-
-def _num(value: Fraction) -> str:
-    return f"{float(value):.6g}"
 
 
 def _count(n: int, word: str) -> str:

@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
+from .exact import plain
 from .extrema import SAME
 from .model import Member
 from .results import TargetResult
@@ -32,7 +33,7 @@ class Check:
     def label(self) -> str:
         """How the check is named wherever it is listed: kind, target and input line (and the support,
         for a slope limit, which gives one check per support)."""
-        where = f" at x = {_num(self.x)} m" if self.kind == "support slope" else ""
+        where = f" at x = {plain(self.x)} m" if self.kind == "support slope" else ""
         return f"{self.kind} {self.target}{where} (line {self.span.line})"
 
     @property
@@ -67,12 +68,12 @@ def _deflection(limit, r: TargetResult) -> Check:
         if best is None or actual / allowed > best[0] / best[1] * (1 + SAME):
             best = (actual, allowed, region)
     actual, allowed, region = best
-    n = _num(limit.divisor)
+    n = plain(limit.divisor)
     if region.kind == "span":
-        basis = f"span/{n}, span {_num(region.hi - region.lo)} m from x = {_num(region.lo)} m"
+        basis = f"span/{n}, span {plain(region.hi - region.lo)} m from x = {plain(region.lo)} m"
     else:
-        basis = (f"2 x {region.kind} length / {n}, {region.kind} {_num(region.hi - region.lo)} m "
-                 f"from x = {_num(region.lo)} m (twice the length: common practice)")
+        basis = (f"2 x {region.kind} length / {n}, {region.kind} {plain(region.hi - region.lo)} m "
+                 f"from x = {plain(region.lo)} m (twice the length: common practice)")
     x = region.max_abs.x if region.max_abs else None
     return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span,
                  region.kind)
@@ -98,7 +99,7 @@ def _where(member: Member, at) -> str:
         return ""
     side = "left" if at.side == "left" else "right"
     s = member.stretch_at(at.x, side)
-    return f"; section of {_num(s.x1)} m to {_num(s.x2)} m (line {s.section.span.line})"
+    return f"; section of {plain(s.x1)} m to {plain(s.x2)} m (line {s.section.span.line})"
 
 
 def _slopes(member: Member, limit, results: tuple[TargetResult, ...]) -> list[Check]:
@@ -112,12 +113,7 @@ def _slopes(member: Member, limit, results: tuple[TargetResult, ...]) -> list[Ch
             if sp.kind == "fixed":
                 continue
             out.append(Check("support slope", r.name, abs(theta), limit.value, "rad", abs(theta) <= limit.value, x,
-                             f"slope at the {sp.kind} at x = {_num(x)} m (line {sp.span.line}), limit given by "
+                             f"slope at the {sp.kind} at x = {plain(x)} m (line {sp.span.line}), limit given by "
                              "the user", limit.span))
     return out
 
-
-def _num(value: Fraction) -> str:
-    """A length or count in plain decimals for a basis text."""
-    f = float(value)
-    return f"{f:.6g}"

@@ -17,3 +17,8 @@ except ImportError:  # pragma: no cover - gmpy2 is a dependency; Fraction keeps 
 def fraction(value) -> Fraction:
     """The same rational as a Fraction with int parts (for Fraction-only methods such as limit_denominator)."""
     return Fraction(int(value.numerator), int(value.denominator))
+
+
+def plain(value) -> str:
+    """A length, count or factor in plain decimals (six significant digits) for a message or a basis text."""
+    return f"{float(value):.6g}"
