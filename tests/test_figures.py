@@ -131,7 +131,7 @@ def test_every_load_label_lies_inside_the_loads_panel(path):
             continue
         root = ET.fromstring(figures.target_figure(a, key))
         x, y, w, h = _box(root)
-        labels = [t for t in root.iter(f"{SVG}text") if t.get("fill") in (figures.LOAD, figures.SETTLE)]
+        labels = [t for t in root.iter(f"{SVG}text") if t.get("fill") in (figures.LOAD, figures.SETTLE, figures.REACTION)]
         for t in labels:
             for line in (t.findall(f"{SVG}tspan") or [t]):
                 assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (key, t.text)
@@ -147,7 +147,7 @@ def test_figures_of_generated_members_are_xml_with_labels_in_their_panel(text):
             continue
         x, y, w, h = _box(root)
         for t in root.iter(f"{SVG}text"):
-            if t.get("fill") in (figures.LOAD, figures.SETTLE):
+            if t.get("fill") in (figures.LOAD, figures.SETTLE, figures.REACTION):
                 for line in (t.findall(f"{SVG}tspan") or [t]):
                     assert x <= float(line.get("x")) <= x + w and y <= float(line.get("y")) <= y + h, (file, t.text)
 
@@ -168,3 +168,13 @@ def test_deflection_limit_is_drawn_at_its_allowed_value():
     assert len(dashed) == 1
     y = float(dashed[0].get("points").split()[0].split(",")[1])
     assert va + (y - ya) * (vb - va) / (yb - ya) == pytest.approx(-6000 / 360, abs=0.05)
+
+
+def test_reactions_are_written_under_their_supports():
+    # Simple span, full uniform load: each reaction is w L / 2 = 30 kN up (statics).
+    root = ET.fromstring(figures.target_figure(_member(), "live"))
+    x, y, w, h = _box(root)
+    labels = [t for t in root.iter(f"{SVG}text") if t.get("fill") == figures.REACTION]
+    assert [t.text for t in labels] == ["R = 30 kN up", "R = 30 kN up"]
+    assert all(y < float(t.get("y")) < y + h for t in labels)
+    assert float(labels[0].get("x")) < x + 0.1 * w and float(labels[1].get("x")) > x + 0.9 * w

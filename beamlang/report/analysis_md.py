@@ -59,7 +59,7 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
     lines += _superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
-    lines += _points(a, r) + [f"![{md(name)}: loads, V, M, slope and deflection]({figure})", ""]
+    lines += _points(a, r) + [f"![{md(name)}: loads and reactions, V, M, slope and deflection with its limits]({figure})", ""]
     return lines
 
 

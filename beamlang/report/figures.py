@@ -93,6 +93,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
     levels = {1: 0, -1: 0}  # line loads drawn so far above the member (downward loads) and below it (upward)
+    drawn = []
     for case in m.cases:
         if case.name not in factors:
             continue
@@ -107,10 +108,17 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
                     _pieces(ax, group, factors[case.name], u, levels)
                 continue
             _load(ax, load, factors[case.name], u, levels, L)
-    ax.ylim = (min(-1.7, -(1.3 + 0.9 * levels[-1])), max(1.6, 1.0 + 0.9 * levels[1]))
+            drawn.append(load)
+    low = _lowest(drawn, levels)
+    r = a.result(name)
+    if r.envelope is None:  # a moving group's reactions depend on where it stands: see its table
+        _reactions(ax, m, r, u, L, low)
+        low += 0.55
+    ax.ylim = (min(-1.7, -(low + 0.2)), max(1.6, 1.0 + 0.9 * levels[1]))
     ax.height = max(100.0, POINTS_PER_LEVEL * (ax.ylim[1] - ax.ylim[0]))  # more levels: a taller panel, same scale
     ax.yticks = False
-    title = f"{name}: loads and supports" + ("" if len(factors) == 1 else " (factored)")
+    title = f"{name}: loads, supports" + (" and reactions" if r.envelope is None else "")
+    title += "" if len(factors) == 1 else " (factored)"
     if a.solution.member.moving(name):
         title += "; the moving group is not drawn (see its table)"
     if m.stepped:
@@ -144,6 +152,30 @@ def mark_changes_and_hinges(ax, m, u: dict) -> None:
     """Dotted verticals on a curve's axes where the section changes and at every hinge."""
     for x in changes(m, u) + [float(convert(h.x, u["length"])) for h in m.hinges]:
         ax.vline(x, color="#777777", width=0.6, dash="dotted")
+
+
+def _lowest(drawn: list, levels: dict[int, int]) -> float:
+    """How far below the member line the drawing reaches: supports, settlements, upward forces and loads."""
+    low = 1.0
+    if any(isinstance(ld, Settlement) for ld in drawn):
+        low = 1.6
+    if any(isinstance(ld, PointLoad) and ld.force > 0 for ld in drawn):
+        low = max(low, 1.5)
+    return max(low, 1.2 + 0.9 * levels[-1]) if levels[-1] else low
+
+
+def _reactions(ax, m, r, u: dict, L: float, low: float) -> None:
+    """Each support's reaction written under it, below everything else drawn: the panel is then a free-body
+    diagram a checker can sum."""
+    for sp, (x, force, moment) in zip(m.supports, r.reactions):
+        if force == 0 and moment == 0:
+            continue
+        xr = float(convert(x, u["length"]))
+        text = f"R = {number(convert(abs(force), u['force']))} {u['force']} {'up' if force >= 0 else 'down'}"
+        if sp.kind == "fixed" and moment != 0:
+            turn = "counterclockwise" if moment > 0 else "clockwise"
+            text += f"\nM = {number(convert(abs(moment), u['moment']))} {u['moment']} {turn}"
+        ax.text(xr, -(low + 0.1), text, 6.0, REACTION, _anchor(xr, L), "top")
 
 
 def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int]) -> None:
@@ -191,6 +223,7 @@ def _support(ax, x: float, kind: str, L: float) -> None:
 
 
 LOAD = "#8b4513"
+REACTION = "#2e7d32"
 SETTLE = "#6a1b9a"
 
 
