@@ -94,6 +94,8 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     factors = {case: f for f, case in _terms(a, name)}
     levels = {1: 0, -1: 0}  # line loads drawn so far above the member (downward loads) and below it (upward)
     drawn = []
+    marks = tuple(float(convert(ld.x, u["length"])) for case in m.cases if case.name in factors
+                  for ld in case.loads if isinstance(ld, (PointLoad, MomentLoad)))
     for case in m.cases:
         if case.name not in factors:
             continue
@@ -105,9 +107,9 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
             if isinstance(load, LineLoad) and len(pieces[load.span.line]) > 1:
                 group = pieces[load.span.line]
                 if load is group[0]:
-                    _pieces(ax, group, factors[case.name], u, levels)
+                    _pieces(ax, group, factors[case.name], u, levels, L, marks)
                 continue
-            _load(ax, load, factors[case.name], u, levels, L)
+            _load(ax, load, factors[case.name], u, levels, L, marks=marks)
             drawn.append(load)
     low = _lowest(drawn, levels)
     r = a.result(name)
@@ -178,17 +180,17 @@ def _reactions(ax, m, r, u: dict, L: float, low: float) -> None:
         ax.text(xr, -(low + 0.1), text, 6.0, REACTION, _anchor(xr, L), "top")
 
 
-def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int]) -> None:
+def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int], L: float, marks: tuple) -> None:
     """A line load given per stretch (self-weight of a stepped member): drawn at one level, labelled once."""
     sign = _side(group[0], factor)
     base = _base(sign, levels[sign])
     for piece in group:
-        _load(ax, piece, factor, u, dict(levels), 0.0, label=False)  # every piece at the same level
+        _load(ax, piece, factor, u, dict(levels), L, label=False)  # every piece at the same level
     levels[sign] += 1
     unit = u["force"] + "/" + u["length"]
     values = sorted({abs(piece.w1 * factor) for piece in group})
     x1, x2 = float(convert(group[0].x1, u["length"])), float(convert(group[-1].x2, u["length"]))
-    ax.text((x1 + x2) / 2, (base + 0.85) * sign,
+    ax.text(_label_x(x1, x2, marks, L), (base + 0.85) * sign,
             f"{group[0].origin}, {number(convert(values[0], unit))} to {number(convert(values[-1], unit))} {unit}",
             6.0, LOAD, "middle", "bottom" if sign > 0 else "top")
 
@@ -243,9 +245,19 @@ def _base(sign: int, level: int) -> float:
     return (0.1 if sign > 0 else 1.15) + 0.9 * level
 
 
-def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float, label: bool = True) -> None:
+def _label_x(x1: float, x2: float, marks: tuple, L: float) -> float:
+    """Where along a line load its label goes: the middle, or a quarter from either end when a point load's
+    arrow or a moment's mark stands near the middle (the place farthest from every such mark)."""
+    places = ((x1 + x2) / 2, x1 + (x2 - x1) / 4, x2 - (x2 - x1) / 4)
+    room = [min((abs(x - k) for k in marks), default=L) for x in places]
+    return places[0] if room[0] >= 0.1 * L else places[room.index(max(room))]
+
+
+def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float, label: bool = True,
+          marks: tuple = ()) -> None:
     """Draw one load; line loads stack outwards from the member (downward ones above it, upward ones below)
-    so that none hides another; `levels` counts the levels taken on each side."""
+    so that none hides another; `levels` counts the levels taken on each side, `marks` are the x of the
+    point loads and moments, which line-load labels keep clear of."""
     if isinstance(load, PointLoad):
         x = float(convert(load.x, u["length"]))
         up = load.force > 0
@@ -256,8 +268,9 @@ def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float,
         x = float(convert(load.x, u["length"]))
         turn = "counterclockwise" if load.moment > 0 else "clockwise"
         ax.dot(x, 0, 9.0, None, LOAD)
-        ax.text(x, 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} {u['moment']}\n{turn}",
-                6.0, LOAD, _anchor(x, L), "bottom")
+        under = sum(abs(k - x) < 0.02 * L for k in marks) > 1  # a point load's arrow stands here: label below
+        ax.text(x, -0.35 if under else 0.35, f"{number(convert(abs(load.moment * factor), u['moment']))} "
+                f"{u['moment']}\n{turn}", 6.0, LOAD, _anchor(x, L), "top" if under else "bottom")
     elif isinstance(load, Settlement):
         x = float(convert(load.x, u["length"]))
         down = load.movement < 0
@@ -278,7 +291,7 @@ def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float,
         unit = u["force"] + "/" + u["length"]
         text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
         if label:
-            ax.text((x1 + x2) / 2, (0.15 + max(h1, h2)) * sign, f"{text} {unit}", 6.0, LOAD, "middle",
+            ax.text(_label_x(x1, x2, marks, L), (0.15 + max(h1, h2)) * sign, f"{text} {unit}", 6.0, LOAD, "middle",
                     "bottom" if sign > 0 else "top")
 
 
