@@ -76,8 +76,8 @@ def factor_of(unit: str) -> Factor | None:
     try:
         q = ureg.Quantity(Fraction(1), _pint_text(unit)).to_base_units()
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
-            TypeError, ValueError, SyntaxError, AssertionError, KeyError):
-        return None
+            TypeError, ValueError, SyntaxError, AssertionError, KeyError, ArithmeticError):
+        return None  # ArithmeticError: a spelling pint reads with a zero in it, such as kg/0m^3 (found by fuzzing)
     magnitude = Q(Fraction(q.magnitude))
     kind = next((n for n, d in _dimensions().items() if d == q.dimensionality), None)
     return Factor(unit, _si_unit(kind), magnitude, kind)
