@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import difflib
+import re
 from dataclasses import dataclass
 from fractions import Fraction
 from functools import lru_cache
@@ -28,10 +29,12 @@ EXAMPLE_UNIT = {
     "density": "kg/m^3", "second moment of area": "mm^4", "section modulus": "mm^3", "area": "mm^2",
     "angle": "rad",
 }
+SHORTHANDS_WRITTEN = ("plf", "klf", "psf", "ksf", "pcf")
 COMMON_UNITS = ("m", "mm", "cm", "km", "ft", "in", "N", "kN", "MN", "lbf", "kip", "Pa", "kPa", "MPa",
                 "GPa", "psi", "ksi", "kN/m", "N/mm", "kip/ft", "lbf/ft", "lbf/in", "kN*m", "N*m",
                 "kip*ft", "kip*in", "lbf*ft", "kg/m^3", "lb/ft^3", "mm^4", "in^4", "cm^4", "m^4",
-                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad")
+                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad", *SHORTHANDS_WRITTEN)
+POUND_MASS = re.compile(r"(?<![A-Za-z])lbs?(?![A-Za-z])")  # lb or lbs, not lbf
 STANDARD_GRAVITY = Q(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
 
 
@@ -64,7 +67,14 @@ def _dimensions() -> dict[str, object]:
     return {name: ureg.get_dimensionality(dim) for name, dim in KINDS.items()}
 
 
+# US trade shorthands, written as one word (common practice, no source): pounds and kips per linear foot,
+# per square foot, pounds per cubic foot.
+SHORTHANDS = {"plf": "lbf/ft", "klf": "kip/ft", "psf": "lbf/ft**2", "ksf": "kip/ft**2", "pcf": "lb/ft**3"}
+
+
 def _pint_text(unit: str) -> str:
+    if unit in SHORTHANDS:
+        return SHORTHANDS[unit]
     return unit.replace("^", "**").replace("\u00b7", "*").replace("\u00b5", "u").replace("\u03bc", "u")
 
 
@@ -100,6 +110,8 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         got = _article(f.kind) if f.kind else "not a unit this language uses"
         label = "a force times a length" if kind == "moment" else _article(kind)
         message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
+        if POUND_MASS.search(q.unit) and kind != "density":
+            hint = "lb is a pound of mass; a pound-force is lbf (lbf/ft, or plf, for a line load)"
         raise UnitProblem(Diagnostic(q.span, message, hint))
     value = exact_number(q.number, q.span) * f.factor
     if value and not (LOWEST <= abs(value) <= HIGHEST):

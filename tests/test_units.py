@@ -28,6 +28,9 @@ NIST = {
     "mm": Fraction(1, 1000), "kN": 1000, "kN*m": 1000, "kN\u00b7m": 1000, "kN/m": 1000, "N/mm": 1000,
     "kN/mm": 10**6, "MPa": 10**6, "GPa": 10**9, "mm^4": Fraction(1, 10**12), "cm^4": Fraction(1, 10**8),
     "mm^2": Fraction(1, 10**6), "kg/m^3": 1,
+    # US trade shorthands (common practice, no source) built from the NIST factors above.
+    "plf": LBF / FOOT, "klf": 1000 * LBF / FOOT, "psf": LBF / FOOT**2, "ksf": 1000 * LBF / FOOT**2,
+    "pcf": Fraction("0.45359237") / FOOT**3,
 }
 
 
@@ -113,3 +116,12 @@ def test_an_angle_in_degrees_is_a_fraction_of_pi_and_the_package_says_so(tmp_pat
                                  extra=["limit slope at supports 0.1 deg"]))
     row = next(line for line in inputs(a) if line.startswith("| deg |"))
     assert "fraction of π rad" in row and "exact by definition" not in row
+
+
+def test_a_us_shorthand_is_named_with_its_nist_source_in_the_package():
+    from beamlang.report.sections import inputs
+    from engine_helpers import analyse_text
+    a = analyse_text(BASE.replace("uniform 1 kN/m down", "uniform 150 plf down"))
+    row = next(line for line in inputs(a) if line.startswith("| plf |"))
+    assert "plf = lbf/ft (US shorthand); NIST SP 811" in row
+    assert a.loaded.member.cases[0].loads[0].w1 == -150 * LBF / FOOT

@@ -11,7 +11,7 @@ from .. import syntax as s
 from ..display import convert, number, report_units
 from ..pipeline import Analysis
 from ..sections import FORMULAS
-from ..units import factor_of
+from ..units import SHORTHANDS, factor_of
 from .provenance import versions_text
 from .tex import cell, md, num, plain
 
@@ -77,8 +77,11 @@ def inputs(a: Analysis) -> list[str]:
            "Conversion factors used (exact):", "", "| unit | SI | source |", "|---|---|---|"]
     for unit in sorted(units):
         f = factor_of(unit)
-        source = (ANGLE if any(tok in unit for tok in ANGLE_TOKENS) else NIST if any(tok in unit for tok in US_TOKENS)
+        spelled = SHORTHANDS.get(unit, unit).replace("**", "^")
+        source = (ANGLE if any(tok in unit for tok in ANGLE_TOKENS) else NIST if any(tok in spelled for tok in US_TOKENS)
                   else "SI prefixes, exact by definition")
+        if unit in SHORTHANDS:
+            source = f"{unit} = {spelled} (US shorthand); {source}"
         out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {source} |")
     return out + [""]
 
