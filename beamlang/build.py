@@ -16,7 +16,7 @@ from .units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 
 MIN_SPAN = Fraction(1, 1000)  # m
 FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
-MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "density": "density"}
+MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "shear": "stress", "density": "density"}
 SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Catalogue: "catalogue"}
 
 
@@ -234,7 +234,7 @@ class _Builder:
         if any(v is None for v in values.values()) or "E" not in values:
             return None
         return m.Material(st.name.text if st.name else None, values["E"], values.get("yield"),
-                          values.get("density"), st.span)
+                          values.get("density"), st.span, values.get("shear"))
 
     def _properties(self, props, kinds: dict[str, str], one: str, many: str) -> dict[str, Fraction | None]:
         values: dict[str, Fraction | None] = {}
@@ -638,7 +638,8 @@ def _show_span(doc: s.Document) -> str:
     return "?"
 
 
-_DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "density": "the density",
+_DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "shear": "the shear strength",
+             "density": "the density",
              "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S"}
 _EXAMPLES = {"member": 'start the file with e.g. `member B-1 "Floor beam"`', "span": "for example `span 5.4 m`",
              "material": "for example `material steel E 200 GPa yield 350 MPa`",

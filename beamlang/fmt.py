@@ -6,7 +6,7 @@ from . import syntax as s
 from .build import FIELD_ORDER
 from .sections import SHAPE_DIMENSIONS
 
-MATERIAL_ORDER = ("E", "yield", "density")
+MATERIAL_ORDER = ("E", "yield", "shear", "density")
 INDENT = "  "
 
 

@@ -82,6 +82,7 @@ def _static(r: TargetResult) -> dict:
         "shear": {"max_abs": _at(r.shear_max, "value_N")},
         "points": [{"x_m": float(x), "deflection_m": float(v), "slope_rad": float(t)} for x, v, t in r.points],
         "stress": {"bending_Pa": _f(r.stress.bending), "shear_Pa": _f(r.stress.shear),
-                   "yield_Pa": _f(r.stress.yield_strength), "elastic": r.stress.elastic},
+                   "yield_Pa": _f(r.stress.yield_strength), "shear_strength_Pa": _f(r.stress.shear_strength),
+                   "elastic": r.stress.elastic},
         "cross_check": {"max_rel_diff": reported(r.cross_check)},  # a bound: at most this, at least 1e-12
     }

@@ -16,6 +16,7 @@ class Material:
     yield_strength: Fraction | None  # Pa
     density: Fraction | None  # kg/m^3
     span: Span
+    shear_strength: Fraction | None = None  # Pa; given: the shear check uses it instead of yield/sqrt(3)
 
 
 @dataclass(frozen=True, slots=True)

@@ -39,14 +39,23 @@ class Stress:
     bending_at: Located | None = None  # the moment that gives `bending`
     shear_at: Located | None = None
     shear_yield: Fraction | None = None  # of the stretch where shear governs
+    shear_strength: Fraction | None = None  # that stretch's material's own shear strength, where given
 
     @property
     def elastic(self) -> bool | None:
         if self.yield_strength is None or self.bending is None:
             return None
-        fy_shear = self.shear_yield if self.shear_yield is not None else self.yield_strength
-        shear_ok = self.shear is None or 3 * self.shear**2 <= fy_shear**2
-        return self.bending <= self.yield_strength and shear_ok
+        return self.bending <= self.yield_strength and self.shear_ok
+
+    @property
+    def shear_ok(self) -> bool:
+        """Against the material's shear strength where given, else fy/sqrt(3) (von Mises), exactly."""
+        if self.shear is None:
+            return True
+        if self.shear_strength is not None:
+            return self.shear <= self.shear_strength
+        fy = self.shear_yield if self.shear_yield is not None else self.yield_strength
+        return fy is None or 3 * self.shear**2 <= fy**2
 
 
 @dataclass(frozen=True, slots=True)
@@ -173,9 +182,9 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
     """M c / I and V Q / (I t) in every stretch with its own section; the largest ratio to the stretch's
     yield governs (on a stepped member it may sit at a step rather than at the largest |M|)."""
     m = sol.member
-    bending = shearing = None  # (ratio key, stress, located, fy)
+    bending = shearing = None  # (ratio key, stress, located, fy[, shear strength])
     for st in m.stretches:
-        sec, fy = st.section, st.material.yield_strength
+        sec, fy, fv = st.section, st.material.yield_strength, st.material.shear_strength
         inside = lambda c: _in_stretch(sol, c, st)  # noqa: E731
         ms = [c for c in moment if inside(c)]
         at = max((l for l in (largest(ms, 1), largest(ms, -1)) if l is not None), key=lambda l: abs(l.value),
@@ -187,16 +196,25 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
         if sec.Q is not None and sec.t is not None:
             v_at = largest_abs([c for c in shear if inside(c)])
             tau = (abs(v_at.value) if v_at else Fraction(0)) * sec.Q / (sec.I * sec.t)
-            if shearing is None or _ratio(tau, fy) > shearing[0]:
-                shearing = (_ratio(tau, fy), tau, v_at, fy)
+            key = _shear_key(tau, fy, fv)
+            if shearing is None or key > shearing[0]:
+                shearing = (key, tau, v_at, fy, fv)
     fy0 = m.stretches[0].material.yield_strength
     return Stress(bending[1] if bending else None, shearing[1] if shearing else None,
                   bending[3] if bending else fy0, bending[2] if bending else None,
-                  shearing[2] if shearing else None, shearing[3] if shearing else None)
+                  shearing[2] if shearing else None, shearing[3] if shearing else None,
+                  shearing[4] if shearing else None)
 
 
 def _ratio(stress: Fraction, fy: Fraction | None) -> Fraction:
     return stress / fy if fy else stress
+
+
+def _shear_key(tau: Fraction, fy: Fraction | None, fv: Fraction | None) -> Fraction:
+    """The square of tau over the shear capacity (fv where given, else fy/sqrt(3)): exact, comparable."""
+    if fv:
+        return (tau / fv) ** 2
+    return 3 * (tau / fy) ** 2 if fy else tau**2
 
 
 def _in_stretch(sol: Solution, c: Candidate, st) -> bool:

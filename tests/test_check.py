@@ -5,6 +5,7 @@ from __future__ import annotations
 import json
 import subprocess
 import sys
+from fractions import Fraction
 
 import pytest
 
@@ -57,7 +58,7 @@ def test_json_has_the_documented_shape(capsys, monkeypatch):
     assert set(live["reactions"][0]) == {"x_m", "force_N", "moment_Nm"}
     assert set(live["deflection"]["max_down"]) >= {"x_m", "value_m"}
     assert live["deflection"]["max_up"] is None  # no upward deflection: null, not zero
-    assert set(live["stress"]) == {"bending_Pa", "shear_Pa", "yield_Pa", "elastic"}
+    assert set(live["stress"]) == {"bending_Pa", "shear_Pa", "yield_Pa", "shear_strength_Pa", "elastic"}
     assert set(member["checks"][0]) >= {"kind", "target", "actual", "allowed", "unit", "ratio", "pass"}
 
 
@@ -101,3 +102,38 @@ def test_check_and_fmt_do_not_import_plotting_or_markdown(command):
              "file=sys.stderr)")
     done = subprocess.run([sys.executable, "-c", probe], cwd=EXAMPLES.parent, capture_output=True, text=True)
     assert done.stderr.strip().splitlines()[-1] == "False False"
+
+
+SHEAR_MEMBER = '''member T-1 "Shear strength"
+span 4 m
+material timber E 11 GPa yield 40 MPa{shear} density 500 kg/m^3
+section rectangle width 100 mm depth 200 mm
+support pin at 0 m
+support roller at span
+case live
+  uniform 10 kN/m down
+check stress live
+'''
+
+
+@pytest.mark.parametrize("shear, allowed, passed", [
+    (" shear 1.2 MPa", Fraction(12, 10) * 10**6, False),
+    (" shear 2 MPa", Fraction(2 * 10**6), True),
+])
+def test_shear_is_checked_against_the_materials_own_shear_strength(shear, allowed, passed):
+    # The largest shear stress of a rectangle is 1.5 V / A at the neutral axis (Gere and Goodno, Mechanics of
+    # Materials, 8th ed., sec. 5.8, from memory): V = w L / 2 = 20 kN, A = 0.02 m^2, tau = 1.5 MPa.
+    from engine_helpers import analyse_text
+    a = analyse_text(SHEAR_MEMBER.format(shear=shear))
+    check = next(c for c in a.checks if c.kind == "shear stress")
+    assert (check.actual, check.allowed, check.passed) == (Fraction(15 * 10**5), allowed, passed)
+    assert "shear strength given with the material" in check.basis
+    assert a.result("live").stress.elastic is passed
+
+
+def test_without_a_shear_strength_the_shear_check_is_von_mises():
+    from beamlang.checks import SQRT3
+    from engine_helpers import analyse_text
+    a = analyse_text(SHEAR_MEMBER.format(shear=""))
+    check = next(c for c in a.checks if c.kind == "shear stress")
+    assert check.allowed == 40 * 10**6 / SQRT3 and check.passed and "von Mises" in check.basis

@@ -327,3 +327,15 @@ def test_slope_checks_are_named_per_support():
     checks = analyse_text(text).checks
     assert [c.label for c in checks] == [f"support slope a at x = {x} m (line 10)" for x in (0, 4, 6)]
     assert len({_key(c) for c in checks}) == 3
+
+
+def test_shear_governs_in_the_stretch_with_the_weaker_shear_strength():
+    # Steel over the left half (fy/sqrt(3) = 144 MPa), a material with its own 1 MPa shear strength over the
+    # right: the same rectangle carries the same largest |V| = w L / 2 at both ends (statics), so the
+    # right-hand stretch governs, at x = L, against its 1 MPa (tau = 1.5 V / A: Gere and Goodno, from memory).
+    text = _text("4 m", ["rectangle width 100 mm depth 200 mm"], ["pin at 0 m", "roller at span"],
+                 ["uniform 10 kN/m down"], ["check stress a"],
+                 material="material steel E 200 GPa yield 250 MPa from 0 m to 2 m\n"
+                          "material other E 200 GPa yield 250 MPa shear 1 MPa from 2 m to span")
+    shear = next(c for c in analyse_text(text).checks if c.kind == "shear stress")
+    assert (shear.actual, shear.allowed, shear.x, shear.passed) == (F(15 * 10**5), F(10**6), 4, False)

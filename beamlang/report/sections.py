@@ -122,6 +122,8 @@ def section_properties(a: Analysis) -> list[str]:
         lines += [f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
                   + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}"
                      if mat.yield_strength else "")
+                  + (f", shear strength fv = {number(convert(mat.shear_strength, stress), 6)} {stress}"
+                     if mat.shear_strength else "")
                   + (f", density = {number(mat.density, 6)} kg/m^3" if mat.density else "")
                   + f" (input line {mat.span.line}).", ""]
     if not m.stepped:
@@ -223,7 +225,9 @@ CAUTIONS = [
     "Deflections are measured from the unloaded position of the member, so they include the movement of "
     "spring supports and any prescribed settlement (conservative for span/N limits, which some codes apply to "
     "the deflection relative to the supports).",
-    "The shear check uses fy/sqrt(3) (von Mises) at the neutral axis; bending and shear are not combined.",
+    "The shear check is made at the neutral axis against the shear strength given with the material (`shear`), or "
+    "else against fy/sqrt(3) (von Mises), which suits steel but overstates the shear strength of timber and other "
+    "non-metallic materials: give theirs. Bending and shear are not combined.",
     "This calculation must be reviewed and accepted by a qualified, licensed engineer before it is relied on.",
 ]
 
