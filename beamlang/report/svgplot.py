@@ -8,6 +8,7 @@ a common sans-serif; its width is estimated (GLYPH) only to leave room for label
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from xml.sax.saxutils import escape
 
 FONT = "DejaVu Sans, Verdana, Arial, Helvetica, sans-serif"
@@ -185,18 +186,22 @@ class Figure:
             return 0.0, 1.0
         return _limits(min(e[0] for e in extents), max(e[1] for e in extents))
 
+    def _margins(self, ylabels: list[str], xlabels: list[str]) -> tuple[float, float]:
+        """Room left of the panels for the widest y tick label and the y labels, and right of them for half
+        the last x tick label."""
+        if not any(p.axis for p in self.panels):
+            return 4.0, 4.0
+        widest = max((text_width(s, TICK_FONT) for s in ylabels), default=0.0)
+        left = 8.0 + (widest + TICK + 3.0 if widest else 0.0) + (12.0 if any(p.ylabel for p in self.panels) else 0.0)
+        return left, max(8.0, text_width(xlabels[-1], TICK_FONT) / 2 + 4) if xlabels else 4.0
+
     def svg(self) -> str:
         x0, x1 = self._x_range()
         axis_panels = [p for p in self.panels if p.axis]
         xt, xstep = nice_ticks(x0, x1, max(3, int(self.width / 100))) if axis_panels else ([], 1.0)
         xlabels, xexp = tick_labels(xt, xstep)
         yticks = {id(p): p.y_ticks() for p in self.panels}
-        widest = max((text_width(s, TICK_FONT) for t in yticks.values() for s in t[1]), default=0.0)
-        has_ylabel = any(p.ylabel for p in self.panels)
-        left = 8.0 + (widest + TICK + 3.0 if widest else 0.0) + (12.0 if has_ylabel else 0.0)
-        if not axis_panels:
-            left = 4.0
-        right = max(8.0, text_width(xlabels[-1], TICK_FONT) / 2 + 4) if xlabels else 4.0
+        left, right = self._margins([s for t in yticks.values() for s in t[1]], xlabels)
         plot_w = self.width - left - right
         body: list[str] = []
         y = 6.0
@@ -261,72 +266,98 @@ def _header(body: list[str], p: Panel, left: float, plot_w: float, y: float) -> 
     return y + 4.0 if (p.title or p.legend) else y + 2.0
 
 
+@dataclass(frozen=True, slots=True)
+class _Frame:
+    """A panel's box on the page (pt) and the data range it shows: the mapping between the two."""
+
+    left: float
+    top: float
+    w: float
+    h: float
+    x0: float
+    x1: float
+    y0: float
+    y1: float
+
+    def px(self, x: float) -> float:
+        return self.left + (x - self.x0) / (self.x1 - self.x0) * self.w
+
+    def py(self, y: float) -> float:
+        return self.top + (self.y1 - y) / (self.y1 - self.y0) * self.h
+
+
 def _panel(body: list[str], p: Panel, box, xr, yt, ylabels, yexp, xt, xlabels, k: int) -> None:
-    left, top, w, h = box
-    x0, x1 = xr
-    y0, y1 = p.y_range()
-    px = lambda x: left + (x - x0) / (x1 - x0) * w  # noqa: E731
-    py = lambda y: top + (y1 - y) / (y1 - y0) * h  # noqa: E731
-    if p.axis:
-        for t in xt:
-            body.append(_seg(px(t), top, px(t), top + h, GRID, 0.8, ' stroke-opacity="0.3"'))
-        for t in yt:
-            body.append(_seg(left, py(t), left + w, py(t), GRID, 0.8, ' stroke-opacity="0.3"'))
-        body.append(f'<clipPath id="c{k}"><rect x="{_n(left)}" y="{_n(top)}" width="{_n(w)}" height="{_n(h)}"/>'
-                    f'</clipPath>\n<g clip-path="url(#c{k})">\n')
-    free: list[str] = []  # markers, arrows and text: not clipped
+    f = _Frame(*box, *xr, *p.y_range())
+    clipped, free = [], []  # lines and areas stay inside the frame; markers, arrows and text may leave it
     for item in p.items:
-        kind = item[0]
-        if kind == "line":
-            _, xs, ys, color, width, dash, opacity = item
-            body.append(f'<polyline points="{_points(xs, ys, px, py)}" fill="none" stroke="{color}" '
-                        f'stroke-width="{_n(width)}"'
-                        f'{_dash(dash, opacity)} stroke-linejoin="round"/>\n')
-        elif kind == "polygon":
-            _, xs, ys, fill, opacity, edge, width, _ = item
-            attrs = f' fill-opacity="{opacity:g}"' if opacity != 1 else ""
-            if edge:  # an edge of the fill's own colour fades with it
-                attrs += f' stroke="{edge}" stroke-width="{_n(width)}"'
-                attrs += f' stroke-opacity="{opacity:g}"' if edge == fill and opacity != 1 else ""
-            else:
-                attrs += ' stroke="none"'
-            body.append(f'<polygon points="{_points(xs, ys, px, py)}" fill="{fill}"{attrs}/>\n')
-        elif kind == "hline":
-            _, yv, color, width = item
-            body.append(_seg(left, py(yv), left + w, py(yv), color, width))
-        elif kind == "vline":
-            _, xv, color, width, dash, opacity = item
-            body.append(_seg(px(xv), top, px(xv), top + h, color, width, _dash(dash, opacity)))
-        elif kind == "ellipse":
-            _, xv, yv, rx, ry, face, edge, width = item
-            body.append(f'<ellipse cx="{_n(px(xv))}" cy="{_n(py(yv))}" rx="{_n(rx / (x1 - x0) * w)}" '
-                        f'ry="{_n(ry / (y1 - y0) * h)}" fill="{face}" stroke="{edge}" stroke-width="{_n(width)}"/>\n')
-        elif kind == "dot":
-            _, xv, yv, size, face, edge, ew = item
-            free.append(f'<circle cx="{_n(px(xv))}" cy="{_n(py(yv))}" r="{_n(size / 2)}" fill="{face or "none"}" '
-                        f'stroke="{edge}" stroke-width="{_n(ew)}"/>\n')
-        elif kind == "arrow":
-            free.append(_arrow(item, px, py))
-        elif kind == "text":
-            _, xv, yv, s, size, color, anchor, baseline, dx, dy = item
-            free.append(_text(px(xv) + dx, py(yv) - dy, s, size, color, anchor, baseline))
+        text, inside = _item(item, f)
+        (clipped if inside else free).append(text)
     if p.axis:
-        body.append("</g>\n")
-        body.append(f'<rect x="{_n(left)}" y="{_n(top)}" width="{_n(w)}" height="{_n(h)}" fill="none" '
-                    f'stroke="black" stroke-width="0.8"/>\n')
-        for t, label in zip(yt, ylabels):
-            body.append(_seg(left - TICK, py(t), left, py(t), "black", 0.8))
-            body.append(_text(left - TICK - 2.0, py(t), label, TICK_FONT, "black", "end", "middle"))
-        for i, t in enumerate(xt):
-            body.append(_seg(px(t), top + h, px(t), top + h + TICK, "black", 0.8))
-            if xlabels is not None:
-                body.append(_text(px(t), top + h + TICK + 1.5, xlabels[i], TICK_FONT, "black", "middle", "top"))
-        if p.ylabel:
-            label = p.ylabel + (_power(yexp) if yexp else "")
-            cx, cy = 10.0, top + h / 2
-            body.append(f'<text x="{_n(cx)}" y="{_n(cy)}" font-size="8" text-anchor="middle" '
-                        f'transform="rotate(-90 {_n(cx)} {_n(cy)})">{escape(label)}</text>\n')
+        body += [_seg(f.px(t), f.top, f.px(t), f.top + f.h, GRID, 0.8, ' stroke-opacity="0.3"') for t in xt]
+        body += [_seg(f.left, f.py(t), f.left + f.w, f.py(t), GRID, 0.8, ' stroke-opacity="0.3"') for t in yt]
+        body.append(f'<clipPath id="c{k}"><rect x="{_n(f.left)}" y="{_n(f.top)}" width="{_n(f.w)}" '
+                    f'height="{_n(f.h)}"/></clipPath>\n<g clip-path="url(#c{k})">\n')
+        body += clipped + ["</g>\n"]
+        body += _axes(f, p, xt, yt, ylabels, yexp, xlabels)
+    else:
+        body += clipped
     body += free
+
+
+def _item(item: tuple, f: _Frame) -> tuple[str, bool]:
+    """One drawn item as SVG, and whether it is clipped to the frame."""
+    kind, px, py = item[0], f.px, f.py
+    if kind == "line":
+        _, xs, ys, color, width, dash, opacity = item
+        return (f'<polyline points="{_points(xs, ys, px, py)}" fill="none" stroke="{color}" '
+                f'stroke-width="{_n(width)}"{_dash(dash, opacity)} stroke-linejoin="round"/>\n'), True
+    if kind == "polygon":
+        _, xs, ys, fill, opacity, edge, width, _ = item
+        attrs = f' fill-opacity="{opacity:g}"' if opacity != 1 else ""
+        if edge:  # an edge of the fill's own colour fades with it
+            attrs += f' stroke="{edge}" stroke-width="{_n(width)}"'
+            attrs += f' stroke-opacity="{opacity:g}"' if edge == fill and opacity != 1 else ""
+        else:
+            attrs += ' stroke="none"'
+        return f'<polygon points="{_points(xs, ys, px, py)}" fill="{fill}"{attrs}/>\n', True
+    if kind == "hline":
+        _, yv, color, width = item
+        return _seg(f.left, py(yv), f.left + f.w, py(yv), color, width), True
+    if kind == "vline":
+        _, xv, color, width, dash, opacity = item
+        return _seg(px(xv), f.top, px(xv), f.top + f.h, color, width, _dash(dash, opacity)), True
+    if kind == "ellipse":
+        _, xv, yv, rx, ry, face, edge, width = item
+        return (f'<ellipse cx="{_n(px(xv))}" cy="{_n(py(yv))}" rx="{_n(rx / (f.x1 - f.x0) * f.w)}" '
+                f'ry="{_n(ry / (f.y1 - f.y0) * f.h)}" fill="{face}" stroke="{edge}" stroke-width="{_n(width)}"/>\n'), True
+    if kind == "dot":
+        _, xv, yv, size, face, edge, ew = item
+        return (f'<circle cx="{_n(px(xv))}" cy="{_n(py(yv))}" r="{_n(size / 2)}" fill="{face or "none"}" '
+                f'stroke="{edge}" stroke-width="{_n(ew)}"/>\n'), False
+    if kind == "arrow":
+        return _arrow(item, px, py), False
+    _, xv, yv, s, size, color, anchor, baseline, dx, dy = item  # text
+    return _text(px(xv) + dx, py(yv) - dy, s, size, color, anchor, baseline), False
+
+
+def _axes(f: _Frame, p: Panel, xt, yt, ylabels, yexp, xlabels) -> list[str]:
+    """The frame, the ticks with their labels (x labels under the last panel only) and the y label."""
+    out = [f'<rect x="{_n(f.left)}" y="{_n(f.top)}" width="{_n(f.w)}" height="{_n(f.h)}" fill="none" '
+           f'stroke="black" stroke-width="0.8"/>\n']
+    for t, label in zip(yt, ylabels):
+        out.append(_seg(f.left - TICK, f.py(t), f.left, f.py(t), "black", 0.8))
+        out.append(_text(f.left - TICK - 2.0, f.py(t), label, TICK_FONT, "black", "end", "middle"))
+    bottom = f.top + f.h
+    for i, t in enumerate(xt):
+        out.append(_seg(f.px(t), bottom, f.px(t), bottom + TICK, "black", 0.8))
+        if xlabels is not None:
+            out.append(_text(f.px(t), bottom + TICK + 1.5, xlabels[i], TICK_FONT, "black", "middle", "top"))
+    if p.ylabel:
+        label = p.ylabel + (_power(yexp) if yexp else "")
+        cx, cy = 10.0, f.top + f.h / 2
+        out.append(f'<text x="{_n(cx)}" y="{_n(cy)}" font-size="8" text-anchor="middle" '
+                   f'transform="rotate(-90 {_n(cx)} {_n(cy)})">{escape(label)}</text>\n')
+    return out
 
 
 def _seg(x1: float, y1: float, x2: float, y2: float, color: str, width: float, extra: str = "") -> str:
