@@ -56,8 +56,8 @@ def target_figure(a: Analysis, name: str) -> str:
 def limit_lines(ax, m, r, u: dict) -> None:
     """Each deflection limit on this target as a dashed line over each span and overhang, at the allowed value on
     the side the member deflects there (the check compares the largest deflection either way)."""
-    limits = [limit for limit in m.limits if limit.target == r.name]
-    for limit in limits:
+    L = float(convert(m.length, u["length"]))
+    for limit in (limit for limit in m.limits if limit.target == r.name):
         for region in r.regions:
             allowed = limit.value if limit.value is not None else region.basis / limit.divisor
             side = -1 if region.max_abs is None or region.max_abs.value <= 0 else 1
@@ -67,7 +67,6 @@ def limit_lines(ax, m, r, u: dict) -> None:
             what = "limit" if limit.value is not None else f"span/{number(limit.divisor)}"
             if region.kind != "span" and limit.value is None:
                 what = f"2 x {region.kind}/{number(limit.divisor)}"
-            L = float(convert(m.length, u["length"]))
             short = x2 - x1 < 0.3 * L  # a short overhang: the label reaches inwards from the member's end
             x, anchor = ((x2, "end") if short and x2 >= L else (x1, "start") if short and x1 <= 0
                          else ((x1 + x2) / 2, "middle"))

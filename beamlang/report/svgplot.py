@@ -100,7 +100,7 @@ class Panel:
         """The area between two curves over the same xs (a curve and zero, or an envelope)."""
         xs = [float(v) for v in xs]
         top = [float(v) for v in top]
-        bottom = [float(v) for v in bottom] if not isinstance(bottom, (int, float)) else [float(bottom)] * len(xs)
+        bottom = [float(v) for v in bottom] if hasattr(bottom, "__iter__") else [float(bottom)] * len(xs)
         self._extend(xs + xs, top + bottom)
         self.items.append(("polygon", xs + xs[::-1], top + bottom[::-1], color, opacity, None, 0.0, True))
         if label:
