@@ -29,11 +29,13 @@ EXAMPLE_UNIT = {
     "density": "kg/m^3", "second moment of area": "mm^4", "section modulus": "mm^3", "area": "mm^2",
     "angle": "rad",
 }
-SHORTHANDS_WRITTEN = ("plf", "klf", "psf", "ksf", "pcf")
+# US trade shorthands, written as one word (common practice, no source): pounds and kips per linear foot,
+# per square foot, pounds per cubic foot.
+SHORTHANDS = {"plf": "lbf/ft", "klf": "kip/ft", "psf": "lbf/ft**2", "ksf": "kip/ft**2", "pcf": "lb/ft**3"}
 COMMON_UNITS = ("m", "mm", "cm", "km", "ft", "in", "N", "kN", "MN", "lbf", "kip", "Pa", "kPa", "MPa",
                 "GPa", "psi", "ksi", "kN/m", "N/mm", "kip/ft", "lbf/ft", "lbf/in", "kN*m", "N*m",
                 "kip*ft", "kip*in", "lbf*ft", "kg/m^3", "lb/ft^3", "mm^4", "in^4", "cm^4", "m^4",
-                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad", *SHORTHANDS_WRITTEN)
+                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad", *SHORTHANDS)
 POUND_MASS = re.compile(r"(?<![A-Za-z])lbs?(?![A-Za-z])")  # lb or lbs, not lbf
 STANDARD_GRAVITY = Q(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
 
@@ -65,11 +67,6 @@ def registry():
 def _dimensions() -> dict[str, object]:
     ureg = registry()
     return {name: ureg.get_dimensionality(dim) for name, dim in KINDS.items()}
-
-
-# US trade shorthands, written as one word (common practice, no source): pounds and kips per linear foot,
-# per square foot, pounds per cubic foot.
-SHORTHANDS = {"plf": "lbf/ft", "klf": "kip/ft", "psf": "lbf/ft**2", "ksf": "kip/ft**2", "pcf": "lb/ft**3"}
 
 
 def _pint_text(unit: str) -> str:
