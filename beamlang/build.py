@@ -123,8 +123,9 @@ class _Builder:
         self._no_couple_at_hinges(cases, hinges)
         self.moving_cases = {c.name for c in cases if any(isinstance(ld, m.MovingLoad) for ld in c.loads)}
         names = self._names(cases)
-        combos = self._combinations([st for _, st in stmts if isinstance(st, s.Combine)], names)
-        targets = names | {c.name for c in combos}
+        combine = [st for _, st in stmts if isinstance(st, s.Combine)]
+        combos = self._combinations(combine, names)
+        targets = names | {st.name.text for st in combine}  # one with an error is still known: no cascade
         limits = self._limits([st for _, st in stmts if isinstance(st, s.Limit)], targets)
         slopes = self._slope_limits([st for _, st in stmts if isinstance(st, s.SlopeLimit)], targets, supports)
         checks = self._stress_checks([st for _, st in stmts if isinstance(st, s.StressCheck)], targets, stretches)
