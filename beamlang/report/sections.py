@@ -67,23 +67,27 @@ def inputs(a: Analysis) -> list[str]:
     from ..fmt import statement_text
     rows, units = [], set()
     for line, st in a.loaded.document.statements:
-        for q in _quantities(st):
+        for k, q in enumerate(_quantities(st)):
             f = factor_of(q.unit)
             units.add(q.unit)
             si = number(Fraction(q.number) * f.factor, 10)
-            rows.append(f"| {line.number} | `{cell(statement_text(st))}` | {cell(str(q))} | {si} {f.si_unit} |")
+            written = f"`{cell(statement_text(st))}`" if k == 0 else "″"  # the statement once, then ditto marks
+            rows.append(f"| {line.number if k == 0 else ''} | {written} | {cell(str(q))} | {si} {f.si_unit} |")
     out = ["## Inputs", "", "Each number as written in the file and its exact value in SI base units.", "",
            "| line | statement | as written | SI value |", "|---|---|---|---|", *rows, "",
            "Conversion factors used (exact):", "", "| unit | SI | source |", "|---|---|---|"]
+    cited = set()
     for unit in sorted(units):
         f = factor_of(unit)
         spelled = SHORTHANDS.get(unit, unit).replace("**", "^")
-        source = (ANGLE if any(tok in unit for tok in ANGLE_TOKENS) else NIST if any(tok in spelled for tok in US_TOKENS)
-                  else "SI prefixes, exact by definition")
+        source = ("angle" if any(tok in unit for tok in ANGLE_TOKENS) else "NIST" if any(tok in spelled for tok in US_TOKENS)
+                  else "SI")
+        cited.add(source)
+        text = {"angle": ANGLE, "NIST": "NIST SP 811 (see below)", "SI": "SI prefixes, exact by definition"}[source]
         if unit in SHORTHANDS:
-            source = f"{unit} = {spelled} (US shorthand); {source}"
-        out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {source} |")
-    return out + [""]
+            text = f"{unit} = {spelled} (US shorthand); {text}"
+        out.append(f"| {cell(unit)} | {plain(f.factor, 14)} {f.si_unit} | {text} |")
+    return out + ([""] + [NIST] if "NIST" in cited else []) + [""]
 
 
 def signs(a: Analysis, figure: str) -> list[str]:
