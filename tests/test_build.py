@@ -6,9 +6,11 @@ import os
 import re
 import subprocess
 import sys
+import xml.etree.ElementTree as ET
 from pathlib import Path
 
 import pytest
+from hypothesis import HealthCheck, given, settings
 
 from beamlang.cli import main
 from beamlang.report import package
@@ -16,6 +18,7 @@ from beamlang.report.html import check_mathml
 from beamlang.report.provenance import LIBRARIES, versions_text
 from casefiles import EXAMPLES
 from engine_helpers import analyse_text, member_text
+from strategies import members
 
 ROOT = EXAMPLES.parent
 
@@ -126,3 +129,19 @@ def test_symlink_in_output_is_replaced_not_followed(tmp_path):
                                          ("a.b", "a.b")])
 def test_folder_names_are_safe(mark, folder):
     assert package.folder_name(mark) == folder
+
+
+@settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(members())
+def test_generated_members_build_complete_packages(text):
+    # Every part of the package on random layouts (stepped members, hinges, springs, moving groups, slope
+    # limits): figures parse, every formula renders to MathML, the page embeds every figure.
+    a = analyse_text(text)
+    files = package.package_files(a)
+    mark = package.folder_name(a.loaded.member.mark)
+    page = files[f"{mark}.html"].decode("utf-8")
+    svgs = [name for name in files if name.endswith(".svg")]
+    assert check_mathml(page) > 5 and page.count('src="data:image/svg+xml;base64,') == len(svgs)
+    for name in svgs:
+        ET.fromstring(files[name])
+    assert "qualified, licensed engineer" in files[f"{mark}.md"].decode("utf-8")
