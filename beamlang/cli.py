@@ -197,12 +197,15 @@ def _run_check(args: argparse.Namespace) -> int:
 
 def _run_size(args: argparse.Namespace) -> int:
     from .frontend import load
+    from .display import convert
     from .size import catalogue_of, read_catalogue, shown, try_all, with_section
     item = load(Path(args.member))
     catalogue = Path(args.catalogue) if args.catalogue else catalogue_of(item)
     trials = try_all(item, read_catalogue(catalogue), shown(catalogue))
     passing = [t for t in trials if t.passed]
-    unit = "N/m" if item.member.material.density else "m^2 (area: no density given)"
+    us, density = item.member.units == "us", item.member.material.density
+    weight_unit = ("lbf/ft" if us else "N/m") if density else ("in^2" if us else "mm^2")  # as engineers list them
+    unit = weight_unit if density else f"{weight_unit} (area: no density given)"
     print(f"{item.member.mark}: {len(trials)} sections tried from {shown(catalogue)}, {len(passing)} pass; "
           f"lightest first (weight in {unit})")
     for t in trials:
@@ -210,7 +213,7 @@ def _run_size(args: argparse.Namespace) -> int:
         if t.problem:
             print(f"  {mark} {t.name:<16} not tried: {t.problem}")
             continue
-        weight = f"{float(t.weight):.4g}" if t.weight is not None else "-"
+        weight = f"{float(convert(t.weight, weight_unit)):.4g}" if t.weight is not None else "-"
         ratio = f"{t.ratio:.3f} ({t.governing})" if t.ratio is not None else "no checks"
         print(f"  {mark} {t.name:<16} {weight:>10}  {'PASS' if t.passed else 'FAIL'}  governing ratio {ratio}")
     if not passing:

@@ -36,7 +36,8 @@ def test_lightest_lumber_size_worked_by_hand(tmp_path, monkeypatch, capsys):
     out = capsys.readouterr().out
     assert code == 0
     assert "  -> 2x8 " in out and "lightest passing: 2x8; next: 3x6 (0.841)" in out
-    assert "2x6                0.005323  FAIL  governing ratio 1.402 (deflection live)" in out
+    assert "(weight in in^2 (area: no density given))" in out  # no density: ranked by area, 1.5 in x 5.5 in
+    assert "2x6                    8.25  FAIL  governing ratio 1.402 (deflection live)" in out
     text = (tmp_path / "j.beam").read_text(encoding="utf-8")
     assert text == JOIST.replace("depth 5.5 in  # to be sized", "depth 7.25 in  # to be sized")  # a one-line diff
 
@@ -82,6 +83,8 @@ def test_the_member_names_its_catalogue(tmp_path, monkeypatch, capsys):
     out = capsys.readouterr().out
     assert "sections tried from beamlang/catalogues/sawn-lumber-ps20.csv" in out
     assert "lightest passing: 2x10;" in out
+    assert "(weight in lbf/ft)" in out
+    assert "     2x4                   1.276  FAIL" in out  # 35 lb/ft^3 x 1.5 in x 3.5 in = 1.276 lbf/ft
     assert (tmp_path / "j.beam").read_text(encoding="utf-8") == text
 
 
