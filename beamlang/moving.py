@@ -23,6 +23,7 @@ from fractions import Fraction
 from functools import lru_cache
 from math import comb
 
+from .exact import Q
 from .extrema import candidates, derivative_of
 from .model import LineLoad, Load, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Poly
@@ -241,7 +242,7 @@ class _Kernels:
         if ("s", t) not in self._cache:
             a, b = self.sol.xs[t], self.sol.xs[t + 1]
             xis = [a + (b - a) * k / 6 for k in range(1, 6)]
-            self._cache[("s", t)] = [(xi, curves_with(self.sol, (PointLoad(xi, Fraction(1), self.load.span),)))
+            self._cache[("s", t)] = [(xi, curves_with(self.sol, (PointLoad(xi, Q(1), self.load.span),)))
                                      for xi in xis]
         return self._cache[("s", t)]
 
@@ -281,7 +282,7 @@ def _interpolate_xi(pieces: list[tuple[Fraction, Poly]]) -> Bi:
     width = max(len(p.coeffs) for _, p in pieces)
     out: Bi = {}
     for i in range(width):
-        column = [(xi, p.coeffs[i] if i < len(p.coeffs) else Fraction(0)) for xi, p in pieces]
+        column = [(xi, p.coeffs[i] if i < len(p.coeffs) else Q(0)) for xi, p in pieces]
         for j, c in enumerate(_lagrange_checked(column).coeffs):
             if c:
                 out[(i, j)] = c
@@ -345,13 +346,13 @@ def _shift_p(K: Bi, d: Fraction) -> Bi:
         for k in range(j, -1, -1):  # (p + d)^j = sum_k C(j, k) p^k d^(j-k)
             term = c * _binomials(j)[k] * (d ** (j - k) if j - k else 1)
             if term:
-                out[(i, k)] = out.get((i, k), Fraction(0)) + term
+                out[(i, k)] = out.get((i, k), Q(0)) + term
     return out
 
 
 def _add_into(f: Bi, g: Bi, k: Fraction) -> None:
     for key, c in g.items():
-        f[key] = f.get(key, Fraction(0)) + k * c
+        f[key] = f.get(key, Q(0)) + k * c
 
 
 def _d(f: Bi, var: int) -> Bi:
@@ -364,14 +365,14 @@ def _d(f: Bi, var: int) -> Bi:
 
 
 def _value(f: Bi, x: Fraction, p: Fraction) -> Fraction:
-    return sum((c * x**i * p**j for (i, j), c in f.items()), Fraction(0))
+    return sum((c * x**i * p**j for (i, j), c in f.items()), Q(0))
 
 
 def _at_x(f: Bi, x: Fraction) -> Poly:
     """f(x0, p) as a polynomial in p."""
     coeffs: dict[int, Fraction] = {}
     for (i, j), c in f.items():
-        coeffs[j] = coeffs.get(j, Fraction(0)) + c * x**i
+        coeffs[j] = coeffs.get(j, Q(0)) + c * x**i
     return Poly.of(*[coeffs.get(j, 0) for j in range(max(coeffs, default=-1) + 1)])
 
 
@@ -379,7 +380,7 @@ def _at_p(f: Bi, p: Fraction) -> Poly:
     """f(x, p0) as a polynomial in x."""
     coeffs: dict[int, Fraction] = {}
     for (i, j), c in f.items():
-        coeffs[i] = coeffs.get(i, Fraction(0)) + c * p**j
+        coeffs[i] = coeffs.get(i, Q(0)) + c * p**j
     return Poly.of(*[coeffs.get(i, 0) for i in range(max(coeffs, default=-1) + 1)])
 
 
@@ -408,7 +409,7 @@ def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: 
     for q in QUANTITIES:
         c = _curve(curves, q)
         d = curves.theta if q == "v" else (curves.V if q == "M" else derivative_of(c))
-        for cand in candidates(c, d, Fraction(0), L):
+        for cand in candidates(c, d, Q(0), L):
             crit = Critical(cand.value, cand.x, p, rev, "group standing", cand.root is None)
             found[q].append(crit)
             best.note(q, crit)
@@ -560,19 +561,19 @@ def _cell_interior(f: Bi, xs, offsets, cell: _Cell, pa, pb, rev) -> list[Critica
     res = _resultant(_in_x(fx), _in_x(fp))
     if res:
         for r in roots_in(res, pa, pb):
-            p = r.x if r.exact is not None else Fraction(float(r.x))
+            p = r.x if r.exact is not None else Q(float(r.x))
             lo, hi = _x_range(xs, offsets, cell, p)
             for rx in roots_in(_at_p(fx, p), lo, hi):
-                x = rx.x if rx.exact is not None else Fraction(float(rx.x))
+                x = rx.x if rx.exact is not None else Q(float(rx.x))
                 out.append(Critical(_value(f, x, p), x, p, rev, "interior", r.exact is not None and rx.exact is not None))
         return out
     swapped = {(j, i): c for (i, j), c in f.items()}  # df/dx and df/dp share a factor in x: eliminate p instead
     sx, sp = _d(swapped, 1), _d(swapped, 0)
     res = _resultant(_in_x(sp), _in_x(sx)) if sp and max(i for i, _ in sp) else Poly()
     for r in roots_in(res, xs[cell.s], xs[cell.s + 1]) if res else ():
-        x = r.x if r.exact is not None else Fraction(float(r.x))
+        x = r.x if r.exact is not None else Q(float(r.x))
         for rp in roots_in(_at_x(fp, x), pa, pb):
-            p = rp.x if rp.exact is not None else Fraction(float(rp.x))
+            p = rp.x if rp.exact is not None else Q(float(rp.x))
             lo, hi = _x_range(xs, offsets, cell, p)
             if lo <= x <= hi:
                 out.append(Critical(_value(f, x, p), x, p, rev, "interior", False))
@@ -602,7 +603,7 @@ def _sylvester_resultant(A: list[Poly], B: list[Poly]) -> Poly:
     degree = n * max(a.degree for a in A) + m * max(b.degree for b in B)
     pts = []
     for k in range(degree + 1):
-        t = Fraction(k)
+        t = Q(k)
         pts.append((t, _det(_sylvester([a(t) for a in A], [b(t) for b in B]))))
     return _lagrange(pts)
 
@@ -626,20 +627,20 @@ def _sylvester(a: list[Fraction], b: list[Fraction]) -> list[list[Fraction]]:
     size = m + n
     rows = []
     for k in range(n):
-        rows.append([Fraction(0)] * k + list(reversed(a)) + [Fraction(0)] * (size - m - 1 - k))
+        rows.append([Q(0)] * k + list(reversed(a)) + [Q(0)] * (size - m - 1 - k))
     for k in range(m):
-        rows.append([Fraction(0)] * k + list(reversed(b)) + [Fraction(0)] * (size - n - 1 - k))
+        rows.append([Q(0)] * k + list(reversed(b)) + [Q(0)] * (size - n - 1 - k))
     return rows
 
 
 def _det(rows: list[list[Fraction]]) -> Fraction:
     n = len(rows)
     a = [list(r) for r in rows]
-    det = Fraction(1)
+    det = Q(1)
     for col in range(n):
         pivot = next((r for r in range(col, n) if a[r][col] != 0), None)
         if pivot is None:
-            return Fraction(0)
+            return Q(0)
         if pivot != col:
             a[col], a[pivot] = a[pivot], a[col]
             det = -det
@@ -663,7 +664,7 @@ def _lagrange(points: list[tuple[Fraction, Fraction]]) -> Poly:
     for k, (xk, yk) in enumerate(points):
         if not yk:
             continue
-        term, denom = Poly.of(1), Fraction(1)
+        term, denom = Poly.of(1), Q(1)
         for m, (xm, _) in enumerate(points):
             if m != k:
                 term = term * Poly.of(-xm, 1)

@@ -12,7 +12,7 @@ from typing import Iterable, Sequence
 
 Number = Fraction | int
 RATIONAL = (Fraction, int, type(Q(0)))  # exact numbers (the others are symbolic.Sym or floats)
-ZERO = Fraction(0)
+ZERO = Q(0)
 
 
 def _trim(coeffs: Iterable) -> tuple:
@@ -73,7 +73,7 @@ class Poly:
             return Poly(_trim(c * other for c in self.coeffs)) if other else Poly()
         if not self.coeffs or not other.coeffs:
             return Poly()
-        out = [Fraction(0)] * (len(self.coeffs) + len(other.coeffs) - 1)
+        out = [ZERO] * (len(self.coeffs) + len(other.coeffs) - 1)
         for i, a in enumerate(self.coeffs):
             for j, b in enumerate(other.coeffs):
                 out[i + j] += a * b
@@ -122,7 +122,7 @@ class Poly:
 
     def divmod(self, other: "Poly") -> tuple["Poly", "Poly"]:
         rem = list(self.coeffs)
-        quo = [Fraction(0)] * max(0, len(rem) - len(other.coeffs) + 1)
+        quo = [ZERO] * max(0, len(rem) - len(other.coeffs) + 1)
         lead = other.coeffs[-1]
         while len(rem) >= len(other.coeffs) and rem:
             shift = len(rem) - len(other.coeffs)
