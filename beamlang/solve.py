@@ -6,6 +6,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from .errors import BeamError, Diagnostic
+from .exact import Q
 from .model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 from .stability import Mechanism, Restraint, components, equilibrium_column, keep
@@ -136,7 +137,7 @@ def _sum(curves: list[Curves], member: Member, xs) -> Curves:
 
 def _zero(member: Member, xs) -> Curves:
     z = Piecewise.zero(xs)
-    return Curves(z, z, z, z, tuple((Fraction(0), Fraction(0)) for _ in member.supports))
+    return Curves(z, z, z, z, tuple((Q(0), Q(0)) for _ in member.supports))
 
 
 def choose_primary(member: Member) -> tuple[str, tuple[Restraint, ...], tuple[Restraint, ...]]:
@@ -191,21 +192,21 @@ def _condition(x, kind: str, hinges) -> list:
     """The support condition of a kept component in the unknowns (c1, c2, slope jump at each hinge):
     v = c1 + c2 x + sum of jump (x - h) right of each hinge h; theta = c2 + sum of the jumps left of x."""
     if kind == "force":
-        return [Fraction(1), x] + [(x - h) if x > h else Fraction(0) for h in hinges]
-    return [Fraction(0), Fraction(1)] + [Fraction(1) if x > h else Fraction(0) for h in hinges]
+        return [Q(1), x] + [(x - h) if x > h else Q(0) for h in hinges]
+    return [Q(0), Q(1)] + [Q(1) if x > h else Q(0) for h in hinges]
 
 
 def _inverse(A) -> tuple[tuple, ...]:
     n = len(A)
-    cols = [linsolve(A, [Fraction(int(i == j)) for i in range(n)]) for j in range(n)]
+    cols = [linsolve(A, [Q(int(i == j)) for i in range(n)]) for j in range(n)]
     return tuple(tuple(cols[j][i] for j in range(n)) for i in range(n))
 
 
 def _apply(A, b) -> list:
-    return [sum((a * v for a, v in zip(row, b)), Fraction(0)) for row in A]
+    return [sum((a * v for a, v in zip(row, b)), Q(0)) for row in A]
 
 
-def _unit(member: Member, r: Restraint, value=Fraction(1)) -> Load:
+def _unit(member: Member, r: Restraint, value=Q(1)) -> Load:
     """The redundant as a load on the primary beam: a force or a couple at its support."""
     sp = member.supports[r.support]
     return PointLoad(sp.x, value, sp.span) if r.kind == "force" else MomentLoad(sp.x, value, sp.span)
@@ -220,7 +221,7 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
     base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
     moved = prescribed(member, loads)
-    target = [moved.get(member.supports[r.support].x, Fraction(0)) if r.kind == "force" else Fraction(0)
+    target = [moved.get(member.supports[r.support].x, Q(0)) if r.kind == "force" else Q(0)
               for r in primary.redundants]
     X = linsolve(primary.flexibility, [t - d for t, d in zip(target, D0)]) if D0 else ()
     if not X:
@@ -244,7 +245,7 @@ def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> 
     F, Mo = resultant(loads)
     sps, hinges = member.supports, [h.x for h in member.hinges]
     R = _apply(primary.statics, [-F, -Mo] + [-moment_left(loads, h) for h in hinges])
-    reactions = [(Fraction(0), Fraction(0)) for _ in sps]
+    reactions = [(Q(0), Q(0)) for _ in sps]
     actions = list(loads)
     for r, value in zip(primary.kept, R):
         force, moment = reactions[r.support]
@@ -263,16 +264,16 @@ def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> 
     for r in primary.kept:
         x = sps[r.support].x
         if r.kind == "force":
-            wanted.append(_settlement(sps[r.support], reactions[r.support][0]) + moved.get(x, Fraction(0)) - v0.at(x))
+            wanted.append(_settlement(sps[r.support], reactions[r.support][0]) + moved.get(x, Q(0)) - v0.at(x))
         else:
             wanted.append(-theta0.at(x))
     c1, c2, *jumps = _apply(primary.kinematics, wanted)
     theta_add, v_add = [], []
     for a in xs[:-1]:
         left = [(h, j) for h, j in zip(hinges, jumps) if h <= a]
-        slope = c2 + sum((j for _, j in left), Fraction(0))
+        slope = c2 + sum((j for _, j in left), Q(0))
         theta_add.append(Poly.of(slope))
-        v_add.append(Poly.of(c1 - sum((j * h for h, j in left), Fraction(0)), slope))
+        v_add.append(Poly.of(c1 - sum((j * h for h, j in left), Q(0)), slope))
     theta = Piecewise(xs, tuple(p + q for p, q in zip(theta0.pieces, theta_add)))
     v = Piecewise(xs, tuple(p + q for p, q in zip(v0.pieces, v_add)))
     return Curves(V, M, theta, v, tuple(reactions))
@@ -283,13 +284,13 @@ def prescribed(member: Member, loads) -> dict[Fraction, Fraction]:
     out: dict[Fraction, Fraction] = {}
     for load in loads:
         if isinstance(load, Settlement):
-            out[load.x] = out.get(load.x, Fraction(0)) + load.movement
+            out[load.x] = out.get(load.x, Q(0)) + load.movement
     return out
 
 
 def _settlement(support, force: Fraction) -> Fraction:
     """A spring support moves by -R/k under its reaction R (reaction up, so the beam moves down)."""
-    return -force / support.stiffness if support.kind == "spring" else Fraction(0)
+    return -force / support.stiffness if support.kind == "spring" else Q(0)
 
 
 def linsolve(A, b) -> list[Fraction]:

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from .exact import Q
 from .model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from .poly import Piecewise, Poly
 
@@ -14,7 +15,7 @@ def breakpoints(member: Member) -> tuple[Fraction, ...]:
 
     Report points are not breakpoints (a curve is simply evaluated there) unless a load moves: then the
     envelope search follows each force past them."""
-    xs = {Fraction(0), member.length}
+    xs = {Q(0), member.length}
     xs.update(sp.x for sp in member.supports)
     xs.update(h.x for h in member.hinges)
     xs.update(st.x1 for st in member.stretches)
@@ -31,7 +32,7 @@ def breakpoints(member: Member) -> tuple[Fraction, ...]:
 
 def region_bounds(member: Member) -> tuple[Fraction, ...]:
     """The ends and the supports: the bounds of every span and overhang."""
-    return tuple(sorted({Fraction(0), member.length} | {sp.x for sp in member.supports}))
+    return tuple(sorted({Q(0), member.length} | {sp.x for sp in member.supports}))
 
 
 def intensity(load: LineLoad) -> Poly:
@@ -41,7 +42,7 @@ def intensity(load: LineLoad) -> Poly:
 
 def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]:
     """(total upward force, total counterclockwise moment about x = 0)."""
-    force = moment = Fraction(0)
+    force = moment = Q(0)
     for load in loads:
         if isinstance(load, PointLoad):
             force += load.force
@@ -60,7 +61,7 @@ def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]
 def moment_left(loads, x) -> Fraction:
     """The bending moment at x from the loads left of x alone (sagging positive)."""
     at = Poly.of(0, 1)
-    total = Fraction(0)
+    total = Q(0)
     for load in loads:
         for where, _, dm in _changes(load, at):
             if where < x:
