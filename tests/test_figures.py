@@ -178,3 +178,15 @@ def test_reactions_are_written_under_their_supports():
     assert [t.text for t in labels] == ["R = 30 kN up", "R = 30 kN up"]
     assert all(y < float(t.get("y")) < y + h for t in labels)
     assert float(labels[0].get("x")) < x + 0.1 * w and float(labels[1].get("x")) > x + 0.9 * w
+
+
+def test_a_long_title_is_wrapped_inside_the_figure():
+    fig = Figure(width=300.0, title="word " * 40)
+    p = fig.panel(60.0)
+    p.title = ("panel " * 30, 7.0)
+    p.line([0, 1], [0, 1])
+    root = ET.fromstring(fig.svg())
+    texts = [t for t in root.iter(f"{SVG}text") if t.text and t.text.startswith(("word", "panel"))]
+    assert len(texts) > 4  # several lines each
+    from beamlang.report.svgplot import text_width
+    assert all(float(t.get("x")) + text_width(t.text, float(t.get("font-size"))) <= 300.0 for t in texts)

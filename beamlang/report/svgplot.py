@@ -206,9 +206,10 @@ class Figure:
         body: list[str] = []
         y = 6.0
         if self.title:
-            y += self.title_size
-            body.append(_text(6.0, y, self.title, self.title_size, "black", "start"))
-            y += 6.0
+            for line in _wrap(self.title, self.title_size, self.width - 12.0):
+                y += self.title_size + 2.0
+                body.append(_text(6.0, y, line, self.title_size, "black", "start"))
+            y += 4.0
         last = self.panels[-1] if self.panels else None
         for k, p in enumerate(self.panels):
             y = _header(body, p, left, plot_w, y)
@@ -239,8 +240,9 @@ def _header(body: list[str], p: Panel, left: float, plot_w: float, y: float) -> 
     """The panel's title and legend rows above its box; returns the top of the box."""
     if p.title:
         text, size = p.title
-        y += size + 2.0
-        body.append(_text(left, y, text, size, "black", "start"))
+        for line in _wrap(text, size, plot_w):
+            y += size + 2.0
+            body.append(_text(left, y, line, size, "black", "start"))
         y += 2.0
     if p.legend:
         rows: list[list[tuple[float, tuple]]] = [[]]
@@ -358,6 +360,17 @@ def _axes(f: _Frame, p: Panel, xt, yt, ylabels, yexp, xlabels) -> list[str]:
         out.append(f'<text x="{_n(cx)}" y="{_n(cy)}" font-size="8" text-anchor="middle" '
                    f'transform="rotate(-90 {_n(cx)} {_n(cy)})">{escape(label)}</text>\n')
     return out
+
+
+def _wrap(text: str, size: float, width: float) -> list[str]:
+    """A title broken between words into lines no wider than `width` (by the width estimate)."""
+    lines: list[str] = []
+    for word in text.split(" "):
+        if lines and text_width(lines[-1] + " " + word, size) <= width:
+            lines[-1] += " " + word
+        else:
+            lines.append(word)
+    return lines
 
 
 def _seg(x1: float, y1: float, x2: float, y2: float, color: str, width: float, extra: str = "") -> str:
