@@ -145,3 +145,12 @@ def test_generated_members_build_complete_packages(text):
     for name in svgs:
         ET.fromstring(files[name])
     assert "qualified, licensed engineer" in files[f"{mark}.md"].decode("utf-8")
+
+
+def test_a_section_without_shear_properties_is_named_in_the_cautions():
+    caution = "The shear stress is not checked where the section is given by its properties (input line 4)"
+    for section, named in (("properties I 8e7 mm^4 depth 300 mm", True), ("rectangle width 100 mm depth 200 mm", False)):
+        a = analyse_text(member_text("4 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]},
+                                     extra=["check stress a"], section=section))
+        assert any(c.kind == "shear stress" for c in a.checks) is not named
+        assert (caution in package.package_files(a)["T-1.md"].decode("utf-8")) is named

@@ -237,11 +237,24 @@ CAUTIONS = [
 
 
 def cautions(a: Analysis) -> list[str]:
-    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS]
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS + _unchecked_shear(a)]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
     return lines + [""]
+
+
+def _unchecked_shear(a: Analysis) -> list[str]:
+    """A stress check with a section given by its properties: its shear stress is not checked, say so."""
+    m = a.loaded.member
+    if not m.stress_checks:
+        return []
+    lines = sorted({st.section.span.line for st in m.stretches if st.section.Q is None or st.section.t is None})
+    if not lines:
+        return []
+    where = ", ".join(str(n) for n in lines)
+    return [f"The shear stress is not checked where the section is given by its properties (input line {where}): "
+            "they do not give the first moment Q and the thickness t that V Q / (I t) needs. Check it by hand."]
 
 
 def traceability(a: Analysis) -> list[str]:
