@@ -168,11 +168,10 @@ def _lowest(drawn: list, levels: dict[int, int]) -> float:
 def _reactions(ax, m, r, u: dict, L: float, low: float) -> None:
     """Each support's reaction written under it, below everything else drawn: the panel is then a free-body
     diagram a checker can sum."""
-    for sp, (x, force, moment) in zip(m.supports, r.reactions):
-        if force == 0 and moment == 0:
-            continue
+    for sp, (x, force, moment) in zip(m.supports, r.reactions):  # a zero too: every support is accounted for
         xr = float(convert(x, u["length"]))
-        text = f"R = {number(convert(abs(force), u['force']))} {u['force']} {'up' if force >= 0 else 'down'}"
+        text = f"R = {number(convert(abs(force), u['force']))} {u['force']}" + ("" if force == 0 else
+                                                                             " up" if force > 0 else " down")
         if sp.kind == "fixed" and moment != 0:
             turn = "counterclockwise" if moment > 0 else "clockwise"
             text += f"\nM = {number(convert(abs(moment), u['moment']))} {u['moment']} {turn}"
