@@ -10,7 +10,8 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 
 from beamlang.report import figures
-from beamlang.report.svgplot import Figure, nice_ticks, tick_labels
+from beamlang.report.svgplot import Figure
+from beamlang.report.ticks import nice_ticks, tick_labels
 from engine_helpers import analyse_text, member_text
 from strategies import members
 

@@ -11,6 +11,8 @@ import math
 from dataclasses import dataclass
 from xml.sax.saxutils import escape
 
+from .ticks import limits, nice_ticks, tick_labels
+
 FONT = "DejaVu Sans, Verdana, Arial, Helvetica, sans-serif"
 GLYPH = 0.6  # estimated average advance of a character, as a fraction of the font size (layout only)
 TICK = 3.5  # tick length, pt
@@ -29,44 +31,6 @@ def _n(v: float) -> str:
     """One coordinate: two decimals, no trailing zeros, no negative zero."""
     s = f"{v:.2f}".rstrip("0").rstrip(".")
     return "0" if s in ("-0", "") else s
-
-
-def nice_ticks(lo: float, hi: float, least: int) -> tuple[list[float], float]:
-    """Ticks in [lo, hi] at the largest step of 1, 2, 2.5 or 5 times a power of ten that gives at least
-    `least` of them."""
-    k = math.floor(math.log10(hi - lo))
-    for step in sorted((m * 10.0**e for e in range(k - 3, k + 2) for m in (1, 2, 2.5, 5)), reverse=True):
-        first, last = math.ceil(lo / step - 1e-9), math.floor(hi / step + 1e-9)
-        if last - first + 1 >= least:
-            return [k * step for k in range(first, last + 1)], step
-    return [lo, hi], hi - lo  # pragma: no cover - a range of less than a thousandth of its own size
-
-
-def tick_labels(values: list[float], step: float) -> tuple[list[str], int]:
-    """Labels with as many decimals as the step needs, and a power of ten taken out when the numbers are
-    very large or small (the axis label then says x10^k)."""
-    big = max((abs(v) for v in values), default=0.0)
-    exp = math.floor(math.log10(big)) if big and (big >= 1e5 or big < 1e-3) else 0
-    scaled = step / 10.0**exp
-    decimals = max(0, -math.floor(math.log10(scaled) + 1e-9))
-    if abs(scaled * 10**decimals - round(scaled * 10**decimals)) > 1e-6:  # a step of 2.5 x 10^k
-        decimals += 1
-    out = []
-    for v in values:
-        s = f"{v / 10.0**exp:.{decimals}f}"
-        out.append(s.lstrip("-") if float(s) == 0 else s.replace("-", "\u2212"))
-    return out, exp
-
-
-def _limits(lo: float | None, hi: float | None, margin: float = 0.05) -> tuple[float, float]:
-    """Data extent plus a margin on each side; a flat extent is opened up around its value."""
-    if lo is None or hi is None:
-        return 0.0, 1.0
-    if hi - lo <= 1e-12 * max(abs(lo), abs(hi), 1e-300):
-        d = abs(lo) * 0.1 or 1.0
-        return lo - d, hi + d
-    d = (hi - lo) * margin
-    return lo - d, hi + d
 
 
 class Panel:
@@ -149,7 +113,7 @@ class Panel:
     def y_range(self) -> tuple[float, float]:
         if self.ylim:
             return self.ylim
-        return _limits(min(self._y, default=None), max(self._y, default=None), self.margin)
+        return limits(min(self._y, default=None), max(self._y, default=None), self.margin)
 
     def y_ticks(self) -> tuple[list[float], list[str], int]:
         if not (self.axis and self.yticks):
@@ -184,7 +148,7 @@ class Figure:
         extents = [e for e in (p.x_extent() for p in self.panels) if e]
         if not extents:
             return 0.0, 1.0
-        return _limits(min(e[0] for e in extents), max(e[1] for e in extents))
+        return limits(min(e[0] for e in extents), max(e[1] for e in extents))
 
     def _margins(self, ylabels: list[str], xlabels: list[str]) -> tuple[float, float]:
         """Room left of the panels for the widest y tick label and the y labels, and right of them for half
