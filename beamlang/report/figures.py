@@ -233,8 +233,8 @@ def _anchor(x: float, L: float) -> str:
 
 
 def _side(load: LineLoad, factor: Fraction) -> int:
-    """1: drawn above the member (a downward load), -1: below it (an upward one)."""
-    return 1 if (load.w1 + load.w2) * factor < 0 else -1
+    """1: drawn above the member (a downward load, or a zero one, as a zero point load is), -1: below it."""
+    return -1 if (load.w1 + load.w2) * factor > 0 else 1
 
 
 def _base(sign: int, level: int) -> float:
