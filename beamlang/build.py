@@ -641,7 +641,8 @@ def _show_span(doc: s.Document) -> str:
 
 _DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "shear": "the shear strength",
              "density": "the density",
-             "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S"}
+             "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S",
+             "Q": "the first moment of area Q", "t": "the shear width t"}
 _EXAMPLES = {"member": 'start the file with e.g. `member B-1 "Floor beam"`', "span": "for example `span 5.4 m`",
              "material": "for example `material steel E 200 GPa yield 350 MPa`",
              "section": "for example `section rectangle width 89 mm depth 235 mm`"}

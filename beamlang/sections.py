@@ -12,14 +12,14 @@ PI = Q("3.141592653589793238462643383279502884197")
 
 SHAPE_DIMENSIONS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     # shape: (required dimensions, optional ones); `flange` is width x thickness
-    "properties": (("I",), ("depth", "c", "A", "S")),
+    "properties": (("I",), ("depth", "c", "A", "S", "Q", "t")),
     "rectangle": (("width", "depth"), ()),
     "round": (("diameter",), ()),
     "tube": (("diameter", "wall"), ()),
     "box": (("width", "depth", "wall"), ()),
     "I-shape": (("depth", "flange", "web"), ()),
 }
-DIMENSION_KIND = {"I": "second moment of area", "A": "area", "S": "section modulus"}
+DIMENSION_KIND = {"I": "second moment of area", "A": "area", "S": "section modulus", "Q": "section modulus"}
 
 FORMULAS = {
     "rectangle": {"A": "b h", "I": "b h^3 / 12", "c": "h / 2", "Q": "b h^2 / 8", "t": "b"},
@@ -51,7 +51,12 @@ def _given(d: dict[str, Fraction], _ft: Fraction | None) -> dict[str, Fraction |
     if c is None and "depth" in d:
         c = d["depth"] / 2
     S = d.get("S") or (d["I"] / c if c else None)
-    return {"A": d.get("A"), "I": d["I"], "c": c, "S": S, "Q": None, "t": None}
+    if ("Q" in d) != ("t" in d):  # V Q / (I t) needs both
+        given, other = ("Q", "t") if "Q" in d else ("t", "Q")
+        raise ShapeProblem(given, f"`{given}` needs `{other}` too: the shear stress V Q / (I t) takes the first moment Q "
+                           "of the area beyond the neutral axis and the width t there",
+                           "for an I-shape, Q of a half section and t the web thickness")
+    return {"A": d.get("A"), "I": d["I"], "c": c, "S": S, "Q": d.get("Q"), "t": d.get("t")}
 
 
 def _rectangle(d: dict[str, Fraction], _ft: Fraction | None) -> dict[str, Fraction | None]:

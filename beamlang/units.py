@@ -105,7 +105,7 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         raise UnitProblem(Diagnostic(q.unit_span, f"unknown unit '{q.unit}'", extra))
     if f.kind != kind:
         got = _article(f.kind) if f.kind else "not a unit this language uses"
-        label = "a force times a length" if kind == "moment" else _article(kind)
+        label = {"moment": "a force times a length", "section modulus": "a length cubed"}.get(kind) or _article(kind)
         message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
         if POUND_MASS.search(q.unit) and kind != "density":
             hint = "lb is a pound of mass; a pound-force is lbf (lbf/ft, or plf, for a line load)"

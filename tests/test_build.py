@@ -148,7 +148,7 @@ def test_generated_members_build_complete_packages(text):
 
 
 def test_a_section_without_shear_properties_is_named_in_the_cautions():
-    caution = "The shear stress is not checked where the section is given by its properties (input line 4)"
+    caution = "The shear stress is not checked where the section is given by its properties (input line 4) without"
     for section, named in (("properties I 8e7 mm^4 depth 300 mm", True), ("rectangle width 100 mm depth 200 mm", False)):
         a = analyse_text(member_text("4 m", ["pin at 0 m", "roller at span"], {"a": ["uniform 1 kN/m down"]},
                                      extra=["check stress a"], section=section))

@@ -137,3 +137,17 @@ def test_without_a_shear_strength_the_shear_check_is_von_mises():
     a = analyse_text(SHEAR_MEMBER.format(shear=""))
     check = next(c for c in a.checks if c.kind == "shear stress")
     assert check.allowed == 40 * 10**6 / SQRT3 and check.passed and "von Mises" in check.basis
+
+
+def test_a_section_given_by_its_properties_with_q_and_t_is_checked_in_shear_like_the_shape():
+    # A rectangle 120 mm x 200 mm by its properties: I = b h^3 / 12 = 8e7 mm^4, Q = b h^2 / 8 = 6e5 mm^3 and
+    # t = b (Gere and Goodno, Mechanics of Materials, 8th ed., sec. 5.8, from memory): the shear check must be
+    # the shape's own, exactly.
+    from engine_helpers import analyse_text
+    base = SHEAR_MEMBER.format(shear="")
+    shape = analyse_text(base.replace("width 100 mm", "width 120 mm"))
+    given = analyse_text(base.replace("section rectangle width 100 mm depth 200 mm",
+                                      "section properties I 8e7 mm^4 depth 200 mm Q 6e5 mm^3 t 120 mm"))
+    one, two = (next(c for c in x.checks if c.kind == "shear stress") for x in (shape, given))
+    assert (one.actual, one.allowed, one.x) == (two.actual, two.allowed, two.x)
+    assert one.actual == Fraction(3, 2) * 20000 / Fraction(24, 1000)  # 1.5 V / A

@@ -253,8 +253,9 @@ def _unchecked_shear(a: Analysis) -> list[str]:
     if not lines:
         return []
     where = ", ".join(str(n) for n in lines)
-    return [f"The shear stress is not checked where the section is given by its properties (input line {where}): "
-            "they do not give the first moment Q and the thickness t that V Q / (I t) needs. Check it by hand."]
+    return [f"The shear stress is not checked where the section is given by its properties (input line {where}) "
+            "without `Q` and `t`, the first moment of area and the width at the neutral axis that V Q / (I t) "
+            "needs: give them, or check the shear by hand."]
 
 
 def traceability(a: Analysis) -> list[str]:
