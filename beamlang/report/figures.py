@@ -43,14 +43,19 @@ def target_figure(a: Analysis, name: str) -> str:
         if quantity == "deflection" and r.envelope is None:
             limit_lines(ax, m, r, u)
         for loc in marks or []:
-            x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
-            ax.dot(x, y, 3.5, MARK)
-            right = x > 0.6 * L  # keep the label inside the axes
-            ax.text(x, y, f"{number(y)} at {number(x)} {u['length']}", 7.0, MARK, "end" if right else "start",
-                    dx=-4 if right else 4, dy=4 if y >= 0 else -10)
+            mark_extreme(ax, loc, u, quantity, L)
     ax.xlabel = f"x ({u['length']}) from the left end"
     fig.xlim = (-0.03 * L, 1.03 * L)  # a support symbol at an end fits inside the frame
     return fig.svg()
+
+
+def mark_extreme(ax, loc, u: dict, quantity: str, L: float) -> None:
+    """A dot at an exact extreme and its value and place beside it, reaching inwards near the right end."""
+    x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
+    ax.dot(x, y, 3.5, MARK)
+    right = x > 0.6 * L  # keep the label inside the axes
+    ax.text(x, y, f"{number(y)} at {number(x)} {u['length']}", 7.0, MARK, "end" if right else "start",
+            dx=-4 if right else 4, dy=4 if y >= 0 else -10)
 
 
 def limit_lines(ax, m, r, u: dict) -> None:

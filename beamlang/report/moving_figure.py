@@ -14,7 +14,7 @@ import numpy as np
 from ..display import convert, number, report_units
 from ..moving import directions, group_offsets, kernels_for, standing_loads
 from ..pipeline import Analysis
-from .figures import CURVE, LABEL_ROOM, LOAD, MARK, limit_lines, mark_changes_and_hinges
+from .figures import CURVE, LABEL_ROOM, LOAD, limit_lines, mark_changes_and_hinges, mark_extreme
 from .svgplot import Figure
 
 POSITIONS = 400  # group positions per direction for the drawn envelopes
@@ -136,11 +136,7 @@ def moving_figure(a: Analysis, name: str) -> str:
         for loc in marks:
             if loc is None:
                 continue
-            x, y = length(loc.x), float(convert(loc.value, u[quantity]))
-            ax.dot(x, y, 3.5, MARK)
-            right = x > 0.6 * length(m.length)  # keep the label inside the axes
-            ax.text(x, y, f"{number(y)} at {number(x)} {u['length']}", 7.0, MARK, "end" if right else "start",
-                    dx=-4 if right else 4, dy=4 if y >= 0 else -10)
+            mark_extreme(ax, loc, u, quantity, length(m.length))
     for ax in axes:
         for sp in m.supports:
             ax.vline(length(sp.x), width=0.5, opacity=0.4)
