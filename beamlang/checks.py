@@ -86,10 +86,9 @@ def _stress(member: Member, check, r: TargetResult) -> list[Check]:
     out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy, x,
                  "sigma = M c / I against the yield strength" + _where(member, st.bending_at), check.span)]
     if st.shear is not None:
-        fy_v = st.shear_yield if st.shear_yield is not None else fy
         allowed, basis = ((st.shear_strength, "tau = V Q / (I t) against the shear strength given with the material")
                           if st.shear_strength is not None else
-                          (fy_v / SQRT3, "tau = V Q / (I t) against fy/sqrt(3) (von Mises)"))
+                          (st.shear_fy / SQRT3, "tau = V Q / (I t) against fy/sqrt(3) (von Mises)"))
         out.append(Check("shear stress", check.target, st.shear, allowed, "Pa", st.shear_ok,
                          st.shear_at.x if st.shear_at else None, basis + _where(member, st.shear_at), check.span))
     return out

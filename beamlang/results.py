@@ -54,8 +54,13 @@ class Stress:
             return True
         if self.shear_strength is not None:
             return self.shear <= self.shear_strength
-        fy = self.shear_yield if self.shear_yield is not None else self.yield_strength
+        fy = self.shear_fy
         return fy is None or 3 * self.shear**2 <= fy**2
+
+    @property
+    def shear_fy(self) -> Fraction | None:
+        """The yield strength the von Mises shear capacity fy/sqrt(3) is taken from."""
+        return self.shear_yield if self.shear_yield is not None else self.yield_strength
 
 
 @dataclass(frozen=True, slots=True)
