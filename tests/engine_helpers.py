@@ -35,3 +35,10 @@ def result(text: str, target: str = "a"):
 
 def rel(a, b) -> float:
     return abs(float(a) - float(b)) / max(abs(float(b)), 1e-300)
+
+
+def to_sympy(value):
+    """An exact engine number -> sympy.Rational (gmpy2 2.3's mpz is not read by sympy 1.14 directly)."""
+    import sympy
+
+    return sympy.Rational(int(value.numerator), int(value.denominator))

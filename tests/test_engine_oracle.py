@@ -17,7 +17,7 @@ from hypothesis import strategies as st
 from sympy.physics.continuum_mechanics.beam import Beam
 
 from beamlang.model import LineLoad, MomentLoad, PointLoad
-from engine_helpers import analyse_text, member_text
+from engine_helpers import analyse_text, member_text, to_sympy
 
 LAYOUTS = {
     "simple": ["pin at 0 m", "roller at span"],
@@ -57,7 +57,7 @@ def beams(draw):
 
 
 def sympy_solution(member):
-    R = lambda v: sympy.Rational(v.numerator, v.denominator)  # noqa: E731
+    R = lambda v: to_sympy(v)  # noqa: E731
     b = Beam(R(member.length), R(member.material.E), R(member.section.I))
     unknowns = []
     for i, sp in enumerate(member.supports):
@@ -94,14 +94,14 @@ def test_reactions_and_deflections_match_sympy_beam(text):
     r = a.results[0]
     x = sympy.Symbol("x")
     for i, (sp, (_, force, moment)) in enumerate(zip(m.supports, r.reactions)):
-        assert b.reaction_loads[sympy.Symbol(f"R{i}")] == sympy.Rational(force.numerator, force.denominator)
+        assert b.reaction_loads[sympy.Symbol(f"R{i}")] == to_sympy(force)
         if sp.kind == "fixed":
-            assert b.reaction_loads[sympy.Symbol(f"M{i}")] == -sympy.Rational(moment.numerator, moment.denominator)
+            assert b.reaction_loads[sympy.Symbol(f"M{i}")] == -to_sympy(moment)
     deflection, slope = b.deflection(), b.slope()
     for p, v, theta in r.points:
-        xp = sympy.Rational(p.numerator, p.denominator)
-        assert deflection.subs(x, xp).doit() == sympy.Rational(v.numerator, v.denominator)
-        assert slope.subs(x, xp).doit() == sympy.Rational(theta.numerator, theta.denominator)
+        xp = to_sympy(p)
+        assert deflection.subs(x, xp).doit() == to_sympy(v)
+        assert slope.subs(x, xp).doit() == to_sympy(theta)
 
 
 def test_sign_mapping_on_a_simple_span():
@@ -112,4 +112,4 @@ def test_sign_mapping_on_a_simple_span():
     b = sympy_solution(a.loaded.member)
     assert b.reaction_loads[sympy.Symbol("R0")] == F(20000, 3) - F(1000, 6)
     v = a.results[0].points[0][1]
-    assert b.deflection().subs(sympy.Symbol("x"), 3) == sympy.Rational(v.numerator, v.denominator)
+    assert b.deflection().subs(sympy.Symbol("x"), 3) == to_sympy(v)

@@ -18,7 +18,7 @@ import sympy
 from sympy.physics.continuum_mechanics.beam import Beam
 
 from beamlang.model import LineLoad, PointLoad
-from engine_helpers import analyse_text
+from engine_helpers import analyse_text, to_sympy
 from test_moving import _search
 
 E = F(200 * 10**9)
@@ -70,7 +70,7 @@ def test_cover_plated_simple_beam_by_unit_load():
 
 def _sympy_joined(parts, via: str, supports, loads):
     """A sympy Beam joined from (length, I) parts; supports (kind, x) and our load objects."""
-    R = lambda v: sympy.Rational(F(v).numerator, F(v).denominator)  # noqa: E731
+    R = lambda v: to_sympy(F(v))  # noqa: E731
     b = Beam(R(parts[0][0]), R(E), R(parts[0][1]))
     for length, I in parts[1:]:
         b = b.join(Beam(R(length), R(E), R(I)), via)
@@ -97,11 +97,11 @@ def _sympy_joined(parts, via: str, supports, loads):
 def _agrees_with_sympy(r, member, b):
     x = sympy.Symbol("x")
     for i, (_, force, _) in enumerate(r.reactions):
-        assert b.reaction_loads[sympy.Symbol(f"R{i}")] == sympy.Rational(force.numerator, force.denominator)
+        assert b.reaction_loads[sympy.Symbol(f"R{i}")] == to_sympy(force)
     deflection = b.deflection()
     for p, v, _ in r.points:
-        assert deflection.subs(x, sympy.Rational(p.numerator, p.denominator)).doit() == \
-            sympy.Rational(v.numerator, v.denominator)
+        assert deflection.subs(x, to_sympy(p)).doit() == \
+            to_sympy(v)
 
 
 HINGED = {
@@ -155,7 +155,7 @@ def test_stepped_two_span_by_the_force_method():
     d11 = sum(sympy.integrate(m[k1] ** 2, (x, lo, hi)) / (sympy.Rational(200 * 10**9) * I) for lo, hi, _, k1, I in pieces)
     X = -d10 / d11
     middle = a.result("a").reactions[1][1]
-    assert sympy.Rational(middle.numerator, middle.denominator) == X
+    assert to_sympy(middle) == X
     assert a.result("a").cross_check < 1e-9
 
 
@@ -273,9 +273,9 @@ def _unit_load_integral(stretches, pieces):
         cuts = sorted({lo, hi} | {st.x1 for st in stretches if lo < st.x1 < hi})
         for a, b in zip(cuts, cuts[1:]):
             st = next(s for s in stretches if s.x1 <= a and b <= s.x2)
-            EI = sympy.Rational(st.EI.numerator, st.EI.denominator)
-            total += sympy.integrate(expr, (x, sympy.Rational(a.numerator, a.denominator),
-                                            sympy.Rational(b.numerator, b.denominator))) / EI
+            EI = to_sympy(st.EI)
+            total += sympy.integrate(expr, (x, to_sympy(a),
+                                            to_sympy(b))) / EI
     return total, x
 
 
