@@ -7,8 +7,8 @@ import sys
 import traceback
 from pathlib import Path
 
-from . import __version__
-from .errors import BeamError
+from beamlang import __version__
+from beamlang.errors import BeamError
 
 EXIT_OK, EXIT_FAIL, EXIT_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
 
@@ -84,7 +84,7 @@ def _parser() -> argparse.ArgumentParser:
 
 def _each(paths: list[str]):
     """Load every file, collecting input errors so that all are reported; yields the good ones."""
-    from .frontend import check_unique_marks, expand, load
+    from beamlang.language.frontend import check_unique_marks, expand, load
     files = expand(paths)
     if not files:
         print("beamlang: no .beam files found in " + " ".join(paths), file=sys.stderr)
@@ -108,7 +108,7 @@ def _report(errors: list[BeamError]) -> None:
 
 
 def _run_fmt(args: argparse.Namespace) -> int:
-    from .fmt import format_document
+    from beamlang.language.fmt import format_document
     loaded, errors, found = _each(args.paths)
     _report(errors)
     changed = []
@@ -148,8 +148,8 @@ def _run_build(args: argparse.Namespace) -> int:
 
 def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int]:
     """One member's package (runs in a worker process with --jobs)."""
-    from .pipeline import analyse_loaded
-    from .report.package import write_package
+    from beamlang.pipeline import analyse_loaded
+    from beamlang.report.package import write_package
     a = analyse_loaded(item)
     folder = write_package(a, out, _changes_since(since, item, a) if since else ())
     return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks)
@@ -157,10 +157,10 @@ def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int
 
 def _changes_since(rev: str, item, a) -> list[str]:
     """The 'Changes since REV' section of a package: the diff of this member's file against REV."""
-    from . import diffout
-    from .diff import diff_members
-    from .gitsource import files_at
-    from .report.tex import md
+    from beamlang.tools import diffout
+    from beamlang.tools.diff import diff_members
+    from beamlang.tools.gitsource import files_at
+    from beamlang.report.tex import md
     name = item.path.as_posix()
     old = _side(f"{rev}:{name}") if name in files_at(rev, [name]) else None
     d = diff_members(name, old, a)
@@ -169,7 +169,7 @@ def _changes_since(rev: str, item, a) -> list[str]:
 
 
 def _run_watch(args: argparse.Namespace) -> int:
-    from .watch import watch_loop
+    from beamlang.tools.watch import watch_loop
     watch_loop(args.paths, Path(args.out))
     return EXIT_OK
 
@@ -177,18 +177,18 @@ def _run_watch(args: argparse.Namespace) -> int:
 def _run_check(args: argparse.Namespace) -> int:
     import json
 
-    from .pipeline import analyse_loaded
+    from beamlang.pipeline import analyse_loaded
     loaded, errors, found = _each(args.paths)
     _report(errors)
     analyses = [analyse_loaded(item) for item in loaded]
     if args.junit:
-        from .junit import junit_xml
+        from beamlang.tools.junit import junit_xml
         Path(args.junit).write_text(junit_xml(analyses, errors), encoding="utf-8")
     if args.json:
-        from .jsonout import member_json
+        from beamlang.report.jsonout import member_json
         print(json.dumps([member_json(a) for a in analyses], indent=2))
     else:
-        from .table import member_table
+        from beamlang.report.table import member_table
         print("\n".join(member_table(a) for a in analyses), end="")
     if errors or not found:
         return EXIT_INPUT
@@ -196,9 +196,9 @@ def _run_check(args: argparse.Namespace) -> int:
 
 
 def _run_size(args: argparse.Namespace) -> int:
-    from .frontend import load
-    from .display import convert
-    from .size import catalogue_of, read_catalogue, shown, try_all, with_section
+    from beamlang.language.frontend import load
+    from beamlang.analysis.display import convert
+    from beamlang.tools.size import catalogue_of, read_catalogue, shown, try_all, with_section
     item = load(Path(args.member))
     catalogue = Path(args.catalogue) if args.catalogue else catalogue_of(item)
     trials = try_all(item, read_catalogue(catalogue), shown(catalogue))
@@ -231,8 +231,8 @@ def _run_size(args: argparse.Namespace) -> int:
 def _run_diff(args: argparse.Namespace) -> int:
     import os
 
-    from . import diffout
-    from .diff import diff_members
+    from beamlang.tools import diffout
+    from beamlang.tools.diff import diff_members
     pairs = _diff_pairs(args)
     diffs = [diff_members(name, old, new, args.threshold) for name, old, new in pairs]
     if args.format == "json":
@@ -249,8 +249,8 @@ def _run_diff(args: argparse.Namespace) -> int:
 
 def _diff_pairs(args: argparse.Namespace) -> list:
     """[(name, old analysis or None, new analysis or None)] for the two forms of `diff`."""
-    from .frontend import expand
-    from .gitsource import files_at
+    from beamlang.language.frontend import expand
+    from beamlang.tools.gitsource import files_at
     if args.rev:
         old_files = set(files_at(args.rev, args.sides))
         new_files = {p.as_posix() for p in expand(args.sides or ["."])}
@@ -265,10 +265,10 @@ def _diff_pairs(args: argparse.Namespace) -> list:
 
 def _side(arg: str):
     """A file, or REV:path read through git; analysed."""
-    from .frontend import from_source
-    from .gitsource import read_revision
-    from .parse import read_source
-    from .pipeline import analyse_loaded
+    from beamlang.language.frontend import from_source
+    from beamlang.tools.gitsource import read_revision
+    from beamlang.language.parse import read_source
+    from beamlang.pipeline import analyse_loaded
     if ":" in arg and not Path(arg).exists():
         rev, _, path = arg.partition(":")
         source = read_revision(rev, path)
@@ -278,8 +278,8 @@ def _side(arg: str):
 
 
 def _usage(message: str):
-    from .errors import Diagnostic
-    from .source import Span
+    from beamlang.errors import Diagnostic
+    from beamlang.source import Span
     return Diagnostic(Span("beamlang", 1, 1, 2), message)
 
 

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .source import Source, Span
+from beamlang.source import Source, Span
 
 
 @dataclass(frozen=True, slots=True)

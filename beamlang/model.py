@@ -5,8 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from . import syntax as s
-from .source import Span
+from beamlang.language import syntax as s
+from beamlang.source import Span
 
 
 @dataclass(frozen=True, slots=True)

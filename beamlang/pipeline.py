@@ -5,11 +5,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
-from .checks import Check, run_checks
-from .frontend import Loaded, load
-from .required import Required, required_section
-from .results import TargetResult, evaluate
-from .solve import Solution, solve
+from beamlang.analysis.checks import Check, run_checks
+from beamlang.language.frontend import Loaded, load
+from beamlang.analysis.required import Required, required_section
+from beamlang.analysis.results import TargetResult, evaluate
+from beamlang.engine.solve import Solution, solve
 
 
 @dataclass(frozen=True, slots=True)

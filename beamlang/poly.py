@@ -7,7 +7,7 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from math import gcd
 
-from .exact import Q
+from beamlang.exact import Q
 from typing import Iterable, Sequence
 
 Number = Fraction | int

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.frontend import from_source
+from beamlang.language.frontend import from_source
 from beamlang.pipeline import Analysis, analyse_loaded
 from beamlang.source import Source
 

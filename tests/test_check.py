@@ -132,7 +132,7 @@ def test_shear_is_checked_against_the_materials_own_shear_strength(shear, allowe
 
 
 def test_without_a_shear_strength_the_shear_check_is_von_mises():
-    from beamlang.checks import SQRT3
+    from beamlang.analysis.checks import SQRT3
     from engine_helpers import analyse_text
     a = analyse_text(SHEAR_MEMBER.format(shear=""))
     check = next(c for c in a.checks if c.kind == "shear stress")

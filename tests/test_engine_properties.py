@@ -9,9 +9,9 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from beamlang.model import LineLoad, MomentLoad, PointLoad
-from beamlang.roots import roots_in
+from beamlang.engine.roots import roots_in
 from beamlang.poly import Poly
-from beamlang.statics import resultant
+from beamlang.engine.statics import resultant
 from engine_helpers import analyse_text, member_text, result
 from strategies import members
 

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from hypothesis import HealthCheck, given, settings
 
-from beamlang.build import build
+from beamlang.language.build import build
 from beamlang.cli import main
-from beamlang.fmt import format_document
+from beamlang.language.fmt import format_document
 from beamlang.model import essence
-from beamlang.parse import parse
+from beamlang.language.parse import parse
 from beamlang.source import Source
 from casefiles import EXAMPLES
 from strategies import members

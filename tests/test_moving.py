@@ -6,11 +6,11 @@ from fractions import Fraction
 
 import pytest
 
-from beamlang.extrema import candidates
+from beamlang.engine.extrema import candidates
 from beamlang.model import PointLoad
-from beamlang.moving import Critical, scaled, standing_case, standing_loads
-from beamlang.results import factored_loads
-from beamlang.solve import curves_with
+from beamlang.engine.moving import Critical, scaled, standing_case, standing_loads
+from beamlang.analysis.results import factored_loads
+from beamlang.engine.solve import curves_with
 from engine_helpers import EI, analyse_text, member_text
 
 SIMPLE = ["pin at 0 m", "roller at span"]

@@ -5,9 +5,9 @@ from __future__ import annotations
 
 import pytest
 
-from beamlang import syntax as s
-from beamlang.frontend import load
-from beamlang.parse import grammar_path, parse
+from beamlang.language import syntax as s
+from beamlang.language.frontend import load
+from beamlang.language.parse import grammar_path, parse
 from beamlang.source import Source
 from casefiles import EXAMPLES
 

@@ -8,7 +8,7 @@ import pytest
 
 from beamlang.cli import main
 from beamlang.errors import BeamError
-from beamlang.size import read_catalogue
+from beamlang.tools.size import read_catalogue
 
 CATALOGUES = Path(__file__).resolve().parent.parent / "beamlang" / "catalogues"
 

@@ -237,8 +237,8 @@ def test_moving_load_on_a_hinged_stepped_member_dominates_a_dense_search():
 
 
 def test_diff_names_stretch_hinge_and_slope_limit_changes():
-    from beamlang.diff import input_changes
-    from beamlang.parse import parse
+    from beamlang.tools.diff import input_changes
+    from beamlang.language.parse import parse
     from beamlang.source import Source
     old = _text("12 m", ["rectangle width 100 mm depth 300 mm from 0 m to 6 m",
                          "rectangle width 100 mm depth 250 mm from 6 m to span"],
@@ -321,7 +321,7 @@ def test_stepped_shaft_example_by_unit_load():
 
 def test_slope_checks_are_named_per_support():
     # one check per bearing: JUnit names and the diff's matching must tell them apart
-    from beamlang.diff import _key
+    from beamlang.tools.diff import _key
     text = _text("6 m", ["properties I 8e7 mm^4"], ["pin at 0 m", "roller at 4 m", "roller at span"],
                  ["uniform 5 kN/m down"], ["limit slope at supports 0.003 rad"])
     checks = analyse_text(text).checks

@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import sympy
 
-from beamlang.symbolic import load_formula
+from beamlang.engine.symbolic import load_formula
 from engine_helpers import analyse_text, member_text
 
 L, E, I, P, a, w, C = sympy.symbols("L E I P a w C", positive=True)  # as the engine makes them

@@ -6,11 +6,11 @@ from fractions import Fraction
 
 import pytest
 
-from beamlang.build import build
+from beamlang.language.build import build
 from beamlang.errors import BeamError
-from beamlang.parse import parse
+from beamlang.language.parse import parse
 from beamlang.source import Source
-from beamlang.units import factor_of
+from beamlang.language.units import factor_of
 
 # NIST Special Publication 811 (2008 edition), Appendix B: exact factors.
 # 1 ft = 0.3048 m; 1 in = 0.0254 m; 1 lbf = 4.4482216152605 N; 1 lb = 0.45359237 kg;

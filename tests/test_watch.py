@@ -7,7 +7,7 @@ import threading
 import time
 from pathlib import Path
 
-from beamlang.watch import rebuild, watch_loop
+from beamlang.tools.watch import rebuild, watch_loop
 from casefiles import EXAMPLES
 
 

@@ -3,17 +3,17 @@
 from __future__ import annotations
 
 
-from ..display import CHECK_QUANTITY, convert, number, report_units, show
-from ..extrema import Candidate
-from ..fem import reported
-from ..fmt import statement_text
-from ..model import LineLoad
-from ..pipeline import Analysis
-from ..roots import square_free
-from ..solve import load_solution, prescribed
-from ..symbolic import latex, load_formula, worth_deriving
-from .sections import vector
-from .tex import cell, md, num, plain, poly
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.engine.extrema import Candidate
+from beamlang.engine.fem import reported
+from beamlang.language.fmt import statement_text
+from beamlang.model import LineLoad
+from beamlang.pipeline import Analysis
+from beamlang.engine.roots import square_free
+from beamlang.engine.solve import load_solution, prescribed
+from beamlang.engine.symbolic import latex, load_formula, worth_deriving
+from beamlang.report.sections import vector
+from beamlang.report.tex import cell, md, num, plain, poly
 
 
 def summary(a: Analysis) -> list[str]:
@@ -129,9 +129,9 @@ def _moving(a: Analysis, t, r) -> list[str]:
 
 def _standing_check(a: Analysis, t, r) -> list[str]:
     """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
-    from ..moving import standing_case, standing_loads
-    from ..results import factored_loads
-    from ..solve import curves_with
+    from beamlang.engine.moving import standing_case, standing_loads
+    from beamlang.analysis.results import factored_loads
+    from beamlang.engine.solve import curves_with
     u = report_units(a.loaded.member)
     lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "
              "they stand, with the target's other loads), and the response read at the governing x:", "",
@@ -366,7 +366,7 @@ def _points(a: Analysis, r) -> list[str]:
 
 
 def envelope(a: Analysis, figure: str) -> list[str]:
-    from .figures import envelope_targets
+    from beamlang.report.figures import envelope_targets
     u = report_units(a.loaded.member)
     names = envelope_targets(a)
     rows = []

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..display import convert, number, report_units
-from ..model import LineLoad, MomentLoad, PointLoad, Settlement
-from ..pipeline import Analysis
-from .svgplot import Figure
+from beamlang.analysis.display import convert, number, report_units
+from beamlang.model import LineLoad, MomentLoad, PointLoad, Settlement
+from beamlang.pipeline import Analysis
+from beamlang.report.svgplot import Figure
 
 SAMPLES_PER_SEGMENT = 40
 CURVE = "#1f4e79"
@@ -367,7 +367,7 @@ def figure_names(a: Analysis) -> dict[str, str]:
 
 def all_figures(a: Analysis) -> dict[str, str]:
     """{file name: SVG text} for the whole package, file names sorted and safe."""
-    from .moving_figure import moving_figure
+    from beamlang.report.moving_figure import moving_figure
     out = {}
     for key, file in figure_names(a).items():
         if key == "sign convention":

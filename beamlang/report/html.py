@@ -42,7 +42,7 @@ def _highlight(code: str, lang: str, _attrs) -> str:
     """The appendix (an ```text block of the input file) in colour; other blocks stay plain."""
     if lang != "text":
         return ""
-    from .highlight import highlight_beam
+    from beamlang.report.highlight import highlight_beam
     return f'<pre class="beam-code"><code>{highlight_beam(code)}</code></pre>\n'
 
 
@@ -63,7 +63,7 @@ def member_html(markdown: str, title: str, figures: dict[str, str]) -> str:
 
 
 def _code_css() -> str:
-    from .highlight import css
+    from beamlang.report.highlight import css
     return css() + "\n"
 
 

@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
-from ..pipeline import Analysis
-from . import analysis_md as results
-from . import sections
+from beamlang.pipeline import Analysis
+from beamlang.report import analysis_md as results
+from beamlang.report import sections
 
 
 def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | None = None) -> str:

@@ -8,8 +8,8 @@ import shutil
 import tempfile
 from pathlib import Path
 
-from ..jsonout import member_json
-from ..pipeline import Analysis
+from beamlang.report.jsonout import member_json
+from beamlang.pipeline import Analysis
 
 RESERVED = {"CON", "PRN", "AUX", "NUL", *(f"COM{i}" for i in range(1, 10)), *(f"LPT{i}" for i in range(1, 10))}
 
@@ -22,9 +22,9 @@ def folder_name(mark: str) -> str:
 
 def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page embeds them)."""
-    from .figures import all_figures, figure_names
-    from .html import member_html
-    from .markdown import member_markdown
+    from beamlang.report.figures import all_figures, figure_names
+    from beamlang.report.html import member_html
+    from beamlang.report.markdown import member_markdown
     mark = folder_name(a.loaded.member.mark)
     svgs = all_figures(a)
     names = {key: f"figures/{file}" for key, file in figure_names(a).items()}

@@ -6,14 +6,14 @@ import dataclasses
 import re
 from fractions import Fraction
 
-from .. import __version__
-from .. import syntax as s
-from ..display import convert, number, report_units
-from ..pipeline import Analysis
-from ..sections import FORMULAS
-from ..units import SHORTHANDS, factor_of
-from .provenance import versions_text
-from .tex import cell, md, num, plain
+from beamlang import __version__
+from beamlang.language import syntax as s
+from beamlang.analysis.display import convert, number, report_units
+from beamlang.pipeline import Analysis
+from beamlang.language.sections import FORMULAS
+from beamlang.language.units import SHORTHANDS, factor_of
+from beamlang.report.provenance import versions_text
+from beamlang.report.tex import cell, md, num, plain
 
 US_TOKENS = ("ft", "in", "lbf", "kip", "psi", "ksi", "lb")
 NIST = ("NIST SP 811 (2008), Appendix B: 1 ft = 0.3048 m, 1 in = 0.0254 m, 1 lbf = 4.4482216152605 N, "
@@ -64,7 +64,7 @@ ANGLE = "a fraction of π rad (a degree is π/180 rad); π carried as a 50-digit
 
 def inputs(a: Analysis) -> list[str]:
     """Every number as written, its exact SI value, and every conversion factor used."""
-    from ..fmt import statement_text
+    from beamlang.language.fmt import statement_text
     rows, units = [], set()
     for line, st in a.loaded.document.statements:
         for k, q in enumerate(_quantities(st)):
@@ -91,7 +91,7 @@ def inputs(a: Analysis) -> list[str]:
 
 
 def signs(a: Analysis, figure: str) -> list[str]:
-    from ..fmt import statement_text
+    from beamlang.language.fmt import statement_text
     rows = []
     for line, st in a.loaded.document.statements:
         direction = getattr(st, "direction", None)

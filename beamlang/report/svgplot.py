@@ -11,7 +11,7 @@ import math
 from dataclasses import dataclass
 from xml.sax.saxutils import escape
 
-from .ticks import limits, nice_ticks, tick_labels
+from beamlang.report.ticks import limits, nice_ticks, tick_labels
 
 FONT = "DejaVu Sans, Verdana, Arial, Helvetica, sans-serif"
 GLYPH = 0.6  # estimated average advance of a character, as a fraction of the font size (layout only)

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..display import number
-from ..poly import Poly
+from beamlang.analysis.display import number
+from beamlang.poly import Poly
 
 DIGITS = 6  # significant digits shown for computed values (all arithmetic is exact)
 _MD_SPECIAL = set("\\`*_{}[]()#+-.!|<>$~&")

@@ -68,7 +68,7 @@ def stage_line(path: Path) -> str:
     """The stages of one build in this process, first call (imports included) then a second, warm one."""
     import json
 
-    from beamlang.jsonout import member_json
+    from beamlang.report.jsonout import member_json
     from beamlang.pipeline import analyse
     from beamlang.report.figures import all_figures, figure_names
     from beamlang.report.html import member_html

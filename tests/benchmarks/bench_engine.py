@@ -18,11 +18,11 @@ sys.path.insert(0, str(HERE.parent.parent))
 
 from engine_helpers import member_text  # noqa: E402
 
-from beamlang.build import build  # noqa: E402
-from beamlang.checks import run_checks  # noqa: E402
-from beamlang.parse import parse  # noqa: E402
-from beamlang.results import evaluate  # noqa: E402
-from beamlang.solve import solve  # noqa: E402
+from beamlang.language.build import build  # noqa: E402
+from beamlang.analysis.checks import run_checks  # noqa: E402
+from beamlang.language.parse import parse  # noqa: E402
+from beamlang.analysis.results import evaluate  # noqa: E402
+from beamlang.engine.solve import solve  # noqa: E402
 from beamlang.source import Source  # noqa: E402
 
 SIMPLE = member_text("6 m", ["pin at 0 m", "roller at span"],

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import xml.etree.ElementTree as ET
 
-from .display import CHECK_QUANTITY, report_units, show
-from .errors import BeamError
-from .pipeline import Analysis
+from beamlang.analysis.display import CHECK_QUANTITY, report_units, show
+from beamlang.errors import BeamError
+from beamlang.pipeline import Analysis
 
 
 def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:

@@ -5,8 +5,8 @@ from __future__ import annotations
 import json
 from fractions import Fraction
 
-from .diff import MemberDiff
-from .display import show
+from beamlang.tools.diff import MemberDiff
+from beamlang.analysis.display import show
 
 SCHEMA = "beamlang.diff/1"
 

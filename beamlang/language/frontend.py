@@ -5,12 +5,12 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
-from .build import build
-from .errors import BeamError, Diagnostic
-from .model import Member
-from .parse import parse, read_source
-from .source import Source, Span
-from .syntax import Document
+from beamlang.language.build import build
+from beamlang.errors import BeamError, Diagnostic
+from beamlang.model import Member
+from beamlang.language.parse import parse, read_source
+from beamlang.source import Source, Span
+from beamlang.language.syntax import Document
 
 
 @dataclass(frozen=True, slots=True)
@@ -62,7 +62,7 @@ def check_unique_marks(loaded: list[Loaded]) -> None:
 
 
 def _mark_span(item: Loaded) -> Span:
-    from .syntax import Member as MemberStmt
+    from beamlang.language.syntax import Member as MemberStmt
     for _, st in item.document.statements:
         if isinstance(st, MemberStmt):
             return st.mark.span

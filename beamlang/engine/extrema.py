@@ -5,8 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .poly import Piecewise, Poly
-from .roots import Root, roots_in
+from beamlang.poly import Piecewise, Poly
+from beamlang.engine.roots import Root, roots_in
 
 SAME = Fraction(1, 10**12)  # two maxima within this relative difference are the same (symmetry)
 

@@ -5,8 +5,8 @@ from __future__ import annotations
 import subprocess
 from pathlib import Path
 
-from .errors import BeamError, Diagnostic
-from .source import Source, Span
+from beamlang.errors import BeamError, Diagnostic
+from beamlang.source import Source, Span
 
 
 def _git(*args: str) -> str:

@@ -8,8 +8,8 @@ from fractions import Fraction
 
 import numpy as np
 
-from .model import LineLoad, Member, MomentLoad, PointLoad, Settlement
-from .statics import intensity
+from beamlang.model import LineLoad, Member, MomentLoad, PointLoad, Settlement
+from beamlang.engine.statics import intensity
 
 
 MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would ruin the float solve

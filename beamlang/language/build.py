@@ -5,14 +5,14 @@ from __future__ import annotations
 import difflib
 from fractions import Fraction
 
-from . import model as m
-from . import syntax as s
-from .errors import Collector
-from .exact import plain
-from .sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
-from .source import Span
-from .stability import Mechanism, components, keep
-from .units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
+from beamlang import model as m
+from beamlang.language import syntax as s
+from beamlang.errors import Collector
+from beamlang.exact import plain
+from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
+from beamlang.source import Span
+from beamlang.engine.stability import Mechanism, components, keep
+from beamlang.language.units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 
 MIN_SPAN = Fraction(1, 1000)  # m
 FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
@@ -627,7 +627,7 @@ def _sign(direction: str) -> int:
 
 
 def _hint_for(q: s.Quantity, kind: str, hint: str) -> str | None:
-    from .units import factor_of
+    from beamlang.language.units import factor_of
     f = factor_of(q.unit)
     return hint if f is not None and f.kind == kind else None
 

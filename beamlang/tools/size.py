@@ -11,12 +11,12 @@ from dataclasses import dataclass
 from fractions import Fraction
 from pathlib import Path
 
-from . import syntax as s
-from .errors import BeamError, Diagnostic
-from .frontend import Loaded, from_source
-from .pipeline import analyse_loaded
-from .source import Source, Span
-from .units import STANDARD_GRAVITY
+from beamlang.language import syntax as s
+from beamlang.errors import BeamError, Diagnostic
+from beamlang.language.frontend import Loaded, from_source
+from beamlang.pipeline import analyse_loaded
+from beamlang.source import Source, Span
+from beamlang.language.units import STANDARD_GRAVITY
 
 
 @dataclass(frozen=True, slots=True)
@@ -54,7 +54,7 @@ def read_catalogue(path: Path) -> list[tuple[int, str, str]]:
     return rows
 
 
-SHIPPED = Path(__file__).resolve().parent / "catalogues"
+SHIPPED = Path(__file__).resolve().parents[1] / "catalogues"
 
 
 def catalogue_of(item: Loaded) -> Path:

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .exact import Q
+from beamlang.exact import Q
 
 # pi to 40 significant digits: round and tube properties are irrational, so they carry this
 # rational value (relative error below 1e-39, far beneath every printed digit).

@@ -5,10 +5,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from . import syntax as s
-from .fmt import statement_text
-from .model import essence
-from .pipeline import Analysis
+from beamlang.language import syntax as s
+from beamlang.language.fmt import statement_text
+from beamlang.model import essence
+from beamlang.pipeline import Analysis
 
 THRESHOLD = 0.05  # a check whose ratio moves by more than this (relative) is flagged
 
@@ -87,7 +87,7 @@ class MemberDiff:
 
 def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshold: float = THRESHOLD) -> MemberDiff:
     """Compare two analyses of one member (either may be missing: added or removed files)."""
-    from .display import report_units
+    from beamlang.analysis.display import report_units
     if old is None or new is None:
         only = new or old
         statuses = tuple(_status(_key(c), None if new else c, c if new else None) for c in only.checks)

@@ -5,11 +5,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .exact import plain
-from .extrema import SAME
-from .model import Member
-from .results import TargetResult
-from .source import Span
+from beamlang.exact import plain
+from beamlang.engine.extrema import SAME
+from beamlang.model import Member
+from beamlang.analysis.results import TargetResult
+from beamlang.source import Span
 
 # sqrt(3) to 40 significant digits, for the shear yield fy/sqrt(3) (von Mises) shown in reports;
 # the pass/fail decision itself is exact: 3 tau^2 <= fy^2.

@@ -6,12 +6,12 @@ from dataclasses import dataclass
 from fractions import Fraction
 from typing import TYPE_CHECKING
 
-from .extrema import Candidate, Located, candidates, derivative_of, largest, largest_abs
-from .solve import Solution, Target
-from .statics import region_bounds
+from beamlang.engine.extrema import Candidate, Located, candidates, derivative_of, largest, largest_abs
+from beamlang.engine.solve import Solution, Target
+from beamlang.engine.statics import region_bounds
 
 if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
-    from .moving import Critical, Envelope
+    from beamlang.engine.moving import Critical, Envelope
 
 SIGN_CONVENTION = ("x from the left end; deflection, loads and reaction forces positive up; bending moment "
                    "positive sagging; slope dv/dx in radians, positive counterclockwise; reaction moments "
@@ -122,7 +122,7 @@ def support_slope(theta, x: Fraction) -> Fraction:
 
 def _moving_target(sol: Solution, t: Target) -> TargetResult:
     """The envelope over every position of the target's moving group, in the same shape as a static result."""
-    from .moving import envelope
+    from beamlang.engine.moving import envelope
     m = sol.member
     env = envelope(sol, t, factored_loads(sol, t))
     picked: list[tuple[str, object]] = []
@@ -161,9 +161,9 @@ def _bigger(a, b):
 
 def _moving_cross_check(sol: Solution, t: Target, env, crit) -> float:
     """The finite-element cross-check with the group standing where it gives the governing deflection."""
-    from .fem import relative_difference
-    from .moving import standing_case
-    from .solve import curves_with
+    from beamlang.engine.fem import relative_difference
+    from beamlang.engine.moving import standing_case
+    from beamlang.engine.solve import curves_with
     loads = standing_case(env, crit, factored_loads(sol, t))
     curves = curves_with(sol, loads)
     return relative_difference(sol.member, curves.v.xs, [(Fraction(1), ld) for ld in loads], curves.v, curves.theta)
@@ -240,7 +240,7 @@ def factored_loads(sol: Solution, t: Target) -> list[tuple[Fraction, object]]:
 def _cross_check(sol: Solution, t: Target, fe: dict) -> float:
     """The finite-element model of every case; a combination's is the factored sum of its cases' element
     solutions (the element model is linear too, so solving it again would check nothing new)."""
-    from .fem import fe_nodes, nodal_solution, relative_difference
+    from beamlang.engine.fem import fe_nodes, nodal_solution, relative_difference
     if t.kind == "combination" and all(name in fe for _, name in t.terms):
         v = sum(float(f) * fe[name][0] for f, name in t.terms)
         theta = sum(float(f) * fe[name][1] for f, name in t.terms)

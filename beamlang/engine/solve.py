@@ -5,12 +5,12 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .errors import BeamError, Diagnostic
-from .exact import Q
-from .model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
-from .poly import Piecewise, Poly
-from .stability import Mechanism, Restraint, components, equilibrium_column, keep
-from .statics import breakpoints, moment_left, resultant, shear_and_moment
+from beamlang.errors import BeamError, Diagnostic
+from beamlang.exact import Q
+from beamlang.model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
+from beamlang.poly import Piecewise, Poly
+from beamlang.engine.stability import Mechanism, Restraint, components, equilibrium_column, keep
+from beamlang.engine.statics import breakpoints, moment_left, resultant, shear_and_moment
 
 
 @dataclass(frozen=True, slots=True)

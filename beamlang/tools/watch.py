@@ -7,16 +7,16 @@ import threading
 from pathlib import Path
 from typing import Callable
 
-from .errors import BeamError
+from beamlang.errors import BeamError
 
 
 def rebuild(paths: list[Path], out: Path, previous: dict[str, dict[str, bool]]) -> list[str]:
     """Build each path; one summary line per member, naming every check whose status changed.
 
     `previous` maps a path to {check: passed} from the last build and is updated in place."""
-    from .frontend import load
-    from .pipeline import analyse_loaded
-    from .report.package import write_package
+    from beamlang.language.frontend import load
+    from beamlang.pipeline import analyse_loaded
+    from beamlang.report.package import write_package
     lines = []
     for path in paths:
         key = path.as_posix()
@@ -41,7 +41,7 @@ def watch_loop(targets: list[str], out: Path, stop: threading.Event | None = Non
                say: Callable[[str], None] = lambda s: print(s, file=sys.stderr, flush=True)) -> None:
     """Build everything once, then rebuild changed members until interrupted (or `stop` is set)."""
     from watchfiles import Change, watch
-    from .frontend import expand
+    from beamlang.language.frontend import expand
     previous: dict[str, dict[str, bool]] = {}
     for line in rebuild(expand(targets), out, previous):
         say(line)

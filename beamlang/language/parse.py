@@ -9,9 +9,9 @@ from pathlib import Path
 from lark import Lark, Token, Transformer, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
 
-from . import syntax as s
-from .errors import BeamError, Collector
-from .source import Source, Span
+from beamlang.language import syntax as s
+from beamlang.errors import BeamError, Collector
+from beamlang.source import Source, Span
 
 KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
             "material", "section", "support", "hinge", "case", "point", "uniform", "linear", "moment",
@@ -31,8 +31,8 @@ TERMINAL_WORDS = {
 
 def grammar_path() -> Path:
     """Locate grammar/beam.lark: inside the installed package, or beside it in a source tree."""
-    here = Path(__file__).resolve().parent
-    for candidate in (here / "grammar" / "beam.lark", here.parent / "grammar" / "beam.lark"):
+    package = Path(__file__).resolve().parents[1]
+    for candidate in (package / "grammar" / "beam.lark", package.parent / "grammar" / "beam.lark"):
         if candidate.is_file():
             return candidate
     raise RuntimeError("internal error: grammar/beam.lark is missing from this installation")
@@ -380,5 +380,5 @@ def _file_diag(name: str, message: str):
 
 
 def _diag(span: Span, message: str, hint: str | None):
-    from .errors import Diagnostic
+    from beamlang.errors import Diagnostic
     return Diagnostic(span, message, hint)

@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
-from . import syntax as s
-from .build import FIELD_ORDER
-from .sections import SHAPE_DIMENSIONS
+from beamlang.language import syntax as s
+from beamlang.language.build import FIELD_ORDER
+from beamlang.language.sections import SHAPE_DIMENSIONS
 
 MATERIAL_ORDER = ("E", "yield", "shear", "density")
 INDENT = "  "

@@ -8,9 +8,9 @@ from dataclasses import dataclass
 from fractions import Fraction
 from functools import lru_cache
 
-from .errors import Diagnostic
-from .exact import Q
-from .syntax import Quantity
+from beamlang.errors import Diagnostic
+from beamlang.exact import Q
+from beamlang.language.syntax import Quantity
 
 KINDS = {
     "length": "[length]",

@@ -2,8 +2,8 @@
 
 from __future__ import annotations
 
-from .display import CHECK_QUANTITY, convert, number, report_units, show
-from .pipeline import Analysis
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.pipeline import Analysis
 
 
 def member_table(a: Analysis) -> str:

@@ -6,8 +6,8 @@ import math
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .exact import Q, fraction
-from .poly import Poly
+from beamlang.exact import Q, fraction
+from beamlang.poly import Poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
 

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from .exact import Q
-from .model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
-from .poly import Piecewise, Poly
+from beamlang.exact import Q
+from beamlang.model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
+from beamlang.poly import Piecewise, Poly
 
 
 def breakpoints(member: Member) -> tuple[Fraction, ...]:

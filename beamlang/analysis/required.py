@@ -5,8 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .checks import Check
-from .model import Member, Settlement
+from beamlang.analysis.checks import Check
+from beamlang.model import Member, Settlement
 
 
 @dataclass(frozen=True, slots=True)

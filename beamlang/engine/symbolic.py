@@ -13,7 +13,7 @@ import dataclasses
 from dataclasses import dataclass
 from fractions import Fraction
 
-from .model import Load, Member, MomentLoad, PointLoad, Settlement
+from beamlang.model import Load, Member, MomentLoad, PointLoad, Settlement
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -174,7 +174,7 @@ def latex(expr) -> str:
 def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fraction, object]], dict[str, Fraction]]:
     """[(segment start, end, v(x) as a sympy expression)] for one load alone, and the symbols' values."""
     import sympy
-    from .solve import solve
+    from beamlang.engine.solve import solve
     m, _, names = symbolic_member(member, load)
     sol = solve(m)
     x = sympy.Symbol("x")

@@ -23,13 +23,13 @@ from fractions import Fraction
 from functools import lru_cache
 from math import comb
 
-from .exact import Q
-from .extrema import candidates, derivative_of
-from .model import LineLoad, Load, MomentLoad, MovingLoad, PointLoad, Settlement
-from .poly import Poly
-from .roots import roots_in
-from .solve import Curves, Solution, Target, curves_with
-from .statics import region_bounds
+from beamlang.exact import Q
+from beamlang.engine.extrema import candidates, derivative_of
+from beamlang.model import LineLoad, Load, MomentLoad, MovingLoad, PointLoad, Settlement
+from beamlang.poly import Poly
+from beamlang.engine.roots import roots_in
+from beamlang.engine.solve import Curves, Solution, Target, curves_with
+from beamlang.engine.statics import region_bounds
 
 QUANTITIES = ("v", "theta", "M", "V")
 Bi = dict  # {(i, j): c}: sum of c x^i p^j

@@ -1,0 +1,1 @@
+"""Solution -> results, checks, required section, and the display units they are shown in."""

@@ -1,0 +1,1 @@
+"""Model -> exact solution: polynomials' roots, statics, force method, extrema, moving loads, formulas, FE cross-check."""

@@ -1,0 +1,1 @@
+"""Text -> syntax -> validated model in exact SI: parse, statement families, units at the edge, fmt."""

@@ -1,0 +1,1 @@
+"""Around a member: revision diff, git access, JUnit, watch, catalogue sizing."""
