@@ -1,0 +1,229 @@
+"""Moving loads: a solved member and a case or combination with a travelling force group -> the exact envelope.
+
+A unit upward force at xi gives, at x, the deflection G(x, xi); by Maxwell-Betti G(x, xi) = G(xi, x), so the
+deflection influence line of a point x is the member's own deflection under a unit force at x. On every cell
+(x in one segment, xi in one segment, x on one side of xi) the kernels of v, theta, M and V are polynomials of
+degree three or less in each variable: they are interpolated exactly from the engine's solutions for unit
+forces at four places and confirmed at a fifth.
+
+With the group's first force at p (the others at p + d_i), a response is
+    f(x, p) = static(x) + factor * sum_i F_i K(x, p + d_i),
+a polynomial in (x, p) on each cell of the (x, p) plane that the fixed breakpoints, the travel limits and
+the lines x = p + d_i cut out. Its largest and smallest values over the whole plane are found without
+sampling: every cell's interior critical points (the resultant in x of df/dx and df/dp, whose real roots
+are isolated exactly), every edge's critical points (x fixed: influence lines; x = p + d_i: under a force;
+p fixed: the group standing still, solved and searched like any static case), and every corner.
+"""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from beamlang.engine.extrema import candidates, derivative_of
+from beamlang.engine.moving.bivariate import (
+    Bi,
+    _at_p,
+    _at_x,
+    _d,
+    _in_x,
+    _on_diagonal,
+    _resultant,
+    _value,
+)
+from beamlang.engine.moving.bounds import _Best, _bound, _line_bound
+from beamlang.engine.moving.cells import (
+    _Cell,
+    _cell_at,
+    _cells,
+    _events,
+    _on_segments,
+    _wheels,
+    _x_range,
+    directions,
+    group_offsets,
+)
+from beamlang.engine.moving.found import Critical, Envelope
+from beamlang.engine.moving.kernels import (
+    QUANTITIES,
+    _cell_poly,
+    _curve,
+    _reaction_line,
+    kernels_for,
+)
+from beamlang.engine.roots import roots_in
+from beamlang.engine.solve import Curves, Solution, Target, curves_with
+from beamlang.engine.statics import region_bounds
+from beamlang.exact import Q
+from beamlang.model import LineLoad, Load, MomentLoad, PointLoad, Settlement
+from beamlang.poly import Poly
+
+
+def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, Load]]) -> Envelope:
+    """The envelope of `target`, whose moving load is found through the member; `static_loads` are its
+    factored static loads (for the group-standing configurations)."""
+    member = sol.member
+    factor, load = member.moving(target.name)
+    kernels = kernels_for(sol, load)
+    found: dict[str, list[Critical]] = {q: [] for q in QUANTITIES}
+    fixed_x = tuple(sorted({sp.x for sp in member.supports} | {r.x for r in member.report_points}))
+    at_fixed: dict[tuple[str, Fraction], list[Critical]] = {}
+    cells = 0
+    inner: list = []  # every cell's interior, searched once the edges have set the values to beat
+    stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
+    best = _Best(list(region_bounds(member)), stretches)
+    static = tuple(scaled(ld, k) for k, ld in static_loads)
+    for rev in directions(load):
+        offsets = group_offsets(load, rev)
+        events = _events(sol.xs, offsets, load)
+        for p in events:  # the group standing at every event: a static case, searched exactly
+            wheels = _wheels(load, offsets, p)
+            curves = curves_with(sol, static + tuple(PointLoad(x, factor * F, load.span) for x, F in wheels))
+            _standing(found, curves, member.length, p, rev, best)
+            standing = [((q, x0), Critical(_curve(curves, q).at(x0), x0, p, rev, "group standing", True))
+                        for x0 in fixed_x for q in ("v", "theta", "M")]
+            standing += [((kind, j), Critical(value, member.supports[j].x, p, rev, "group standing", True))
+                         for j, reaction in enumerate(curves.reactions) for kind, value in zip(("R", "Rm"), reaction)]
+            for key, c in standing:
+                at_fixed.setdefault(key, []).append(c)
+                best.note(key, c)
+        for pa, pb in zip(events, events[1:]):
+            on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
+            for cell in _cells(sol.xs, offsets, on):
+                cells += 1
+                for q in QUANTITIES:
+                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                    found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
+                    inner.append((q, f, offsets, cell, pa, pb, rev))
+            for x0 in fixed_x:  # influence lines of the fixed points: one polynomial in p per interval
+                cell = _cell_at(sol.xs, offsets, on, x0)
+                for q in ("v", "theta", "M"):
+                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                    at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
+                                                  best, ((q, x0), q))
+            for j, sp in enumerate(member.supports):
+                for kind in ("R", "Rm"):
+                    g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
+                    at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
+                                                    ((kind, j),))
+    reactions = tuple(_pair(at_fixed[("R", j)]) for j in range(len(member.supports)))
+    moments = tuple(_pair(at_fixed[("Rm", j)]) for j in range(len(member.supports)))
+    slopes = tuple(_largest_abs(at_fixed[("theta", sp.x)]) for sp in member.supports)
+    points = tuple(_pair(at_fixed[("v", r.x)]) for r in member.report_points)
+    for (q, x0), items in at_fixed.items():  # fixed points belong to the plane search too
+        if q in found:
+            found[q] += items
+    searched = _interiors(found, inner, sol.xs, best)
+    return Envelope(load, factor, tuple((q, tuple(found[q])) for q in QUANTITIES), reactions, moments, slopes,
+                    points, cells, searched)
+
+
+def standing_loads(env: Envelope, crit: Critical) -> list[PointLoad]:
+    """The group's forces (factored) as point loads with the group standing where `crit` was found."""
+    offsets = group_offsets(env.load, crit.reversed)
+    return [PointLoad(x, env.factor * F, env.load.span) for x, F in _wheels(env.load, offsets, crit.position)]
+
+
+def standing_case(env: Envelope, crit: Critical, static_loads: list[tuple[Fraction, Load]]) -> tuple[Load, ...]:
+    """Every load, factored, of the target with the group standing where `crit` was found: a static case."""
+    return tuple(scaled(ld, k) for k, ld in static_loads) + tuple(standing_loads(env, crit))
+
+
+def _largest_abs(items) -> Critical | None:
+    return max(items, key=lambda c: abs(c.value), default=None)
+
+
+def _pair(items) -> tuple[Critical | None, Critical | None]:
+    return max(items, key=lambda c: c.value, default=None), min(items, key=lambda c: c.value, default=None)
+
+
+def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
+    for q in QUANTITIES:
+        c = _curve(curves, q)
+        d = curves.theta if q == "v" else (curves.V if q == "M" else derivative_of(c))
+        for cand in candidates(c, d, Q(0), L):
+            crit = Critical(cand.value, cand.x, p, rev, "group standing", cand.root is None)
+            found[q].append(crit)
+            best.note(q, crit)
+
+
+def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
+    """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
+    response along a line of the plane; the interior only where its bound could beat what `best` holds."""
+    out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
+    if g.degree >= 2 and best.wanted(keys, *_line_bound(g, pa, pb), x_mid):
+        for r in roots_in(g.derivative(), pa, pb):
+            out.append(Critical(g(r.x), x_of(r.x), r.x, rev, how, r.exact is not None))
+    for c in out:
+        for key in keys:
+            best.note(key, c)
+    return out
+
+
+def _cell_edges(f: Bi, q: str, xs, offsets, cell: _Cell, pa, pb, rev, best: "_Best") -> list[Critical]:
+    """The edges of one cell: under a force (x = p + d) and at a fixed x."""
+    out: list[Critical] = []
+    mid = (xs[cell.s] + xs[cell.s + 1]) / 2
+    for i in (cell.left, cell.right):
+        if i is not None:
+            out += _on_line(_on_diagonal(f, offsets[i]), lambda p, d=offsets[i]: p + d, pa, pb, rev,
+                            "under a force", best, (q,), mid)
+    for i, x0 in ((cell.left, xs[cell.s]), (cell.right, xs[cell.s + 1])):
+        if i is None:
+            out += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line", best, (q,), mid)
+    return out
+
+
+def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -> int:
+    """Search the interior of every cell whose float bound (with a safety margin) could beat the values
+    already found: the largest and smallest of v and M, the largest |theta| and |V|, |v| in each span."""
+    searched = 0
+    for q, f, offsets, cell, pa, pb, rev in inner:
+        mid = (xs[cell.s] + xs[cell.s + 1]) / 2
+        if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), mid) for n in (1, 4)):
+            continue
+        searched += 1
+        for c in _cell_interior(f, xs, offsets, cell, pa, pb, rev):
+            found[q].append(c)
+            best.note(q, c)
+    return searched
+
+
+def _cell_interior(f: Bi, xs, offsets, cell: _Cell, pa, pb, rev) -> list[Critical]:
+    """Interior critical points of one cell: df/dx = df/dp = 0 through the resultant in x."""
+    out: list[Critical] = []
+    fx, fp = _d(f, 0), _d(f, 1)
+    if not fx or not fp or max(i for i, _ in fx) == 0:
+        return out  # no interior critical point: f is free of x or of p, or flat in x along whole lines
+    res = _resultant(_in_x(fx), _in_x(fp))
+    if res:
+        for r in roots_in(res, pa, pb):
+            p = r.x if r.exact is not None else Q(float(r.x))
+            lo, hi = _x_range(xs, offsets, cell, p)
+            for rx in roots_in(_at_p(fx, p), lo, hi):
+                x = rx.x if rx.exact is not None else Q(float(rx.x))
+                out.append(Critical(_value(f, x, p), x, p, rev, "interior", r.exact is not None and rx.exact is not None))
+        return out
+    swapped = {(j, i): c for (i, j), c in f.items()}  # df/dx and df/dp share a factor in x: eliminate p instead
+    sx, sp = _d(swapped, 1), _d(swapped, 0)
+    res = _resultant(_in_x(sp), _in_x(sx)) if sp and max(i for i, _ in sp) else Poly()
+    for r in roots_in(res, xs[cell.s], xs[cell.s + 1]) if res else ():
+        x = r.x if r.exact is not None else Q(float(r.x))
+        for rp in roots_in(_at_x(fp, x), pa, pb):
+            p = rp.x if rp.exact is not None else Q(float(rp.x))
+            lo, hi = _x_range(xs, offsets, cell, p)
+            if lo <= x <= hi:
+                out.append(Critical(_value(f, x, p), x, p, rev, "interior", False))
+    return out  # both resultants vanish: a curve of critical points, along which f is constant (edges reach it)
+
+
+def scaled(load: Load, k: Fraction) -> Load:
+    """A static load times a factor."""
+    if isinstance(load, PointLoad):
+        return PointLoad(load.x, k * load.force, load.span)
+    if isinstance(load, MomentLoad):
+        return MomentLoad(load.x, k * load.moment, load.span)
+    if isinstance(load, LineLoad):
+        return LineLoad(load.x1, load.x2, k * load.w1, k * load.w2, load.origin, load.span)
+    if isinstance(load, Settlement):
+        return Settlement(load.x, k * load.movement, load.span)
+    raise TypeError(load)
