@@ -9,7 +9,7 @@ from fractions import Fraction
 import pytest
 from hypothesis import HealthCheck, given, settings
 
-from beamlang.report import figures
+from beamlang.report import drawing, figures
 from beamlang.report.svgplot import Figure
 from beamlang.report.ticks import nice_ticks, tick_labels
 from engine_helpers import analyse_text, member_text
@@ -111,7 +111,7 @@ def test_figures_are_the_same_text_every_time():
 
 def test_sampled_points_are_exact_values_of_the_curve():
     a = _member()
-    xs, ys = figures._sample(a.solution.target("live").curves.M, "kN*m")
+    xs, ys = drawing.sample(a.solution.target("live").curves.M, "kN*m")
     for x, y in zip(xs, ys):
         assert y == pytest.approx(float(Fraction(10) * x * (6 - x) / 2), rel=1e-12, abs=1e-12)
 

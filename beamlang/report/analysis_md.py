@@ -2,16 +2,21 @@
 
 from __future__ import annotations
 
-
-from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.analysis.display import (
+    CHECK_QUANTITY,
+    convert,
+    number,
+    report_units,
+    show,
+)
 from beamlang.engine.extrema import Candidate
 from beamlang.engine.fem import reported
-from beamlang.language.fmt import statement_text
-from beamlang.model import LineLoad
-from beamlang.pipeline import Analysis
 from beamlang.engine.roots import square_free
 from beamlang.engine.solve import load_solution, prescribed
 from beamlang.engine.symbolic import latex, load_formula, worth_deriving
+from beamlang.language.fmt import statement_text
+from beamlang.model import LineLoad
+from beamlang.pipeline import Analysis
 from beamlang.report.sections import vector
 from beamlang.report.tex import cell, md, num, plain, poly
 
@@ -129,8 +134,8 @@ def _moving(a: Analysis, t, r) -> list[str]:
 
 def _standing_check(a: Analysis, t, r) -> list[str]:
     """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
-    from beamlang.engine.moving import standing_case, standing_loads
     from beamlang.analysis.results import factored_loads
+    from beamlang.engine.moving import standing_case, standing_loads
     from beamlang.engine.solve import curves_with
     u = report_units(a.loaded.member)
     lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "

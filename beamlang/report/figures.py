@@ -7,13 +7,21 @@ from fractions import Fraction
 from beamlang.analysis.display import convert, number, report_units
 from beamlang.model import LineLoad, MomentLoad, PointLoad, Settlement
 from beamlang.pipeline import Analysis
+from beamlang.report.drawing import (
+    CURVE,
+    LABEL_ROOM,
+    LOAD,
+    MARK,
+    changes,
+    limit_lines,
+    mark_changes_and_hinges,
+    mark_extreme,
+    sample,
+)
+from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
 
-SAMPLES_PER_SEGMENT = 40
-CURVE = "#1f4e79"
-MARK = "#b22222"
 POINTS_PER_LEVEL = 30.0  # height of one unit of the loads panel (a level is 0.9): labels keep their room
-LABEL_ROOM = 0.16  # y margin of a curve's panel: the labels of its marked extremes fit inside the frame
 
 
 def target_figure(a: Analysis, name: str) -> str:
@@ -33,7 +41,7 @@ def target_figure(a: Analysis, name: str) -> str:
         curves = [(curve, quantity, label, None) for curve, quantity, label, _ in curves]
     for curve, quantity, label, marks in curves:
         ax = fig.panel(100.0, LABEL_ROOM)
-        xs, ys = _sample(curve, u[quantity])
+        xs, ys = sample(curve, u[quantity])
         px = [float(convert(x, u["length"])) for x in xs]
         ax.band(px, ys, 0, CURVE, 0.12)
         ax.line(px, ys, color=CURVE, width=1.2)
@@ -49,45 +57,10 @@ def target_figure(a: Analysis, name: str) -> str:
     return fig.svg()
 
 
-def mark_extreme(ax, loc, u: dict, quantity: str, L: float) -> None:
-    """A dot at an exact extreme and its value and place beside it, reaching inwards near the right end."""
-    x, y = float(convert(loc.x, u["length"])), float(convert(loc.value, u[quantity]))
-    ax.dot(x, y, 3.5, MARK)
-    right = x > 0.6 * L  # keep the label inside the axes
-    ax.text(x, y, f"{number(y)} at {number(x)} {u['length']}", 7.0, MARK, "end" if right else "start",
-            dx=-4 if right else 4, dy=4 if y >= 0 else -10)
 
 
-def limit_lines(ax, m, r, u: dict) -> None:
-    """Each deflection limit on this target as a dashed line over each span and overhang, at the allowed value on
-    the side the member deflects there (the check compares the largest deflection either way)."""
-    L = float(convert(m.length, u["length"]))
-    for limit in (limit for limit in m.limits if limit.target == r.name):
-        for region in r.regions:
-            allowed = limit.value if limit.value is not None else region.basis / limit.divisor
-            side = -1 if region.max_abs is None or region.max_abs.value <= 0 else 1
-            y = float(convert(side * allowed, u["deflection"]))
-            x1, x2 = (float(convert(v, u["length"])) for v in (region.lo, region.hi))
-            ax.line([x1, x2], [y, y], color=MARK, width=0.8, dash="dashed")
-            what = "limit" if limit.value is not None else f"span/{number(limit.divisor)}"
-            if region.kind != "span" and limit.value is None:
-                what = f"2 x {region.kind}/{number(limit.divisor)}"
-            short = x2 - x1 < 0.3 * L  # a short overhang: the label reaches inwards from the member's end
-            x, anchor = ((x2, "end") if short and x2 >= L else (x1, "start") if short and x1 <= 0
-                         else ((x1 + x2) / 2, "middle"))
-            ax.text(x, y, f"{what}: {number(abs(y))} {u['deflection']}", 6.0, MARK, anchor, dy=3 if side > 0 else -8)
 
 
-def _sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
-    """Points on every segment, both sides of each breakpoint (jumps stay vertical)."""
-    xs, ys = [], []
-    for k, p in enumerate(curve.pieces):
-        a, b = curve.xs[k], curve.xs[k + 1]
-        for i in range(SAMPLES_PER_SEGMENT + 1):
-            x = a + (b - a) * Fraction(i, SAMPLES_PER_SEGMENT)
-            xs.append(x)
-            ys.append(float(convert(p(x), unit)))
-    return xs, ys
 
 
 def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
@@ -149,15 +122,8 @@ def _draw_stretches(ax, m, u: dict, L: float) -> None:
         ax.dot(float(convert(h.x, u["length"])), 0, 5.0, "white", "black")
 
 
-def changes(m, u: dict) -> list[float]:
-    """Where the section or material changes, in report length units."""
-    return [float(convert(st.x1, u["length"])) for st in m.stretches[1:]]
 
 
-def mark_changes_and_hinges(ax, m, u: dict) -> None:
-    """Dotted verticals on a curve's axes where the section changes and at every hinge."""
-    for x in changes(m, u) + [float(convert(h.x, u["length"])) for h in m.hinges]:
-        ax.vline(x, color="#777777", width=0.6, dash="dotted")
 
 
 def _lowest(drawn: list, levels: dict[int, int]) -> float:
@@ -227,7 +193,6 @@ def _support(ax, x: float, kind: str, L: float) -> None:
         ax.line([x - s, x + s], [-0.55, -0.55], width=1.2)
 
 
-LOAD = "#8b4513"
 REACTION = "#2e7d32"
 SETTLE = "#6a1b9a"
 
@@ -332,7 +297,7 @@ def envelope_figure(a: Analysis) -> str:
     for ax, attr, quantity, label in ((panels[0], "M", "moment", "M"), (panels[1], "v", "deflection", "v")):
         series = []
         for i, name in enumerate(names):
-            xs, ys = _sample(getattr(a.solution.target(name).curves, attr), u[quantity])
+            xs, ys = sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
             series.append((name, ys))
         ax.band(x, [max(col) for col in zip(*(ys for _, ys in series))],
@@ -367,7 +332,6 @@ def figure_names(a: Analysis) -> dict[str, str]:
 
 def all_figures(a: Analysis) -> dict[str, str]:
     """{file name: SVG text} for the whole package, file names sorted and safe."""
-    from beamlang.report.moving_figure import moving_figure
     out = {}
     for key, file in figure_names(a).items():
         if key == "sign convention":

@@ -5,10 +5,10 @@ from __future__ import annotations
 import hashlib
 from fractions import Fraction
 
+from beamlang.analysis.results import SIGN_CONVENTION, TargetResult
 from beamlang.engine.extrema import Located
 from beamlang.engine.fem import reported
 from beamlang.pipeline import Analysis
-from beamlang.analysis.results import SIGN_CONVENTION, TargetResult
 
 SCHEMA = "beamlang.results/1"
 

@@ -12,9 +12,21 @@ from fractions import Fraction
 import numpy as np
 
 from beamlang.analysis.display import convert, number, report_units
-from beamlang.engine.moving import directions, group_offsets, kernels_for, standing_loads
+from beamlang.engine.moving import (
+    directions,
+    group_offsets,
+    kernels_for,
+    standing_loads,
+)
 from beamlang.pipeline import Analysis
-from beamlang.report.figures import CURVE, LABEL_ROOM, LOAD, limit_lines, mark_changes_and_hinges, mark_extreme
+from beamlang.report.drawing import (
+    CURVE,
+    LABEL_ROOM,
+    LOAD,
+    limit_lines,
+    mark_changes_and_hinges,
+    mark_extreme,
+)
 from beamlang.report.svgplot import Figure
 
 POSITIONS = 400  # group positions per direction for the drawn envelopes

@@ -8,8 +8,8 @@ import shutil
 import tempfile
 from pathlib import Path
 
-from beamlang.report.jsonout import member_json
 from beamlang.pipeline import Analysis
+from beamlang.report.jsonout import member_json
 
 RESERVED = {"CON", "PRN", "AUX", "NUL", *(f"COM{i}" for i in range(1, 10)), *(f"LPT{i}" for i in range(1, 10))}
 

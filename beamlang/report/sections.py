@@ -7,11 +7,11 @@ import re
 from fractions import Fraction
 
 from beamlang import __version__
-from beamlang.language import syntax as s
 from beamlang.analysis.display import convert, number, report_units
-from beamlang.pipeline import Analysis
+from beamlang.language import syntax as s
 from beamlang.language.sections import FORMULAS
 from beamlang.language.units import SHORTHANDS, factor_of
+from beamlang.pipeline import Analysis
 from beamlang.report.provenance import versions_text
 from beamlang.report.tex import cell, md, num, plain
 
