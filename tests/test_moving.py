@@ -140,14 +140,14 @@ def test_travel_limits_keep_the_group_on_them():
 
 
 def test_drawn_influence_lines_are_the_handbook_ones():
-    # The calc package's figure draws the kernels in floats; on a simple span they must be the textbook
+    # The calc package's figure draws the kernels in floats (sampled by analysis/influence.py); on a simple span they must be the textbook
     # influence lines (Hibbeler, Structural Analysis, 8th ed., ch. 6, from memory): the moment at x0 under a
     # unit force at xi is xi (L - x0) / L left of x0 and x0 (L - xi) / L right of it, and the deflection at x0 is
     # the deflection at xi under a unit force at x0 (Maxwell-Betti), xi (L^2 - xi^2 - b^2) b / (6 L E I) left of x0.
     import numpy as np
-    from beamlang.report.moving_figure import _Lines
+    from beamlang.analysis.influence import _Lines
     a = analyse_text(_crane("6 m", "moving 10 kN down"))
-    lines = _Lines(a, "crane")
+    lines = _Lines(a.solution, a.result("crane"))
     L, x0 = 6.0, 2.0
     xi = np.linspace(0.0, 6.0, 61)
     moment = np.where(xi <= x0, xi * (L - x0) / L, x0 * (L - xi) / L)
