@@ -2,15 +2,13 @@
 
 from __future__ import annotations
 
-import math
 from bisect import bisect_left
 from fractions import Fraction
 
 import numpy as np
 
-from beamlang.model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 from beamlang.engine.statics import intensity
-
+from beamlang.model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 
 MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would ruin the float solve
 
@@ -147,16 +145,6 @@ def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs) -> None:
                 q = factor * (w0 + w1 * at) * wt * (b - a)
                 for k, d in enumerate(element(e)):
                     F[d] += q * n[k]
-
-
-FLOOR = 1e-12  # differences below this are float noise and are reported as this bound
-
-
-def reported(difference: float) -> float:
-    """The difference rounded up to a power of ten, at least FLOOR: stable across machines."""
-    if difference <= FLOOR:
-        return FLOOR
-    return float(f"1e{math.ceil(math.log10(difference))}")
 
 
 def relative_difference(member: Member, xs, loads, v_exact, theta_exact, nodal=None) -> float:

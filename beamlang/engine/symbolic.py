@@ -165,15 +165,10 @@ def worth_deriving(member: Member, redundants: int) -> bool:
             and not member.stepped and not member.hinges)
 
 
-def latex(expr) -> str:
-    """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML)."""
-    import sympy
-    return sympy.latex(expr).replace("\\left(", "(").replace("\\right)", ")")
-
-
 def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fraction, object]], dict[str, Fraction]]:
     """[(segment start, end, v(x) as a sympy expression)] for one load alone, and the symbols' values."""
     import sympy
+
     from beamlang.engine.solve import solve
     m, _, names = symbolic_member(member, load)
     sol = solve(m)

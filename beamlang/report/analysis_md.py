@@ -9,16 +9,20 @@ from beamlang.analysis.display import (
     report_units,
     show,
 )
-from beamlang.engine.extrema import Candidate
-from beamlang.engine.fem import reported
-from beamlang.engine.roots import square_free
-from beamlang.engine.solve import load_solution, prescribed
-from beamlang.engine.symbolic import latex, load_formula, worth_deriving
+from beamlang.analysis.working import (
+    formulas_shown,
+    general_formula,
+    load_deflection,
+    reported,
+    root_factor,
+    settlements,
+    standing_value,
+)
 from beamlang.language.fmt import statement_text
 from beamlang.model import LineLoad
 from beamlang.pipeline import Analysis
 from beamlang.report.sections import vector
-from beamlang.report.tex import cell, md, num, plain, poly
+from beamlang.report.tex import cell, md, num, plain, poly, sympy_tex
 
 
 def summary(a: Analysis) -> list[str]:
@@ -134,9 +138,6 @@ def _moving(a: Analysis, t, r) -> list[str]:
 
 def _standing_check(a: Analysis, t, r) -> list[str]:
     """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
-    from beamlang.analysis.results import factored_loads
-    from beamlang.engine.moving import standing_case, standing_loads
-    from beamlang.engine.solve import curves_with
     u = report_units(a.loaded.member)
     lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "
              "they stand, with the target's other loads), and the response read at the governing x:", "",
@@ -145,11 +146,8 @@ def _standing_check(a: Analysis, t, r) -> list[str]:
         loc, crit = getattr(r, field), r.position(field)
         if loc is None or crit is None:
             continue
-        loads = standing_case(r.envelope, crit, factored_loads(a.solution, t))
-        curves = curves_with(a.solution, loads)
-        curve = curves.v if kind == "deflection" else curves.M
-        value = curve.at(crit.x, "left") if crit.how == "under a force" else curve.at(crit.x)
-        wheels = ", ".join(show(ld.x, u, "length") for ld in standing_loads(r.envelope, crit)) or "off the member"
+        value, forces = standing_value(a.solution, t, r, field, kind)
+        wheels = ", ".join(show(x, u, "length") for x in forces) or "off the member"
         lines.append(f"| {label} | {wheels} | {show(value, u, kind, 6)} | {show(loc.value, u, kind, 6)} |")
     return lines
 
@@ -192,7 +190,7 @@ def _range(start, end) -> str:
 
 def _each_load(a: Analysis, t) -> list[str]:
     m = a.loaded.member
-    symbolic = worth_deriving(m, len(a.solution.primary.redundants))
+    symbolic = formulas_shown(a.solution)
     lines = ["### Each load's elastic curve", "",
              "Each load is solved alone on this member. " + (
                  "First its general formula, derived by the engine for this support layout (the table formula "
@@ -203,24 +201,24 @@ def _each_load(a: Analysis, t) -> list[str]:
              "The case curve is their sum.", ""]
     xs = a.solution.xs
     for ld in t.loads:
-        solved = load_solution(a.solution, ld)
+        deflection = load_deflection(a.solution, ld)
         shared = sum(1 for other in t.loads if other.span.line == ld.span.line) > 1  # self-weight per stretch
         where = f" ({plain(ld.x1)} m to {plain(ld.x2)} m)" if shared and isinstance(ld, LineLoad) else ""
         lines += [f"Load of line {ld.span.line}{where}:", ""]
         if symbolic:
             lines += _formula(m, ld)
         lines += ["| segment | v(x) |", "|---|---|"]
-        for start, end, (p,) in _runs(xs, solved.curves.v):
+        for start, end, (p,) in _runs(xs, deflection):
             lines.append(f"| {_range(start, end)} | ${poly(p)}$ |")
         lines.append("")
     return lines
 
 
 def _formula(m, ld) -> list[str]:
-    segments, names = load_formula(m, ld)
+    segments, names = general_formula(m, ld)
     out = []
     for start, end, expr in segments:
-        out += [f"$$v(x) = {latex(expr)} \\qquad ({plain(start)} \\le x \\le {plain(end)})$$", ""]
+        out += [f"$$v(x) = {sympy_tex(expr)} \\qquad ({plain(start)} \\le x \\le {plain(end)})$$", ""]
     values = ", ".join(f"${_symbol(n)} = {num(v)}$" for n, v in names.items())
     return out + [f"with {values} (SI units).", ""]
 
@@ -235,7 +233,7 @@ def _compatibility(a: Analysis, t) -> list[str]:
     if not p.redundants:
         return []
     s = t.solved
-    moved = prescribed(a.loaded.member, s.loads)
+    moved = settlements(a.loaded.member, s.loads)
     delta = [moved.get(a.loaded.member.supports[r.support].x, 0) if r.kind == "force" else 0 for r in p.redundants]
     if not any(delta):
         return ["### Compatibility", "",
@@ -328,7 +326,7 @@ def _deflection_search(a: Analysis, t, r) -> list[str]:
     return lines + ["", f"Governing: largest downward deflection {down}; largest upward deflection {up}.", ""]
 
 
-def _unique(cands: list[Candidate]) -> list[Candidate]:
+def _unique(cands: list) -> list:
     seen, out = set(), []
     for x in cands:
         if (x.x, x.value) not in seen:
@@ -337,10 +335,10 @@ def _unique(cands: list[Candidate]) -> list[Candidate]:
     return out
 
 
-def _root_text(x: Candidate) -> str:
+def _root_text(x) -> str:
     if x.root is None:
         return f"x = {plain(x.x, 10)} (rational, exact)"
-    q = square_free(x.root.poly)
+    q = root_factor(x.root.poly)
     if q.degree == 2:
         c0, c1, c2 = q.coeffs
         disc = c1 * c1 - 4 * c0 * c2

@@ -6,8 +6,7 @@ import hashlib
 from fractions import Fraction
 
 from beamlang.analysis.results import SIGN_CONVENTION, TargetResult
-from beamlang.engine.extrema import Located
-from beamlang.engine.fem import reported
+from beamlang.analysis.working import reported
 from beamlang.pipeline import Analysis
 
 SCHEMA = "beamlang.results/1"
@@ -46,7 +45,7 @@ def _f(value: Fraction | None) -> float | None:
     return None if value is None else float(value)
 
 
-def _at(located: Located | None, key: str) -> dict | None:
+def _at(located, key: str) -> dict | None:
     if located is None:
         return None
     out = {"x_m": float(located.x), key: float(located.value),

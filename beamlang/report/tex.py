@@ -55,3 +55,9 @@ def md(text: str) -> str:
 def cell(text: str) -> str:
     """Text for a pipe-table cell (no raw pipes, no line breaks)."""
     return text.replace("|", "\\|").replace("\n", " ")
+
+
+def sympy_tex(expr) -> str:
+    """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML)."""
+    import sympy
+    return sympy.latex(expr).replace("\\left(", "(").replace("\\right)", ")")
