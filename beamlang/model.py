@@ -4,9 +4,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from typing import TYPE_CHECKING
 
-from beamlang.language import syntax as s
 from beamlang.source import Span
+
+if TYPE_CHECKING:  # the model keeps the syntax it was built from; it never runs language code
+    from beamlang.language import syntax as s
 
 
 @dataclass(frozen=True, slots=True)

@@ -9,7 +9,7 @@ from beamlang.errors import BeamError, Diagnostic
 from beamlang.exact import Q
 from beamlang.model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from beamlang.poly import Piecewise, Poly
-from beamlang.engine.stability import Mechanism, Restraint, components, equilibrium_column, keep
+from beamlang.stability import Mechanism, Restraint, components, equilibrium_column, keep
 from beamlang.engine.statics import breakpoints, moment_left, resultant, shear_and_moment
 
 

@@ -11,7 +11,7 @@ from beamlang.errors import Collector
 from beamlang.exact import plain
 from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
 from beamlang.source import Span
-from beamlang.engine.stability import Mechanism, components, keep
+from beamlang.stability import Mechanism, components, keep
 from beamlang.language.units import STANDARD_GRAVITY, UnitProblem, exact_number, is_us, to_si
 
 MIN_SPAN = Fraction(1, 1000)  # m
