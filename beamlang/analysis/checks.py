@@ -5,10 +5,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from beamlang.exact import plain
-from beamlang.engine.extrema import SAME
-from beamlang.model import Member
 from beamlang.analysis.results import TargetResult
+from beamlang.engine.extrema import SAME
+from beamlang.exact import plain
+from beamlang.model import Member
 from beamlang.source import Span
 
 # sqrt(3) to 40 significant digits, for the shear yield fy/sqrt(3) (von Mises) shown in reports;

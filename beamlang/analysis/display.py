@@ -4,9 +4,9 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.model import Member
 from beamlang.language.syntax import SpanLength
 from beamlang.language.units import factor_of
+from beamlang.model import Member
 
 REPORT_UNITS = {
     # "section": the length unit of section dimensions and properties (mm^4, in^4, ...)

@@ -2,27 +2,12 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import (
-    CHECK_QUANTITY,
-    convert,
-    number,
-    report_units,
-    show,
-)
-from beamlang.analysis.working import (
-    formulas_shown,
-    general_formula,
-    load_deflection,
-    reported,
-    root_factor,
-    settlements,
-    standing_value,
-)
-from beamlang.language.fmt import statement_text
-from beamlang.model import LineLoad
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
-from beamlang.report.sections import vector
-from beamlang.report.tex import cell, md, num, plain, poly, sympy_tex
+from beamlang.report.moving_md import moving_section
+from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed
+from beamlang.report.tex import cell, md, num, plain, poly
 
 
 def summary(a: Analysis) -> list[str]:
@@ -55,209 +40,45 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         case = m.case(name)
         if case.title:
             lines += [md(case.title), ""]
-        lines += _loads(a, t) + _each_load(a, t) + _compatibility(a, t)
+        lines += loads_table(a, t) + each_load(a, t) + compatibility(a, t)
     else:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
         lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
                   "(exact, by linearity).", ""]
     if r.envelope is not None:
-        lines += _moving(a, t, r) + [
+        lines += moving_section(a, t, r) + [
             f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", ""]
         if figure is None:  # the moving group alone: no static curves to draw
             return lines
         return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
-    lines += _superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
+    lines += superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads and reactions, V, M, slope and deflection with its limits]({figure})", ""]
     return lines
 
 
-MOVING_FIELDS = (("max_down", "largest downward deflection", "deflection"),
-                 ("max_up", "largest upward deflection", "deflection"),
-                 ("moment_positive", "largest sagging moment", "moment"),
-                 ("moment_negative", "largest hogging moment", "moment"),
-                 ("shear_max", "largest shear", "force"),
-                 ("slope_max", "largest slope", "slope"))
 
 
-def _moving(a: Analysis, t, r) -> list[str]:
-    """The envelope over every position of the moving group: method, critical positions, reactions."""
-    m = a.loaded.member
-    u = report_units(m)
-    env = r.envelope
-    ld = env.load
-    doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
-    group = ", ".join(f"{show(-F, u, 'force')} at {show(d, u, 'length')}" for F, d in zip(ld.forces, ld.offsets))
-    lines = ["### Moving load", "",
-             f"Input line {ld.span.line}: `{cell(statement_text(doc_lines[ld.span.line]))}`, factor "
-             f"{plain(env.factor)}. Forces (down +) and their offsets from the first: {group}. The group travels "
-             f"from {show(ld.lo, u, 'length')} to {show(ld.hi, u, 'length')}" +
-             (", in both directions (the reversed order is searched too)" if len(ld.forces) > 1 else "") +
-             "; a force acts while it is on that stretch, so a group entering or leaving the member is included.",
-             "",
-             "Method: a unit force at ξ gives the deflection G(x, ξ) at x, and by Maxwell-Betti reciprocity "
-             "G(x, ξ) = G(ξ, x): the deflection influence line of any point is the member's own deflection under "
-             "a unit force there. On each cell of the (x, ξ) plane the influence kernels of v, θ, M and V are "
-             "polynomials of degree three or less in ξ, interpolated exactly from the engine's solutions for unit "
-             "forces at four places in each segment and confirmed at a fifth. With the first force at p, each "
-             "response is the static part plus the factored sum of the forces times their kernels: a polynomial "
-             "in (x, p) on every cell the breakpoints and the lines x = p + offset cut out. Its extremes are "
-             "taken, without sampling, from the group standing at every position where a force meets a "
-             "breakpoint, from every edge (influence lines at fixed x, and under each force), and from the "
-             "interior critical points, where ∂f/∂x = ∂f/∂p = 0 is solved through the resultant in x with its "
-             "real roots isolated exactly. "
-             f"The plane was cut into {env.cells} cells; of their {4 * env.cells} interiors (one per response), "
-             f"{env.interiors} could hold a value beyond those already found (a float bound with a safety margin "
-             "decides) and were solved exactly.",
-             "",
-             "| result | value | at x | first force at | direction | found |", "|---|---|---|---|---|---|"]
-    for field, label, kind in MOVING_FIELDS:
-        loc, crit = getattr(r, field), r.position(field)
-        if loc is None or crit is None:
-            lines.append(f"| {label} | none | - | - | - | - |")
-            continue
-        value = f"{plain(loc.value)} rad" if kind == "slope" else show(loc.value, u, kind, 6)
-        mark = "" if crit.exact else " (refined roots)"
-        lines.append(f"| {label} | {value} | {show(loc.x, u, 'length')} | {show(crit.position, u, 'length')} "
-                     f"| {'reversed' if crit.reversed else 'as written'} | {crit.how}{mark} |")
-    lines += ["", "Reactions over all positions (up +):", "",
-              "| support | x | largest | first force at | smallest | first force at | input line |",
-              "|---|---|---|---|---|---|---|"]
-    for sp, (big, small) in zip(m.supports, env.reactions):
-        lines.append(f"| {sp.kind} | {show(sp.x, u, 'length')} | {show(big.value, u, 'force')} | "
-                     f"{show(big.position, u, 'length')} | {show(small.value, u, 'force')} | "
-                     f"{show(small.position, u, 'length')} | {sp.span.line} |")
-    lines += _standing_check(a, t, r)
-    if m.report_points:
-        lines += ["", "Requested points over all positions:", "", "| x | largest up | largest down |", "|---|---|---|"]
-        for rp, (up, down) in zip(m.report_points, env.points):
-            lines.append(f"| {show(rp.x, u, 'length')} | {show(up.value, u, 'deflection', 6)} | "
-                         f"{show(down.value, u, 'deflection', 6)} |")
-    return lines + [""]
 
 
-def _standing_check(a: Analysis, t, r) -> list[str]:
-    """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
-    u = report_units(a.loaded.member)
-    lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "
-             "they stand, with the target's other loads), and the response read at the governing x:", "",
-             "| result | forces at | value of the static case | envelope value |", "|---|---|---|---|"]
-    for field, label, kind in MOVING_FIELDS[:4]:
-        loc, crit = getattr(r, field), r.position(field)
-        if loc is None or crit is None:
-            continue
-        value, forces = standing_value(a.solution, t, r, field, kind)
-        wheels = ", ".join(show(x, u, "length") for x in forces) or "off the member"
-        lines.append(f"| {label} | {wheels} | {show(value, u, kind, 6)} | {show(loc.value, u, kind, 6)} |")
-    return lines
 
 
-def _loads(a: Analysis, t) -> list[str]:
-    doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
-    rows = [f"| {ld.span.line} | `{cell(statement_text(doc_lines[ld.span.line]))}` | {_load_si(ld)} |" for ld in t.loads]
-    return ["### Loads", "", "| line | load as written | in SI (signs: up and counterclockwise positive) |",
-            "|---|---|---|", *rows, ""]
 
 
-def _load_si(ld) -> str:
-    kind = type(ld).__name__
-    if kind == "PointLoad":
-        return f"P = {plain(ld.force)} N at x = {plain(ld.x)} m"
-    if kind == "MomentLoad":
-        return f"C = {plain(ld.moment)} N·m at x = {plain(ld.x)} m"
-    if kind == "Settlement":
-        return f"support at x = {plain(ld.x)} m moves Δ = {plain(ld.movement)} m (prescribed; carries no force)"
-    if ld.w1 == ld.w2:
-        return f"w = {plain(ld.w1)} N/m from x = {plain(ld.x1)} m to {plain(ld.x2)} m"
-    return f"w from {plain(ld.w1)} N/m at x = {plain(ld.x1)} m to {plain(ld.w2)} N/m at x = {plain(ld.x2)} m"
 
 
-def _runs(xs, *curves):
-    """(start, end, pieces) with neighbouring segments merged where every curve has the same formula."""
-    out = []
-    for k in range(len(xs) - 1):
-        pieces = tuple(c.pieces[k] for c in curves)
-        if out and out[-1][2] == pieces:
-            out[-1] = (out[-1][0], xs[k + 1], pieces)
-        else:
-            out.append((xs[k], xs[k + 1], pieces))
-    return out
 
 
-def _range(start, end) -> str:
-    return f"{plain(start)} ≤ x ≤ {plain(end)}"
 
 
-def _each_load(a: Analysis, t) -> list[str]:
-    m = a.loaded.member
-    symbolic = formulas_shown(a.solution)
-    lines = ["### Each load's elastic curve", "",
-             "Each load is solved alone on this member. " + (
-                 "First its general formula, derived by the engine for this support layout (the table formula "
-                 "for this case), with the value of every symbol; then " if symbolic else
-                 "(General formulas are not shown for members with springs, hinges, changes of section or more "
-                 "than two redundants: they run to many lines.) ") +
-             "v(x) in m with x in m, coefficients shown to six significant digits (computed exactly). "
-             "The case curve is their sum.", ""]
-    xs = a.solution.xs
-    for ld in t.loads:
-        deflection = load_deflection(a.solution, ld)
-        shared = sum(1 for other in t.loads if other.span.line == ld.span.line) > 1  # self-weight per stretch
-        where = f" ({plain(ld.x1)} m to {plain(ld.x2)} m)" if shared and isinstance(ld, LineLoad) else ""
-        lines += [f"Load of line {ld.span.line}{where}:", ""]
-        if symbolic:
-            lines += _formula(m, ld)
-        lines += ["| segment | v(x) |", "|---|---|"]
-        for start, end, (p,) in _runs(xs, deflection):
-            lines.append(f"| {_range(start, end)} | ${poly(p)}$ |")
-        lines.append("")
-    return lines
 
 
-def _formula(m, ld) -> list[str]:
-    segments, names = general_formula(m, ld)
-    out = []
-    for start, end, expr in segments:
-        out += [f"$$v(x) = {sympy_tex(expr)} \\qquad ({plain(start)} \\le x \\le {plain(end)})$$", ""]
-    values = ", ".join(f"${_symbol(n)} = {num(v)}$" for n, v in names.items())
-    return out + [f"with {values} (SI units).", ""]
 
 
-def _symbol(name: str) -> str:
-    base, _, sub = name.partition("_")
-    return f"{base}_{{{sub}}}" if sub else base
 
 
-def _compatibility(a: Analysis, t) -> list[str]:
-    p = a.solution.primary
-    if not p.redundants:
-        return []
-    s = t.solved
-    moved = settlements(a.loaded.member, s.loads)
-    delta = [moved.get(a.loaded.member.supports[r.support].x, 0) if r.kind == "force" else 0 for r in p.redundants]
-    if not any(delta):
-        return ["### Compatibility", "",
-                "Displacements of the primary beam at the released restraints under this case, and the "
-                "redundants solved exactly from A X = -D0:", "",
-                f"$$D_0 = {vector(s.displacements)}, \\qquad X = -A^{{-1}} D_0 = {vector(s.redundants)}$$", ""]
-    return ["### Compatibility", "",
-            "Displacements of the primary beam at the released restraints under this case, the prescribed "
-            "settlements Δ there, and the redundants solved exactly from A X = Δ - D0:", "",
-            f"$$D_0 = {vector(s.displacements)}, \\qquad \\Delta = {vector(delta)}, \\qquad "
-            f"X = A^{{-1}} (\\Delta - D_0) = {vector(s.redundants)}$$", ""]
 
 
-def _superposed(a: Analysis, t) -> list[str]:
-    xs = a.solution.xs
-    c = t.curves
-    lines = ["### Superposed curves", "", "The sums of the load curves; x in m.", "",
-             "| segment | V(x) in N | M(x) in N·m |", "|---|---|---|"]
-    for start, end, (V, M) in _runs(xs, c.V, c.M):
-        lines.append(f"| {_range(start, end)} | ${poly(V)}$ | ${poly(M)}$ |")
-    lines += ["", "| segment | θ(x) in rad | v(x) in m |", "|---|---|---|"]
-    for start, end, (theta, v) in _runs(xs, c.theta, c.v):
-        lines.append(f"| {_range(start, end)} | ${poly(theta)}$ | ${poly(v)}$ |")
-    return lines + [""]
 
 
 def _hinges(a: Analysis, t) -> list[str]:

@@ -2,13 +2,7 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import (
-    CHECK_QUANTITY,
-    convert,
-    number,
-    report_units,
-    show,
-)
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
 from beamlang.pipeline import Analysis
 
 

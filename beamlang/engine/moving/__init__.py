@@ -6,12 +6,7 @@ kernels (influence kernels from unit-force solutions) -> cells (the group's geom
 from beamlang.engine.moving.cells import directions, group_offsets
 from beamlang.engine.moving.found import Critical, Envelope
 from beamlang.engine.moving.kernels import QUANTITIES, kernels_for
-from beamlang.engine.moving.search import (
-           envelope,
-           scaled,
-           standing_case,
-           standing_loads,
-)
+from beamlang.engine.moving.search import envelope, scaled, standing_case, standing_loads
 
 __all__ = ["QUANTITIES", "Critical", "Envelope", "directions", "envelope", "group_offsets", "kernels_for", "scaled",
            "standing_case", "standing_loads"]

@@ -20,16 +20,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from beamlang.engine.extrema import candidates, derivative_of
-from beamlang.engine.moving.bivariate import (
-    Bi,
-    _at_p,
-    _at_x,
-    _d,
-    _in_x,
-    _on_diagonal,
-    _resultant,
-    _value,
-)
+from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _value
 from beamlang.engine.moving.bounds import _Best, _bound, _line_bound
 from beamlang.engine.moving.cells import (
     _Cell,
@@ -43,13 +34,7 @@ from beamlang.engine.moving.cells import (
     group_offsets,
 )
 from beamlang.engine.moving.found import Critical, Envelope
-from beamlang.engine.moving.kernels import (
-    QUANTITIES,
-    _cell_poly,
-    _curve,
-    _reaction_line,
-    kernels_for,
-)
+from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for
 from beamlang.engine.roots import roots_in
 from beamlang.engine.solve import Curves, Solution, Target, curves_with
 from beamlang.engine.statics import region_bounds
