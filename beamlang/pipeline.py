@@ -6,6 +6,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from beamlang.analysis.checks import Check, run_checks
+from beamlang.analysis.display import report_units
 from beamlang.language.frontend import Loaded, load
 from beamlang.analysis.required import Required, required_section
 from beamlang.analysis.results import TargetResult, evaluate
@@ -19,6 +20,7 @@ class Analysis:
     results: tuple[TargetResult, ...]
     checks: tuple[Check, ...]
     required: Required
+    units: dict[str, str]  # the report unit of each quantity, chosen once from the member (display.report_units)
 
     def result(self, name: str) -> TargetResult:
         """The results of one case or combination."""
@@ -33,7 +35,7 @@ def analyse_loaded(item: Loaded) -> Analysis:
     solution = solve(item.member)            # every load's exact curve, force method, superposed
     results = evaluate(solution)             # reactions, located extrema, stresses, cross-check
     checks = run_checks(item.member, results)  # limits and stress against the member's statements
-    return Analysis(item, solution, results, checks, required_section(item.member, checks))
+    return Analysis(item, solution, results, checks, required_section(item.member, checks), report_units(item.member))
 
 
 def analyse(path: Path) -> Analysis:

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, show
 from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
 from beamlang.report.moving_md import moving_section
@@ -11,7 +11,7 @@ from beamlang.report.tex import cell, md, num, plain, poly
 
 
 def summary(a: Analysis) -> list[str]:
-    u = report_units(a.loaded.member)
+    u = a.units
     lines = ["## Summary", ""]
     if not a.checks:
         return lines + ["No checks are requested in the input file.", ""]
@@ -87,7 +87,7 @@ def _hinges(a: Analysis, t) -> list[str]:
     if not m.hinges:
         return []
     c = t.curves
-    u = report_units(m)
+    u = a.units
     lines = ["### Hinge conditions", "", "At every hinge: the moment from either side, the deflection from either side "
              "(equal: no gap) and the slope jump Δθ = θ(right) - θ(left).", "",
              "| hinge (input line) | M left | M right | v left = v right | Δθ |", "|---|---|---|---|---|"]
@@ -103,7 +103,7 @@ def _hinges(a: Analysis, t) -> list[str]:
 
 def _reactions(a: Analysis, r) -> list[str]:
     m = a.loaded.member
-    u = report_units(m)
+    u = a.units
     lines = ["### Reactions", "", "| support | x | force (up +) | moment (counterclockwise +) | input line |",
              "|---|---|---|---|---|"]
     for sp, (x, f, mo) in zip(m.supports, r.reactions):
@@ -113,7 +113,7 @@ def _reactions(a: Analysis, r) -> list[str]:
 
 
 def _moment_search(a: Analysis, r) -> list[str]:
-    u = report_units(a.loaded.member)
+    u = a.units
     zeros = [x for x in r.moment_candidates if x.reason == "derivative zero"]
     found = ", ".join(f"x = {_where(z)} m" for z in zeros) or "none inside a segment"
     lines = ["### Shear and moment", "",
@@ -128,7 +128,7 @@ def _moment_search(a: Analysis, r) -> list[str]:
 
 
 def _deflection_search(a: Analysis, t, r) -> list[str]:
-    u = report_units(a.loaded.member)
+    u = a.units
     c, xs = t.curves, a.solution.xs
     cands = r.deflection_candidates
     lines = ["### Where the deflection is largest", "",
@@ -182,7 +182,7 @@ def _places(loc, u) -> str:
 def _points(a: Analysis, r) -> list[str]:
     if not r.points:
         return []
-    u = report_units(a.loaded.member)
+    u = a.units
     lines = ["### Requested points", "", "| x | deflection | slope |", "|---|---|---|"]
     for x, v, theta in r.points:
         lines.append(f"| {show(x, u, 'length')} | {show(v, u, 'deflection', 6)} | {plain(theta)} rad |")
@@ -191,7 +191,7 @@ def _points(a: Analysis, r) -> list[str]:
 
 def envelope(a: Analysis, figure: str) -> list[str]:
     from beamlang.report.figures import envelope_targets
-    u = report_units(a.loaded.member)
+    u = a.units
     names = envelope_targets(a)
     rows = []
     for name in names:
@@ -208,7 +208,7 @@ def envelope(a: Analysis, figure: str) -> list[str]:
 
 
 def checks_detail(a: Analysis) -> list[str]:
-    u = report_units(a.loaded.member)
+    u = a.units
     lines = ["## Checks", "", "| input line | check | case or combination | actual | allowed | ratio | basis | result |",
              "|---|---|---|---|---|---|---|---|"]
     for c in a.checks:
@@ -229,7 +229,7 @@ def checks_detail(a: Analysis) -> list[str]:
 def required(a: Analysis) -> list[str]:
     """The least I and S that pass, with their derivation."""
     req, m = a.required, a.loaded.member
-    small = report_units(m)["section"]
+    small = a.units["section"]
     lines = ["## Required section", ""]
     if req.I is None and req.S is None:
         return lines + [f"{req.note[0].upper()}{req.note[1:]}." if req.note.startswith("not") else

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.analysis.display import convert, number, report_units
+from beamlang.analysis.display import convert, number
 from beamlang.model import LineLoad, MomentLoad, PointLoad, Settlement
 from beamlang.pipeline import Analysis
 from beamlang.report.drawing import (
@@ -27,7 +27,7 @@ POINTS_PER_LEVEL = 30.0  # height of one unit of the loads panel (a level is 0.9
 def target_figure(a: Analysis, name: str) -> str:
     """Loads and supports, then V, M, slope and deflection of one case or combination."""
     m = a.loaded.member
-    u = report_units(m)
+    u = a.units
     t = a.solution.target(name)
     r = a.result(name)
     fig = Figure()
@@ -290,7 +290,7 @@ def envelope_targets(a: Analysis) -> list[str]:
 
 def envelope_figure(a: Analysis) -> str:
     """M and v of every combination on one figure, with the upper and lower envelope."""
-    u = report_units(a.loaded.member)
+    u = a.units
     names = envelope_targets(a)
     fig = Figure()
     panels = [fig.panel(120.0), fig.panel(120.0)]

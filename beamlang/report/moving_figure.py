@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.analysis.display import convert, number, report_units
+from beamlang.analysis.display import convert, number
 from beamlang.analysis.influence import moving_drawing
 from beamlang.pipeline import Analysis
 from beamlang.report.drawing import CURVE, LABEL_ROOM, LOAD, limit_lines, mark_changes_and_hinges, mark_extreme
@@ -15,7 +15,7 @@ from beamlang.report.svgplot import Figure
 def moving_figure(a: Analysis, name: str) -> str:
     """Influence lines of v and M at their governing points, and the envelopes of M and v along x."""
     m = a.loaded.member
-    u = report_units(m)
+    u = a.units
     r = a.result(name)
     drawing = moving_drawing(a.solution, r)
     to_length = float(convert(Fraction(1), u["length"]))

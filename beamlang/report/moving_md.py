@@ -3,7 +3,7 @@ and the governing positions re-solved as static cases."""
 
 from __future__ import annotations
 
-from beamlang.analysis.display import report_units, show
+from beamlang.analysis.display import show
 from beamlang.analysis.working import standing_value
 from beamlang.language.fmt import statement_text
 from beamlang.pipeline import Analysis
@@ -20,7 +20,7 @@ MOVING_FIELDS = (("max_down", "largest downward deflection", "deflection"),
 def moving_section(a: Analysis, t, r) -> list[str]:
     """The envelope over every position of the moving group: method, critical positions, reactions."""
     m = a.loaded.member
-    u = report_units(m)
+    u = a.units
     env = r.envelope
     ld = env.load
     doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
@@ -75,7 +75,7 @@ def moving_section(a: Analysis, t, r) -> list[str]:
 
 def standing_check(a: Analysis, t, r) -> list[str]:
     """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
-    u = report_units(a.loaded.member)
+    u = a.units
     lines = ["", "Each governing position re-solved as a static case (the group's forces as point loads where "
              "they stand, with the target's other loads), and the response read at the governing x:", "",
              "| result | forces at | value of the static case | envelope value |", "|---|---|---|---|"]

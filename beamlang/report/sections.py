@@ -7,7 +7,7 @@ import re
 from fractions import Fraction
 
 from beamlang import __version__
-from beamlang.analysis.display import convert, number, report_units
+from beamlang.analysis.display import convert, number
 from beamlang.language import syntax as s
 from beamlang.language.sections import FORMULAS
 from beamlang.language.units import SHORTHANDS, factor_of
@@ -40,7 +40,7 @@ def title(a: Analysis) -> list[str]:
 def _describe(a: Analysis) -> str:
     m = a.loaded.member
     kinds = [sp.kind for sp in m.supports]
-    span = f"{number(convert(m.length, report_units(m)['length']))} {report_units(m)['length']} member"
+    span = f"{number(convert(m.length, a.units['length']))} {a.units['length']} member"
     return f"{span} on {len(kinds)} support{'s' * (len(kinds) != 1)} ({', '.join(kinds)})"
 
 
@@ -113,7 +113,7 @@ def signs(a: Analysis, figure: str) -> list[str]:
 
 def section_properties(a: Analysis) -> list[str]:
     m = a.loaded.member
-    small = report_units(m)["section"]
+    small = a.units["section"]
     lines = ["## Section and material", ""]
     sections = list({id(st.section): st.section for st in m.stretches}.values())
     materials = list({id(st.material): st.material for st in m.stretches}.values())
@@ -132,7 +132,7 @@ def section_properties(a: Analysis) -> list[str]:
                   + f" (input line {mat.span.line}).", ""]
     if not m.stepped:
         return lines + [f"Flexural stiffness: $EI = {num(m.stretches[0].EI)}$ N·m².", ""]
-    length = report_units(m)["length"]
+    length = a.units["length"]
     lines += ["The member is stepped: each stretch has its own flexural stiffness, and the curvature "
               "M(x)/EI(x) is integrated stretch by stretch (every change is a segment end).", "",
               f"| stretch ({length}) | section (input line) | material (input line) | EI (N·m²) |", "|---|---|---|---|"]

@@ -2,13 +2,13 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import CHECK_QUANTITY, convert, number, report_units, show
+from beamlang.analysis.display import CHECK_QUANTITY, convert, number, show
 from beamlang.pipeline import Analysis
 
 
 def member_table(a: Analysis) -> str:
     m = a.loaded.member
-    u = report_units(m)
+    u = a.units
     lines = [f"{m.mark}  {m.title}  ({a.loaded.source.name})"]
     L = u["length"]
     head = ["case/combination", "max down", f"at ({L})", "max up", f"at ({L})", "M+", "M-",

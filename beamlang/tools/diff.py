@@ -87,16 +87,15 @@ class MemberDiff:
 
 def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshold: float = THRESHOLD) -> MemberDiff:
     """Compare two analyses of one member (either may be missing: added or removed files)."""
-    from beamlang.analysis.display import report_units
     if old is None or new is None:
         only = new or old
         statuses = tuple(_status(_key(c), None if new else c, c if new else None) for c in only.checks)
-        return MemberDiff(name, "added" if new else "removed", report_units(only.loaded.member), True, (), statuses, ())
+        return MemberDiff(name, "added" if new else "removed", only.units, True, (), statuses, ())
     inputs = tuple(input_changes(old.loaded.document, new.loaded.document))
     design = _design(old) != _design(new)
     statuses = _statuses(old, new, threshold)
     deltas = tuple(_deltas(old, new)) if design else ()
-    return MemberDiff(name, "changed", report_units(new.loaded.member), design, inputs, statuses, deltas)
+    return MemberDiff(name, "changed", new.units, design, inputs, statuses, deltas)
 
 
 def _design(a: Analysis):

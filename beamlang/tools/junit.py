@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import xml.etree.ElementTree as ET
 
-from beamlang.analysis.display import CHECK_QUANTITY, report_units, show
+from beamlang.analysis.display import CHECK_QUANTITY, show
 from beamlang.errors import BeamError
 from beamlang.pipeline import Analysis
 
@@ -16,7 +16,7 @@ def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:
         m = a.loaded.member
         suite = ET.SubElement(root, "testsuite", name=m.mark, file=a.loaded.source.name)
         failures = 0
-        u = report_units(m)
+        u = a.units
         for c in a.checks:
             case = ET.SubElement(suite, "testcase", classname=m.mark, name=c.label)
             if not c.passed:
