@@ -1,4 +1,4 @@
-"""Combinations: `combine` lines -> factored sums of cases, each name new, each case known and once."""
+"""Combinations: `combine` lines -> factored sums of cases (names new, cases known and once, factors in range)."""
 
 from __future__ import annotations
 
@@ -7,6 +7,7 @@ from fractions import Fraction
 from beamlang import model as m
 from beamlang.language import syntax as s
 from beamlang.language.build.context import Context
+from beamlang.language.units import ACCEPTED, in_range
 
 
 def combinations(ctx: Context, cases: set[str]) -> tuple[m.Combination, ...]:
@@ -39,6 +40,10 @@ def _terms(ctx: Context, st: s.Combine, cases: set[str]) -> tuple[list[tuple[Fra
         if factor is None:
             ok = False
             continue
+        if not in_range(factor):
+            ctx.error(term.factor_span, f"a load factor of {term.factor} is surely a typo",
+                      f"load factors {ACCEPTED} are accepted")
+            ok = False
         if term.case.text not in cases:
             ctx.error(term.case.span, f"unknown case '{term.case.text}'",
                       ctx.suggest(term.case.text, sorted(cases), "cases"))
