@@ -1,4 +1,4 @@
-"""The grammar ships inside the wheel and is found after a plain, non-editable install."""
+"""The grammar and every module ship inside the wheel; the grammar is found after a plain, non-editable install."""
 
 from __future__ import annotations
 
@@ -17,6 +17,8 @@ def test_wheel_contains_grammar_and_installed_copy_finds_it(tmp_path):
     wheel = next(wheels.glob("beamlang-*.whl"))
     names = zipfile.ZipFile(wheel).namelist()
     assert "beamlang/grammar/beam.lark" in names
+    modules = {p.relative_to(ROOT).as_posix() for p in (ROOT / "beamlang").rglob("*.py")}
+    assert modules - set(names) == set()  # every module ships (a folder named like an ignored one too)
     target = tmp_path / "site"
     subprocess.run([sys.executable, "-m", "pip", "install", "--no-deps", "-q", "--target", str(target), str(wheel)],
                    check=True, cwd=tmp_path)

@@ -125,3 +125,15 @@ def test_a_us_shorthand_is_named_with_its_nist_source_in_the_package():
     row = next(line for line in inputs(a) if line.startswith("| plf |"))
     assert "plf = lbf/ft (US shorthand); NIST SP 811" in row
     assert a.loaded.member.cases[0].loads[0].w1 == -150 * LBF / FOOT
+
+
+@pytest.mark.parametrize("factor,accepted", [("1e12", True), ("1e-12", True), ("1.000001e12", False),
+                                             ("0.999999e-12", False)])
+def test_load_factors_have_the_bounds_of_values(factor, accepted):
+    text = BASE + f"combine c = {factor} dead\n"
+    if accepted:
+        assert build(parse(Source("t.beam", text))).combinations[0].terms == ((Fraction(factor), "dead"),)
+        return
+    with pytest.raises(BeamError) as info:
+        build(parse(Source("t.beam", text)))
+    assert [d.message for d in info.value.diagnostics] == [f"a load factor of {factor} is surely a typo"]

@@ -111,13 +111,19 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
             hint = "lb is a pound of mass; a pound-force is lbf (lbf/ft, or plf, for a line load)"
         raise UnitProblem(Diagnostic(q.span, message, hint))
     value = exact_number(q.number, q.span) * f.factor
-    if value and not (LOWEST <= abs(value) <= HIGHEST):
+    if not in_range(value):
         raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(value)} {f.si_unit}, surely a typo",
-                                     f"values between 1e-12 and 1e12 {f.si_unit} are accepted"))
+                                     f"values {ACCEPTED} {f.si_unit} are accepted"))
     return value
 
 
 LOWEST, HIGHEST = Fraction(1, 10**12), Fraction(10**12)  # in SI base units: anything outside is a typo
+ACCEPTED = "between 1e-12 and 1e12"  # LOWEST and HIGHEST as the hints print them
+
+
+def in_range(value: Fraction) -> bool:
+    """True for zero and for magnitudes from LOWEST to HIGHEST; anything else is surely a typo."""
+    return not value or LOWEST <= abs(value) <= HIGHEST
 MAX_DIGITS = 30  # digits and exponent size of a written number
 
 

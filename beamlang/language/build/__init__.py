@@ -1,0 +1,50 @@
+"""Build: syntax Document -> validated Member model in exact SI; every problem is reported.
+
+One module per statement family; each takes the shared `Context` (document, error collector,
+conversions) and what earlier families found. `build` runs them in this order, which is also the
+order their errors are collected in.
+"""
+
+from __future__ import annotations
+
+from beamlang import model as m
+from beamlang.language import syntax as s
+from beamlang.language.build import checks, combinations, geometry, loads, sections, supports
+from beamlang.language.build.context import Context
+from beamlang.language.build.geometry import FIELD_ORDER
+
+__all__ = ["FIELD_ORDER", "build"]
+
+
+def build(doc: s.Document) -> m.Member:
+    """Validate a parsed file and convert it to the exact SI member model."""
+    ctx = Context(doc)
+    member = _member(ctx)
+    ctx.errors.raise_if_any()
+    assert member is not None
+    return member
+
+
+def _member(ctx: Context) -> m.Member | None:
+    if not ctx.doc.statements:
+        geometry.empty(ctx)
+        return None
+    head = geometry.head(ctx)
+    stretches = sections.stretches(ctx)
+    bearings = supports.supports(ctx, head.span)
+    hinges = supports.hinges(ctx, bearings)
+    cases = loads.cases(ctx, head.span)
+    supports.no_couple_at_hinges(ctx, cases, hinges)
+    names = loads.names(ctx, cases)
+    combos = combinations.combinations(ctx, names)
+    targets = combinations.targets(ctx, names)
+    limits = checks.deflection_limits(ctx, targets)
+    slopes = checks.slope_limits(ctx, targets, bearings)
+    stress = checks.stress_checks(ctx, targets, stretches)
+    reports = checks.report_points(ctx)
+    if ctx.errors.items or not stretches or ctx.length is None:
+        return None
+    member = head.single["member"]
+    return m.Member(member.mark.text, member.title, geometry.fields(ctx), geometry.units(head), ctx.length,
+                    stretches, bearings, hinges, cases, combos, limits, slopes, stress, reports,
+                    geometry.notes(ctx), ctx.doc, member.span)

@@ -1,0 +1,77 @@
+"""Limits and checks: deflection limits, stress checks, slope limits and report points -> their model objects."""
+
+from __future__ import annotations
+
+from beamlang import model as m
+from beamlang.language import syntax as s
+from beamlang.language.build.context import Context
+
+
+def _target(ctx: Context, name: s.Name, targets: set[str]) -> bool:
+    """True when a limit or check names a known case or combination; else the error is reported."""
+    if name.text in targets:
+        return True
+    ctx.error(name.span, f"unknown case or combination '{name.text}'",
+              ctx.suggest(name.text, sorted(targets), "cases and combinations"))
+    return False
+
+
+def deflection_limits(ctx: Context, targets: set[str]) -> tuple[m.DeflectionLimit, ...]:
+    """`limit deflection` lines: span/N or an absolute length, for a known case or combination."""
+    out = []
+    for st in ctx.of(s.Limit):
+        ok = _target(ctx, st.target, targets)
+        divisor = value = None
+        if st.divisor is not None:
+            divisor = ctx.number(st.divisor, st.span)
+            if divisor is None:
+                ok = False
+            elif divisor == 0:
+                ctx.error(st.span, "a limit of span/0 allows no deflection at all", "write e.g. span/360")
+                ok = False
+        else:
+            value = ctx.positive(st.value, "length", "a deflection limit")
+            ok = ok and value is not None
+        if ok:
+            out.append(m.DeflectionLimit(st.target.text, divisor, value, st.span))
+    return tuple(out)
+
+
+def slope_limits(ctx: Context, targets: set[str], supports: tuple[m.Support, ...]) -> tuple[m.SlopeLimit, ...]:
+    """`limit slope` lines: an angle at the supports, which must include a bearing that can turn."""
+    out = []
+    for st in ctx.of(s.SlopeLimit):
+        ok = st.target is None or _target(ctx, st.target, targets)
+        value = ctx.positive(st.value, "angle", "a slope limit", "write the slope in rad, e.g. `0.001 rad`")
+        if ok and value is not None:
+            out.append(m.SlopeLimit(st.target.text if st.target else None, value, st.span))
+    if out and supports and all(sp.kind == "fixed" for sp in supports):
+        ctx.error(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
+                  "a fixed support holds the slope at zero; the limit is for bearings")
+    return tuple(out)
+
+
+def stress_checks(ctx: Context, targets: set[str], stretches: tuple[m.Stretch, ...]) -> tuple[m.StressCheck, ...]:
+    """`check stress` lines: every stretch needs a yield strength and a depth (c or S)."""
+    out = []
+    no_yield = next((sp.material for sp in stretches if sp.material.yield_strength is None), None)
+    no_depth = next((sp.section for sp in stretches if sp.section.c is None and sp.section.S is None), None)
+    for st in ctx.of(s.StressCheck):
+        ok = _target(ctx, st.target, targets)
+        if no_yield is not None:
+            ctx.error(st.span, "a stress check needs the material's yield strength",
+                      f"add e.g. `yield 350 MPa` to the material line (line {no_yield.span.line})")
+            ok = False
+        if no_depth is not None:
+            ctx.error(st.span, "a stress check needs the section depth, c or S",
+                      f"add e.g. `depth 250 mm` to the section line (line {no_depth.span.line})")
+            ok = False
+        if ok:
+            out.append(m.StressCheck(st.target.text, st.span))
+    return tuple(out)
+
+
+def report_points(ctx: Context) -> tuple[m.ReportPoint, ...]:
+    """`report deflection at` lines: positions on the member to report results at."""
+    points = ((ctx.position(st.at, "report point"), st) for st in ctx.of(s.Report))
+    return tuple(m.ReportPoint(x, st.span) for x, st in points if x is not None)

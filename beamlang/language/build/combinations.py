@@ -1,0 +1,63 @@
+"""Combinations: `combine` lines -> factored sums of cases (names new, cases known and once, factors in range)."""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from beamlang import model as m
+from beamlang.language import syntax as s
+from beamlang.language.build.context import Context
+from beamlang.language.units import ACCEPTED, in_range
+
+
+def combinations(ctx: Context, cases: set[str]) -> tuple[m.Combination, ...]:
+    """Every combination without an error, in file order."""
+    out: list[m.Combination] = []
+    for st in ctx.of(s.Combine):
+        name = st.name.text
+        if name in cases or any(c.name == name for c in out):
+            ctx.error(st.name.span, f"the name '{name}' is already used",
+                      "cases and combinations need names of their own")
+            continue
+        terms, ok = _terms(ctx, st, cases)
+        with_moving = [t for t in st.terms if t.case.text in ctx.moving_cases]
+        if len(with_moving) > 1:
+            ctx.error(with_moving[1].case.span, "a combination may hold only one case with a moving load",
+                      "two groups moving independently are not supported; combine each with the "
+                      "other cases separately")
+            ok = False
+        if ok:
+            out.append(m.Combination(name, tuple(terms), st.span))
+    return tuple(out)
+
+
+def _terms(ctx: Context, st: s.Combine, cases: set[str]) -> tuple[list[tuple[Fraction, str]], bool]:
+    """The (factor, case) terms and whether all of them are sound."""
+    terms: list[tuple[Fraction, str]] = []
+    ok = True
+    for term in st.terms:
+        factor = ctx.number(term.factor, term.factor_span) if term.factor is not None else Fraction(1)
+        if factor is None:
+            ok = False
+            continue
+        if not in_range(factor):
+            ctx.error(term.factor_span, f"a load factor of {term.factor} is surely a typo",
+                      f"load factors {ACCEPTED} are accepted")
+            ok = False
+        if term.case.text not in cases:
+            ctx.error(term.case.span, f"unknown case '{term.case.text}'",
+                      ctx.suggest(term.case.text, sorted(cases), "cases"))
+            ok = False
+        elif any(t[1] == term.case.text for t in terms):
+            ctx.error(term.case.span, f"case '{term.case.text}' appears twice in this combination")
+            ok = False
+        elif factor == 0:
+            ctx.error(term.case.span, "a factor of zero; leave the case out instead")
+            ok = False
+        terms.append((factor, term.case.text))
+    return terms, ok
+
+
+def targets(ctx: Context, cases: set[str]) -> set[str]:
+    """The names limits and checks may refer to (a combination with an error is still known: no cascade)."""
+    return cases | {st.name.text for st in ctx.of(s.Combine)}
