@@ -12,12 +12,8 @@ from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput
 from beamlang.language import syntax as s
 from beamlang.errors import BeamError, Collector
 from beamlang.source import Source, Span
+from beamlang.language.vocabulary import KEYWORDS, SHAPES, SUPPORT_KINDS
 
-KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
-            "material", "section", "support", "hinge", "case", "point", "uniform", "linear", "moment",
-            "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note", "catalogue")
-SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
-SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 TERMINAL_WORDS = {
     "NUMBER": "a number", "UNIT": "a unit", "NAME": "a name", "MARK": "a member mark",
     "STRING": 'a quoted text "..."', "FORCE_DIR": "`down` or `up`",
