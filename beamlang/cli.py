@@ -198,10 +198,12 @@ def _run_check(args: argparse.Namespace) -> int:
 def _run_size(args: argparse.Namespace) -> int:
     from beamlang.language.frontend import load
     from beamlang.analysis.display import convert
-    from beamlang.tools.size import catalogue_of, read_catalogue, shown, try_all, with_section
+    from beamlang.tools.size import catalogue_named, catalogue_of, designation_of, read_catalogue, section_line
+    from beamlang.tools.size import shown, try_all, with_section
     item = load(Path(args.member))
-    catalogue = Path(args.catalogue) if args.catalogue else catalogue_of(item)
-    trials = try_all(item, read_catalogue(catalogue), shown(catalogue))
+    catalogue = catalogue_named(args.catalogue) if args.catalogue else catalogue_of(item)
+    rows = read_catalogue(catalogue)
+    trials = try_all(item, rows, shown(catalogue))
     passing = [t for t in trials if t.passed]
     us, density = item.member.units == "us", item.member.material.density
     weight_unit = ("lbf/ft" if us else "N/m") if density else ("in^2" if us else "mm^2")  # as engineers list them
@@ -223,8 +225,10 @@ def _run_size(args: argparse.Namespace) -> int:
     runners = ", ".join(f"{t.name} ({t.ratio:.3f})" for t in passing[1:4])
     print(f"lightest passing: {best.name}" + (f"; next: {runners}" if runners else ""))
     if args.write:
-        Path(args.member).write_text(with_section(item, best.section), encoding="utf-8", newline="")
-        print(f"wrote `section {best.section}` into {item.source.name}")
+        others = tuple(name for _, name, _ in rows) + ((designation_of(item) or ""),)
+        text = with_section(item, best.section, best.name, others)
+        Path(args.member).write_text(text, encoding="utf-8", newline="")
+        print(f"wrote `{section_line(item, text)}` into {item.source.name}")
     return EXIT_OK
 
 

@@ -282,7 +282,7 @@ class _Builder:
         if flange_t is not None:
             dims += (("flange thickness", flange_t),)
         return m.SectionProperties(shape, dims, props["I"], props["A"], props["c"], props["S"],
-                                   props["Q"], props["t"], st.span)
+                                   props["Q"], props["t"], st.span, st.designation)
 
     # -- supports ------------------------------------------------------------------------------
     def _supports(self, stmts: list[s.Support], member_span: Span) -> tuple[m.Support, ...]:

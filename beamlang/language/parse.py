@@ -266,10 +266,12 @@ class _Build(Transformer):
         stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
         return s.Material(name, props, self._stmt_span(), stretch)
 
-    def section(self, shape: Token, *items) -> s.Section:
+    def section(self, *items) -> s.Section:
+        designation = _unquote(str(items[0])) if items[0].type == "STRING" else None
+        shape = next(i for i in items if isinstance(i, Token) and i.type == "SHAPE")
         props = tuple(i for i in items if isinstance(i, s.Property))
         stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
-        return s.Section(self._name(shape), props, self._stmt_span(), stretch)
+        return s.Section(self._name(shape), props, self._stmt_span(), stretch, designation)
 
     def stretch(self, start: s.Position, end: s.Position) -> s.Stretch:
         return s.Stretch(start, end, self._span(self._find("from", before=start.span.col), end.span))
