@@ -76,6 +76,8 @@ def _parser() -> argparse.ArgumentParser:
     diff.add_argument("--threshold", type=float, default=0.05,
                       help="flag a check whose ratio moves by more than this fraction (default 0.05)")
     diff.set_defaults(run=_run_diff)
+    lsp = sub.add_parser("lsp", help="serve editors by the Language Server Protocol over stdio")
+    lsp.set_defaults(run=_run_lsp)
     check.set_defaults(run=_run_check)
     for sp in sub.choices.values():
         sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
@@ -249,6 +251,17 @@ def _run_diff(args: argparse.Namespace) -> int:
     if args.fail_on == "regression" and any(d.regression for d in diffs):
         return EXIT_FAIL
     return EXIT_OK
+
+
+def _run_lsp(args: argparse.Namespace) -> int:
+    try:
+        from beamlang.tools.lsp.server import run
+    except ImportError as exc:
+        if (exc.name or "").split(".")[0] not in ("pygls", "lsprotocol", "cattrs", "attrs"):
+            raise  # our own bug, not a missing optional dependency
+        print(f"beamlang lsp needs pygls 2 and lsprotocol: pip install 'beamlang[lsp]' ({exc})", file=sys.stderr)
+        return EXIT_INPUT
+    return run()
 
 
 def _diff_pairs(args: argparse.Namespace) -> list:

@@ -160,6 +160,23 @@ def _accepted(text: str, exc: UnexpectedInput) -> set[str]:
         return fallback
 
 
+def accepted_after(prefix: str) -> set[str] | None:
+    """The terminals the statement grammar accepts after this start of a line (an editor's completion); None
+    where no statement starts so."""
+    interactive = _parser().parse_interactive(prefix)
+    try:
+        for _ in interactive.iter_parse():
+            pass
+        return set(interactive.accepts())
+    except UnexpectedInput:
+        return None
+
+
+def literals() -> dict[str, str]:
+    """The grammar's fixed words by terminal name (`AT` -> `at`, `__ANON_0` -> `self-weight`)."""
+    return {t.name: t.pattern.value for t in _parser().terminals if t.pattern.type == "str"}
+
+
 def _word_at(text: str, col: int) -> str:
     rest = text[col - 1:]
     word = rest.split()[0] if rest.split() else ""
