@@ -319,3 +319,32 @@ def test_without_pygls_the_command_says_what_to_install(monkeypatch, capsys):
     monkeypatch.setitem(sys.modules, "pygls", None)  # as if it were not installed
     assert main(["lsp"]) == 2
     assert capsys.readouterr().err.startswith("beamlang lsp needs pygls 2 and lsprotocol: pip install 'beamlang[lsp]'")
+
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+EXAMPLE_TEXTS = [p.read_text(encoding="utf-8") for p in sorted(EXAMPLES.glob("*.beam"))]
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.sampled_from(EXAMPLE_TEXTS), st.integers(0, 2000), st.integers(0, 40), st.text(max_size=6),
+       st.integers(0, 60), st.integers(0, 90))
+def test_features_never_fail_on_a_file_being_typed(text, cut, length, typed, line, col):
+    """A file cut and typed into at any place: every feature answers (possibly nothing), none raises."""
+    from pygls.workspace import PositionCodec
+
+    from beamlang.tools.lsp.completion import complete
+    from beamlang.tools.lsp.diagnostics import diagnostics
+    from beamlang.tools.lsp.document import Ranges, analyse, formatted
+    from beamlang.tools.lsp.hover import hover
+    from beamlang.tools.lsp.symbols import definition, document_symbols
+    cut %= len(text)
+    text = text[:cut] + typed + text[cut + length:]
+    analysed, ranges = analyse("t.beam", text), Ranges(text, PositionCodec())
+    here = ranges.point(types.Position(line, col))
+    diagnostics(analysed, "file:///t.beam", ranges)
+    hover(analysed, *here, ranges)
+    complete(analysed, *here, ranges)
+    definition(analysed, *here, "file:///t.beam", ranges)
+    document_symbols(analysed, ranges)
+    assert formatted(analysed) is None or analysed.parsed

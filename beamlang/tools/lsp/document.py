@@ -98,7 +98,8 @@ class Ranges:
     def point(self, position: types.Position) -> tuple[int, int]:
         """(line, column) from 1, in code points, of a client's position."""
         server = self.codec.position_from_client_units(self.lines, types.Position(position.line, position.character))
-        return server.line + 1, server.character + 1
+        row = self.lines[server.line].splitlines() if server.line < len(self.lines) else []
+        return server.line + 1, min(server.character, len(row[0]) if row else 0) + 1  # never past the line's end
 
 
 def formatted(analysed: Analysed) -> str | None:
