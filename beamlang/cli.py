@@ -76,6 +76,8 @@ def _parser() -> argparse.ArgumentParser:
     diff.add_argument("--threshold", type=float, default=0.05,
                       help="flag a check whose ratio moves by more than this fraction (default 0.05)")
     diff.set_defaults(run=_run_diff)
+    lsp = sub.add_parser("lsp", help="serve editors by the Language Server Protocol over stdio")
+    lsp.set_defaults(run=_run_lsp)
     check.set_defaults(run=_run_check)
     for sp in sub.choices.values():
         sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
@@ -198,10 +200,12 @@ def _run_check(args: argparse.Namespace) -> int:
 def _run_size(args: argparse.Namespace) -> int:
     from beamlang.language.frontend import load
     from beamlang.analysis.display import convert
-    from beamlang.tools.size import catalogue_of, read_catalogue, shown, try_all, with_section
+    from beamlang.tools.size import catalogue_named, catalogue_of, designation_of, read_catalogue, section_line
+    from beamlang.tools.size import shown, try_all, with_section
     item = load(Path(args.member))
-    catalogue = Path(args.catalogue) if args.catalogue else catalogue_of(item)
-    trials = try_all(item, read_catalogue(catalogue), shown(catalogue))
+    catalogue = catalogue_named(args.catalogue) if args.catalogue else catalogue_of(item)
+    rows = read_catalogue(catalogue)
+    trials = try_all(item, rows, shown(catalogue))
     passing = [t for t in trials if t.passed]
     us, density = item.member.units == "us", item.member.material.density
     weight_unit = ("lbf/ft" if us else "N/m") if density else ("in^2" if us else "mm^2")  # as engineers list them
@@ -223,8 +227,10 @@ def _run_size(args: argparse.Namespace) -> int:
     runners = ", ".join(f"{t.name} ({t.ratio:.3f})" for t in passing[1:4])
     print(f"lightest passing: {best.name}" + (f"; next: {runners}" if runners else ""))
     if args.write:
-        Path(args.member).write_text(with_section(item, best.section), encoding="utf-8", newline="")
-        print(f"wrote `section {best.section}` into {item.source.name}")
+        others = tuple(name for _, name, _ in rows) + ((designation_of(item) or ""),)
+        text = with_section(item, best.section, best.name, others)
+        Path(args.member).write_text(text, encoding="utf-8", newline="")
+        print(f"wrote `{section_line(item, text)}` into {item.source.name}")
     return EXIT_OK
 
 
@@ -245,6 +251,17 @@ def _run_diff(args: argparse.Namespace) -> int:
     if args.fail_on == "regression" and any(d.regression for d in diffs):
         return EXIT_FAIL
     return EXIT_OK
+
+
+def _run_lsp(args: argparse.Namespace) -> int:
+    try:
+        from beamlang.tools.lsp.server import run
+    except ImportError as exc:
+        if (exc.name or "").split(".")[0] not in ("pygls", "lsprotocol", "cattrs", "attrs"):
+            raise  # our own bug, not a missing optional dependency
+        print(f"beamlang lsp needs pygls 2 and lsprotocol: pip install 'beamlang[lsp]' ({exc})", file=sys.stderr)
+        return EXIT_INPUT
+    return run()
 
 
 def _diff_pairs(args: argparse.Namespace) -> list:

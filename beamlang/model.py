@@ -35,6 +35,7 @@ class SectionProperties:
     Q: Fraction | None  # m^3, first moment of area above the neutral axis
     t: Fraction | None  # m, width at the neutral axis (for V*Q/(I*t))
     span: Span
+    designation: str | None = None  # the name written on the section line (a catalogue's), not a design value
 
 
 @dataclass(frozen=True, slots=True)
@@ -204,6 +205,12 @@ class Member:
         """The member's section, when it is prismatic."""
         return self._only("section")
 
+    @property
+    def designations(self) -> str | None:
+        """The names written on the section lines (`section "2x10" ...`), with their lines: `2x10 (line 13)`."""
+        named = {st.section.span.line: st.section.designation for st in self.stretches if st.section.designation}
+        return ", ".join(f"{name} (line {line})" for line, name in sorted(named.items())) or None
+
     def _only(self, attr: str):
         found = {id(getattr(st, attr)): getattr(st, attr) for st in self.stretches}
         if len(found) > 1:
@@ -247,7 +254,7 @@ def essence(obj: object) -> object:
     if hasattr(obj, "__dataclass_fields__"):
         return (type(obj).__name__,) + tuple(
             (name, essence(getattr(obj, name))) for name in obj.__dataclass_fields__
-            if name not in ("span", "document"))
+            if name not in ("span", "document", "designation"))
     if isinstance(obj, tuple):
         return tuple(essence(item) for item in obj)
     return obj

@@ -14,7 +14,8 @@ SECTIONS = {
     "si": ["section rectangle width 100 mm depth 200 mm", "section I-shape depth 250 mm flange 150 mm x 12 mm web 8 mm",
            "section properties I 8.5e7 mm^4 depth 250 mm A 5400 mm^2", "section tube diameter 60 mm wall 4 mm",
            "section box width 100 mm depth 150 mm wall 6 mm", "section round diameter 50 mm"],
-    "us": ["section rectangle width 1.5 in depth 9.25 in", "section properties I 340 in^4 depth 12 in A 10 in^2",
+    "us": ["section rectangle width 1.5 in depth 9.25 in", 'section "2x10" rectangle width 1.5 in depth 9.25 in',
+           "section properties I 340 in^4 depth 12 in A 10 in^2",
            "section tube diameter 4.5 in wall 0.237 in"],
 }
 

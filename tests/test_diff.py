@@ -112,3 +112,58 @@ def test_build_since_adds_the_changes_section(repo, capsys):
     assert "| **PASS -> FAIL** |" in section and "| changed | section depth | `250 mm` | `200 mm` | 14 |" in section
     other = (repo / "out" / "CA-1" / "CA-1.md").read_text(encoding="utf-8")
     assert "## Changes since HEAD\\~1\n\nNo change." in other
+
+
+def _pair(tmp_path, old: str, new: str):
+    (tmp_path / "old.beam").write_text(old, encoding="utf-8")
+    (tmp_path / "new.beam").write_text(new, encoding="utf-8")
+    return str(tmp_path / "old.beam"), str(tmp_path / "new.beam")
+
+
+def test_changes_below_the_printed_precision_are_not_listed(tmp_path, capsys):
+    # A 1 mN force beside a 12 kN one moves every live result by about 1e-7 of itself: exact rational dust that
+    # printed to four digits used to read "-4.074 mm -> -4.074 mm (-0.0 %)". The input change is still listed.
+    text = (EXAMPLES / "mezzanine-edge-beam.beam").read_text(encoding="utf-8")
+    dust = text.replace("  point 12 kN down at 2.0 m\n", "  point 12 kN down at 2.0 m\n  point 1 mN down at 1 m\n")
+    code, out = run(capsys, "diff", *_pair(tmp_path, text, dust))
+    assert code == 0
+    assert "  added    case live: point load: point 1 mN down at 1 m  (line 25)" in out
+    assert "result" not in out  # every result prints as it did
+    _, js = run(capsys, "diff", *_pair(tmp_path, text, dust), "--format", "json")
+    assert json.loads(js)["members"][0]["results"] == []
+    visible = text.replace("point 12 kN down", "point 12.1 kN down")
+    _, out = run(capsys, "diff", *_pair(tmp_path, text, visible))
+    assert "  result   live: max down deflection -4.074 mm -> " in out
+    assert "  result   dead:" not in out  # the dead case is exactly the same: unchanged, not listed
+
+
+def test_reactions_are_named_by_their_support_as_check_names_them(tmp_path, capsys):
+    text = (EXAMPLES / "mezzanine-edge-beam.beam").read_text(encoding="utf-8")
+    old, new = _pair(tmp_path, text, text.replace("point 12 kN down", "point 20 kN down"))
+    assert main(["check", new]) == 0
+    header = next(line for line in capsys.readouterr().out.splitlines() if "reactions at" in line)
+    assert header.endswith("reactions at 0, 5.4 m")
+    _, out = run(capsys, "diff", old, new)
+    reactions = [line.split(": ", 1)[1] for line in out.splitlines() if line.startswith("  result") and ": reaction" in line]
+    assert [r.split(" kN")[0].rsplit(" ", 1)[0] for r in reactions] == ["reaction at 0 m", "reaction at 5.4 m"] * 3
+    assert "support 1" not in out
+    _, md = run(capsys, "diff", old, new, "--format", "markdown")
+    assert "| live | reaction at 5.4 m | " in md
+
+
+def test_a_fixed_support_also_shows_its_reaction_moment(tmp_path, capsys):
+    text = (EXAMPLES / "canopy-cantilever.beam").read_text(encoding="utf-8")
+    _, out = run(capsys, "diff", *_pair(tmp_path, text, text.replace("point 0.35 kN down", "point 0.5 kN down")))
+    assert any(line.startswith("  result   ") and ": reaction moment at 0 m " in line for line in out.splitlines())
+
+
+def test_a_tiny_visible_change_keeps_its_digits():
+    from beamlang.tools.diffout import _percent
+    assert (_percent(2.5), _percent(-0.04), _percent(0.0123)) == ("+2.5 %", "-0.04 %", "+0.012 %")
+
+
+def test_a_renamed_designation_is_an_input_change_not_a_design_change(tmp_path, capsys):
+    text = (EXAMPLES / "floor-joist-sized-us.beam").read_text(encoding="utf-8")
+    _, out = run(capsys, "diff", *_pair(tmp_path, text, text.replace('section "2x10"', 'section "2x10 No. 2"')))
+    assert out.splitlines()[1:] == ["  changed  section designation: 2x10 -> 2x10 No. 2  (line 13)"]
+    assert "(no change to the design)" in out.splitlines()[0]

@@ -39,7 +39,9 @@ def test_lightest_lumber_size_worked_by_hand(tmp_path, monkeypatch, capsys):
     assert "(weight in in^2 (area: no density given))" in out  # no density: ranked by area, 1.5 in x 5.5 in
     assert "2x6                    8.25  FAIL  governing ratio 1.402 (deflection live)" in out
     text = (tmp_path / "j.beam").read_text(encoding="utf-8")
-    assert text == JOIST.replace("depth 5.5 in  # to be sized", "depth 7.25 in  # to be sized")  # a one-line diff
+    assert text == JOIST.replace('section rectangle width 1.5 in depth 5.5 in  # to be sized',
+                                 'section "2x8" rectangle width 1.5 in depth 7.25 in  # to be sized')  # a one-line diff
+    assert out.endswith('wrote `section "2x8" rectangle width 1.5 in depth 7.25 in  # to be sized` into j.beam\n')
 
 
 def test_steel_demo_catalogue_uses_self_weight(tmp_path, monkeypatch, capsys):
@@ -98,3 +100,63 @@ def test_a_catalogue_that_is_not_there(tmp_path, monkeypatch, capsys):
     (tmp_path / "k.beam").write_text(JOIST, encoding="utf-8")
     assert main(["size", "k.beam"]) == 2
     assert "error: no catalogue to size from" in capsys.readouterr().err
+
+
+def test_catalogue_option_takes_a_shipped_name(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)  # no such file here: the name of a shipped catalogue, as on a `catalogue` line
+    (tmp_path / "j.beam").write_text(JOIST, encoding="utf-8")
+    assert main(["size", "j.beam", "--catalogue", "sawn-lumber-ps20.csv"]) == 0
+    out = capsys.readouterr().out
+    assert "17 sections tried from beamlang/catalogues/sawn-lumber-ps20.csv" in out and "lightest passing: 2x8;" in out
+
+
+def test_catalogue_option_with_an_unknown_name_lists_the_shipped_ones(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "j.beam").write_text(JOIST, encoding="utf-8")
+    assert main(["size", "j.beam", "--catalogue", "sawn-lumber.csv"]) == 2
+    err = capsys.readouterr().err
+    assert err == ("sawn-lumber.csv:1:1: error: catalogue 'sawn-lumber.csv' not found here or among the shipped ones\n"
+                   "    hint: the shipped catalogues are: demo-steel-i-shapes.csv, sawn-lumber-ps20.csv\n")
+    (tmp_path / "stock").mkdir()  # a folder is no catalogue either
+    assert main(["size", "j.beam", "--catalogue", "stock"]) == 2
+    assert capsys.readouterr().err == "stock:1:1: error: catalogue 'stock' not found here or among the shipped ones\n" \
+        "    hint: the shipped catalogues are: demo-steel-i-shapes.csv, sawn-lumber-ps20.csv\n"
+
+
+def test_write_records_the_designation_and_renames_it_in_the_comment(tmp_path, monkeypatch, capsys):
+    # The case: a line commented as a 2x6 trial becomes the 2x8 (the answer worked by hand above); the
+    # comment no longer names a section the line does not hold, and a second run finds nothing to change.
+    monkeypatch.chdir(tmp_path)
+    before = JOIST.replace("  # to be sized", "  # 2x6 trial, check bearing at the wall")
+    (tmp_path / "j.beam").write_text(before, encoding="utf-8")
+    assert main(["size", "j.beam", "--catalogue", "sawn-lumber-ps20.csv", "--write"]) == 0
+    after = (tmp_path / "j.beam").read_text(encoding="utf-8")
+    assert after == before.replace('section rectangle width 1.5 in depth 5.5 in  # 2x6 trial',
+                                   'section "2x8" rectangle width 1.5 in depth 7.25 in  # 2x8 trial')
+    capsys.readouterr()
+    assert main(["size", "j.beam", "--catalogue", "sawn-lumber-ps20.csv", "--write"]) == 0
+    assert (tmp_path / "j.beam").read_text(encoding="utf-8") == after
+    assert main(["check", "j.beam"]) == 0
+    assert "  section: 2x8 (line 4)\n" in capsys.readouterr().out  # the summary table names it
+
+
+def test_the_designation_is_kept_and_shown(tmp_path, monkeypatch):
+    from beamlang.language.fmt import format_document
+    from beamlang.language.frontend import from_source
+    from beamlang.report.jsonout import member_json
+    from beamlang.source import Source
+    from engine_helpers import analyse_text
+    text = JOIST.replace("section rectangle", 'section "2x6 \\"No. 2\\"" rectangle')
+    item = from_source(Source("j.beam", text), None)
+    assert item.member.section.designation == '2x6 "No. 2"'
+    assert ('section "2x6 \\"No. 2\\"" rectangle width 1.5 in depth 5.5 in  # to be sized'
+            in format_document(item.document).splitlines())
+    a = analyse_text(text)
+    assert member_json(a)["stretches"][0]["section_designation"] == '2x6 "No. 2"'
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "j.beam").write_text(text, encoding="utf-8")
+    assert main(["build", "j.beam", "-o", "out"]) == 1
+    package = (tmp_path / "out" / "J-1" / "J-1.md").read_text(encoding="utf-8")
+    summary = package.split("## Summary", 1)[1].split("\n## ", 1)[0]
+    assert 'Section 2x6 "No\\. 2" \\(line 4\\).' in summary  # Markdown-escaped user text
+    assert 'Section 2x6 "No\\. 2": rectangle (width = 1.5 in, depth = 5.5 in), input line 4.' in package

@@ -123,7 +123,8 @@ _TEXT = {
     s.SpanLength: lambda st: f"span {_q(st.length)}",
     s.Material: lambda st: ("material " + (f"{st.name.text} " if st.name else "") + _props(st.properties, MATERIAL_ORDER)
                             + _stretch(st)),
-    s.Section: lambda st: (f"section {st.shape.text} " + _props(st.properties, sum(SHAPE_DIMENSIONS[st.shape.text], ()))
+    s.Section: lambda st: ("section " + (f"{_quote(st.designation)} " if st.designation is not None else "")
+                           + f"{st.shape.text} " + _props(st.properties, sum(SHAPE_DIMENSIONS[st.shape.text], ()))
                            + _stretch(st)),
     s.Support: _support,
     s.Hinge: lambda st: f"hinge at {st.at}",

@@ -12,12 +12,8 @@ from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput
 from beamlang.language import syntax as s
 from beamlang.errors import BeamError, Collector
 from beamlang.source import Source, Span
+from beamlang.language.vocabulary import KEYWORDS, SHAPES, SUPPORT_KINDS
 
-KEYWORDS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span",
-            "material", "section", "support", "hinge", "case", "point", "uniform", "linear", "moment",
-            "self-weight", "settlement", "moving", "combine", "limit", "check", "report", "note", "catalogue")
-SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
-SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 TERMINAL_WORDS = {
     "NUMBER": "a number", "UNIT": "a unit", "NAME": "a name", "MARK": "a member mark",
     "STRING": 'a quoted text "..."', "FORCE_DIR": "`down` or `up`",
@@ -164,6 +160,23 @@ def _accepted(text: str, exc: UnexpectedInput) -> set[str]:
         return fallback
 
 
+def accepted_after(prefix: str) -> set[str] | None:
+    """The terminals the statement grammar accepts after this start of a line (an editor's completion); None
+    where no statement starts so."""
+    interactive = _parser().parse_interactive(prefix)
+    try:
+        for _ in interactive.iter_parse():
+            pass
+        return set(interactive.accepts())
+    except UnexpectedInput:
+        return None
+
+
+def literals() -> dict[str, str]:
+    """The grammar's fixed words by terminal name (`AT` -> `at`, `__ANON_0` -> `self-weight`)."""
+    return {t.name: t.pattern.value for t in _parser().terminals if t.pattern.type == "str"}
+
+
 def _word_at(text: str, col: int) -> str:
     rest = text[col - 1:]
     word = rest.split()[0] if rest.split() else ""
@@ -270,10 +283,12 @@ class _Build(Transformer):
         stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
         return s.Material(name, props, self._stmt_span(), stretch)
 
-    def section(self, shape: Token, *items) -> s.Section:
+    def section(self, *items) -> s.Section:
+        designation = _unquote(str(items[0])) if items[0].type == "STRING" else None
+        shape = next(i for i in items if isinstance(i, Token) and i.type == "SHAPE")
         props = tuple(i for i in items if isinstance(i, s.Property))
         stretch = next((i for i in items if isinstance(i, s.Stretch)), None)
-        return s.Section(self._name(shape), props, self._stmt_span(), stretch)
+        return s.Section(self._name(shape), props, self._stmt_span(), stretch, designation)
 
     def stretch(self, start: s.Position, end: s.Position) -> s.Stretch:
         return s.Stretch(start, end, self._span(self._find("from", before=start.span.col), end.span))

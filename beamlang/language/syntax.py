@@ -104,6 +104,7 @@ class Section:
     properties: tuple[Property, ...]
     span: Span
     stretch: Stretch | None = None  # None: the whole member
+    designation: str | None = None  # `section "2x10" rectangle ...`: the name it is known by (a catalogue's)
 
 
 @dataclass(frozen=True, slots=True)

@@ -27,7 +27,8 @@ def summary(a: Analysis) -> list[str]:
                      f"{c.ratio:.3f} | {result} | {where} | {c.span.line} |")
     failed = sum(not c.passed for c in a.checks)
     verdict = "All checks pass." if not failed else f"{failed} of {len(a.checks)} checks FAIL."
-    return lines + ["", verdict, ""]
+    named = [f"Section {md(a.loaded.member.designations)}.", ""] if a.loaded.member.designations else []
+    return lines + ["", verdict, ""] + named
 
 
 def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None = None) -> list[str]:

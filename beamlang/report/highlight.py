@@ -1,39 +1,28 @@
-"""Syntax highlighting of `.beam` text for the HTML appendix: a small regular-expression tokenizer of our own.
+"""Syntax highlighting of the HTML appendix: numbered `.beam` listing -> HTML spans from beamlang's pygments lexer.
 
-The output depends on this module alone (no highlighting library), so a calc package rebuilds byte for byte
-whatever else is installed. Every character of the input is escaped with `html.escape`.
+The lexer's rules are beamlang's (`language/lexer.py`); pygments supplies only its regular-expression engine,
+and the spans and classes are written here (no pygments formatter or style), so the bytes follow the lexer and
+this table. pygments' version is named in each package with the other libraries (`provenance.py`). Every
+character of the input is escaped with `html.escape`.
 """
 
 from __future__ import annotations
 
 import html
 import re
+from functools import lru_cache
 
-STATEMENTS = ("member", "project", "job", "by", "checked", "date", "revision", "units", "span", "material",
-              "section", "support", "case", "point", "uniform", "linear", "moment", "self-weight", "settlement", "moving",
-              "combine", "limit", "check", "report", "note")
-WORDS = ("down", "up", "and", "spaced", "clockwise", "counterclockwise", "at", "from", "to", "fixed", "pin", "roller", "spring",
-         "deflection", "stress", "properties", "rectangle", "round", "tube", "box", "I-shape", "x", "si", "us")
+from pygments.token import Comment, Keyword, Name, Number, Operator, String
 
+_NUMBERED = re.compile(r" *\d+  ")  # the appendix's own line numbers
+TokenType = type(Comment)
 
-def _words(names: tuple[str, ...]) -> str:
-    alternatives = "|".join(re.escape(n) for n in sorted(names, key=lambda n: (-len(n), n)))
-    return rf"(?<![\w-])(?:{alternatives})(?![\w-])"
-
-
-# (CSS class, pattern); the first pattern that matches at a position wins; None means plain text.
-_RULES = (
-    ("ln", r"^ *\d+  "),  # the appendix's own line numbers
-    ("cm", r"#[^\n]*"),
-    ("tx", r'"(?:[^"\\\n]|\\.)*"'),
-    ("nu", r"(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"),
-    ("kw", _words(STATEMENTS)),
-    ("wd", _words(WORDS)),
-    ("op", r"[=+/\-]"),
-    ("un", r"[A-Za-z\u00b5\u03bc\u00b0][\w\u00b7*/^\u00b5\u03bc\u00b0-]*"),
-    (None, r"[ \t]+|\n|."),
+# (token type, CSS class); the first type that contains the token wins; anything else is plain text
+CLASSES: tuple[tuple[TokenType, str], ...] = (
+    (Comment, "cm"), (String, "tx"), (Number, "nu"),
+    (Keyword.Constant, "wd"), (Name.Builtin, "wd"), (Operator.Word, "wd"), (Keyword, "kw"), (Operator, "op"),
+    (Name.Constant, "un"), (Name.Attribute, "pr"), (Name.Label, "nm"), (Name, "nm"),
 )
-_TOKEN = re.compile("|".join(f"(?P<g{i}>{pattern})" for i, (_, pattern) in enumerate(_RULES)), re.M | re.S)
 
 STYLE = {  # class: CSS declarations (print-friendly colours, dark enough on white)
     "ln": "color: #8a8a8a; user-select: none",
@@ -44,18 +33,37 @@ STYLE = {  # class: CSS declarations (print-friendly colours, dark enough on whi
     "wd": "color: #0f766e",
     "op": "color: #555555",
     "un": "color: #1f2937",
+    "pr": "color: #4b5563",
+    "nm": "color: #1f2937; font-weight: bold",
 }
 
 
+@lru_cache(maxsize=1)
+def _lexer():
+    from beamlang.language.lexer import BeamLexer
+    return BeamLexer()
+
+
+def _class(ttype: TokenType) -> str | None:
+    return next((css for kind, css in CLASSES if ttype in kind), None)
+
+
 def tokens(code: str) -> list[tuple[str | None, str]]:
-    """The text cut into (class, text) pieces whose concatenation is `code`."""
+    """The listing cut into (class, text) pieces whose concatenation is `code`; each line is lexed alone."""
     out: list[tuple[str | None, str]] = []
-    for match in _TOKEN.finditer(code):
-        kind = _RULES[int(match.lastgroup[1:])][0]
+
+    def add(kind: str | None, text: str) -> None:
         if out and out[-1][0] is None and kind is None:
-            out[-1] = (None, out[-1][1] + match.group())
-        else:
-            out.append((kind, match.group()))
+            out[-1] = (None, out[-1][1] + text)
+        elif text:
+            out.append((kind, text))
+
+    for line in code.splitlines(keepends=True):
+        number = _NUMBERED.match(line)
+        if number:
+            add("ln", number.group())
+        for _, ttype, text in _lexer().get_tokens_unprocessed(line[number.end() if number else 0:]):
+            add(_class(ttype), text)
     return out
 
 

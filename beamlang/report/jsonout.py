@@ -22,7 +22,8 @@ def member_json(a: Analysis) -> dict:
         "input_sha256": hashlib.sha256(a.loaded.source.text.encode("utf-8")).hexdigest(),
         "sign_convention": SIGN_CONVENTION,
         "stretches": [{"from_m": float(st.x1), "to_m": float(st.x2), "EI_Nm2": float(st.EI),
-                       "section_line": st.section.span.line, "material_line": st.material.span.line}
+                       "section_line": st.section.span.line, "material_line": st.material.span.line,
+                       "section_designation": st.section.designation}
                       for st in m.stretches],
         "hinges": [{"x_m": float(h.x), "input_line": h.span.line} for h in m.hinges],
         "results": {r.name: _target(r) for r in a.results},

@@ -138,17 +138,23 @@ def section_properties(a: Analysis) -> list[str]:
               f"| stretch ({length}) | section (input line) | material (input line) | EI (N·m²) |", "|---|---|---|---|"]
     for st in m.stretches:
         lines.append(f"| {number(convert(st.x1, length))} to {number(convert(st.x2, length))} | "
-                     f"{st.section.shape} (line {st.section.span.line}) | "
+                     f"{_named(st.section)}{st.section.shape} (line {st.section.span.line}) | "
                      f"{md(st.material.name or 'unnamed')} (line {st.material.span.line}) | ${num(st.EI)}$ |")
     return lines + [""]
 
 
+def _named(section) -> str:
+    return f"{md(section.designation)}, " if section.designation else ""
+
+
 def _section_table(sec, small: str) -> list[str]:
     if sec.shape == "properties":
-        lines = [f"Section given by its properties, input line {sec.span.line}.", ""]
+        named = f"Section {md(sec.designation)}, given" if sec.designation else "Section given"
+        lines = [f"{named} by its properties, input line {sec.span.line}.", ""]
     else:
         dims = ", ".join(f"{name} = {number(convert(v, small))} {small}" for name, v in sec.dimensions)
-        lines = [f"Section: {sec.shape} ({dims}), input line {sec.span.line}.", ""]
+        named = f" {md(sec.designation)}" if sec.designation else ""
+        lines = [f"Section{named}: {sec.shape} ({dims}), input line {sec.span.line}.", ""]
     formulas = FORMULAS.get(sec.shape, {})
     lines += ["| property | formula | value |", "|---|---|---|"]
     for key, power in (("A", 2), ("I", 4), ("c", 1), ("S", 3), ("Q", 3), ("t", 1)):

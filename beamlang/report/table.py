@@ -39,6 +39,8 @@ def member_table(a: Analysis) -> str:
         lines.append(f"  {len(a.checks) - failed} of {len(a.checks)} checks pass" + (f", {failed} FAIL" if failed else ""))
     else:
         lines.append("  no checks requested (add `limit deflection ...` or `check stress ...`)")
+    if m.designations:
+        lines.append(f"  section: {m.designations}")
     lines += _required(a, u)
     return "\n".join(lines) + "\n"
 

@@ -11,6 +11,7 @@ from beamlang.model import essence
 from beamlang.pipeline import Analysis
 
 THRESHOLD = 0.05  # a check whose ratio moves by more than this (relative) is flagged
+QUANTITY = {"m": "deflection", "N*m": "moment", "N": "force", "Pa": "stress"}  # a result's SI unit -> report quantity
 
 
 @dataclass(frozen=True, slots=True)
@@ -94,8 +95,15 @@ def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshol
     inputs = tuple(input_changes(old.loaded.document, new.loaded.document))
     design = _design(old) != _design(new)
     statuses = _statuses(old, new, threshold)
-    deltas = tuple(_deltas(old, new)) if design else ()
-    return MemberDiff(name, "changed", new.units, design, inputs, statuses, deltas)
+    units = new.units
+    deltas = tuple(d for d in _deltas(old, new, units) if _shows_a_change(d, units)) if design else ()
+    return MemberDiff(name, "changed", units, design, inputs, statuses, deltas)
+
+
+def _shows_a_change(d: Delta, units: dict[str, str]) -> bool:
+    """A result is listed when its change shows at the printed precision: exact dust and zero changes are not."""
+    from beamlang.analysis.display import show
+    return show(d.old, units, QUANTITY[d.unit]) != show(d.new, units, QUANTITY[d.unit])
 
 
 def _design(a: Analysis):
@@ -189,6 +197,9 @@ def _compare(key: tuple, a: s.Statement, b: s.Statement) -> list[InputChange]:
     shape = lambda st: st.shape.text if isinstance(st, s.Section) else None  # noqa: E731
     if isinstance(a, (s.Material, s.Section)) and type(a) is type(b) and shape(a) == shape(b):
         out = _properties(_label(key), a, b)
+        if isinstance(a, s.Section) and a.designation != b.designation:
+            change = "changed" if a.designation and b.designation else ("added" if b.designation else "removed")
+            out.append(InputChange(change, f"{_label(key)} designation", a.designation, b.designation, b.span.line))
         where = lambda st: f"from {st.stretch.start} to {st.stretch.end}" if st.stretch else "whole member"  # noqa: E731
         if where(a) != where(b):
             out.append(InputChange("changed", f"{_label(key)} extent", where(a), where(b), b.span.line))
@@ -244,7 +255,7 @@ def _statuses(old: Analysis, new: Analysis, threshold: float) -> tuple[StatusCha
     return tuple(sorted(changes, key=lambda c: order[c.label]))
 
 
-def _deltas(old: Analysis, new: Analysis) -> list[Delta]:
+def _deltas(old: Analysis, new: Analysis, units: dict[str, str]) -> list[Delta]:
     out = []
     o = {r.name: r for r in old.results}
     for r in new.results:
@@ -256,9 +267,23 @@ def _deltas(old: Analysis, new: Analysis) -> list[Delta]:
             if (a[0] if a else None) != (b[0] if b else None):
                 out.append(Delta(r.name, label, unit, a[0] if a else None, b[0] if b else None,
                                  a[1] if a else None, b[1] if b else None))
-        for i, ((x, f, mo), (x2, f2, mo2)) in enumerate(zip(p.reactions, r.reactions)):
-            if f != f2:
-                out.append(Delta(r.name, f"reaction at support {i + 1}", "N", f, f2, x, x2))
+        out += _reactions(r.name, p.reactions, r.reactions, units)
+    return out
+
+
+def _reactions(target: str, old: tuple, new: tuple, units: dict[str, str]) -> list[Delta]:
+    """Reactions matched by the support's position and named by it as `check` names them (`reaction at 12 ft`)."""
+    from beamlang.analysis.display import convert, number
+    a, b = {x: (f, mo) for x, f, mo in old}, {x: (f, mo) for x, f, mo in new}
+    out = []
+    for x in sorted(set(a) | set(b)):
+        where = f"at {number(convert(x, units['length']))} {units['length']}"
+        (f1, m1), (f2, m2) = a.get(x, (None, None)), b.get(x, (None, None))
+        if f1 != f2:
+            out.append(Delta(target, f"reaction {where}", "N", f1, f2, x if x in a else None, x if x in b else None))
+        if (m1 or None) != (m2 or None):  # a moment only where a support takes one (fixed)
+            out.append(Delta(target, f"reaction moment {where}", "N*m", m1 or None, m2 or None,
+                             x if x in a else None, x if x in b else None))
     return out
 
 

@@ -5,13 +5,10 @@ from __future__ import annotations
 import json
 from fractions import Fraction
 
-from beamlang.tools.diff import MemberDiff
+from beamlang.tools.diff import QUANTITY, MemberDiff
 from beamlang.analysis.display import show
 
 SCHEMA = "beamlang.diff/1"
-
-
-QUANTITY = {"m": "deflection", "N*m": "moment", "N": "force", "Pa": "stress"}
 
 
 def _shown(value: Fraction | None, unit: str, units: dict) -> str:
@@ -19,7 +16,12 @@ def _shown(value: Fraction | None, unit: str, units: dict) -> str:
 
 
 def _pct(p: float | None) -> str:
-    return "" if p is None else f" ({p:+.1f} %)"
+    return "" if p is None else f" ({_percent(p)})"
+
+
+def _percent(p: float) -> str:
+    """+2.5 %; a change under 0.05 % keeps two significant digits instead of showing as 0.0 %."""
+    return f"{p:+.1f} %" if abs(p) >= 0.05 else f"{p:+.2g} %"
 
 
 def text(diffs: list[MemberDiff], colour: bool = False) -> str:
@@ -35,8 +37,9 @@ def text(diffs: list[MemberDiff], colour: bool = False) -> str:
             lines.append(f"  {ch.kind:<8} {ch.what}: " + _change(ch.old, ch.new) + (f"  (line {ch.line})" if ch.line else ""))
         for dl in d.deltas:
             where = ""
-            if dl.old_x is not None and dl.new_x is not None and dl.old_x != dl.new_x:
-                where = f" at x = {show(dl.old_x, d.units, 'length')} -> {show(dl.new_x, d.units, 'length')}"
+            moved = (show(dl.old_x, d.units, "length"), show(dl.new_x, d.units, "length"))
+            if dl.old_x is not None and dl.new_x is not None and moved[0] != moved[1]:
+                where = f" at x = {moved[0]} -> {moved[1]}"
             lines.append(f"  result   {dl.target}: {dl.quantity} {_shown(dl.old, dl.unit, d.units)} -> "
                          f"{_shown(dl.new, dl.unit, d.units)}{_pct(dl.percent)}{where}")
     return "\n".join(lines) + ("\n" if lines else "no .beam files to compare\n")
@@ -70,7 +73,7 @@ def markdown(diffs: list[MemberDiff]) -> str:
         if d.deltas:
             out += ["| case or combination | result | before | after | change of magnitude |", "|---|---|---|---|---|"]
             out += [f"| {dl.target} | {dl.quantity} | {_shown(dl.old, dl.unit, d.units)} | {_shown(dl.new, dl.unit, d.units)} | "
-                    f"{'' if dl.percent is None else f'{dl.percent:+.1f} %'} |" for dl in d.deltas]
+                    f"{'' if dl.percent is None else _percent(dl.percent)} |" for dl in d.deltas]
             out.append("")
     return "\n".join(out) + "\n"
 

@@ -7,6 +7,7 @@ whose `section` cell is the text after the keyword `section` in a `.beam` file, 
 from __future__ import annotations
 
 import csv
+import re
 from dataclasses import dataclass
 from fractions import Fraction
 from pathlib import Path
@@ -34,8 +35,11 @@ def read_catalogue(path: Path) -> list[tuple[int, str, str]]:
     """(line, name, section text) rows; a malformed catalogue is an input error."""
     try:
         text = path.read_text(encoding="utf-8")
-    except (OSError, UnicodeDecodeError) as exc:
-        raise BeamError([Diagnostic(Span(path.as_posix(), 1, 1, 2), f"cannot read the catalogue ({exc})")]) from None
+    except OSError as exc:
+        raise BeamError([Diagnostic(Span(path.as_posix(), 1, 1, 2), f"cannot read the catalogue ({exc.strerror})")]) from None
+    except UnicodeDecodeError:
+        raise BeamError([Diagnostic(Span(path.as_posix(), 1, 1, 2), "the catalogue is not UTF-8 text",
+                                    "save it as UTF-8")]) from None
     rows, header = [], None
     for number, line in enumerate(text.splitlines(), start=1):
         if not line.strip() or line.lstrip().startswith("#"):
@@ -57,6 +61,18 @@ def read_catalogue(path: Path) -> list[tuple[int, str, str]]:
 SHIPPED = Path(__file__).resolve().parents[1] / "catalogues"
 
 
+def _found(name: str, folder: Path) -> Path | None:
+    """`name` as a path from `folder`, else the file name of a catalogue shipped with beamlang."""
+    for candidate in (folder / name, SHIPPED / name):
+        if candidate.is_file():
+            return candidate
+    return None
+
+
+def _shipped_hint() -> str:
+    return "the shipped catalogues are: " + ", ".join(sorted(p.name for p in SHIPPED.glob("*.csv")))
+
+
 def catalogue_of(item: Loaded) -> Path:
     """The catalogue named by the member's `catalogue` line: a path from the member's folder, or the
     file name of a catalogue shipped with beamlang (beamlang/catalogues/)."""
@@ -65,13 +81,20 @@ def catalogue_of(item: Loaded) -> Path:
         raise BeamError([Diagnostic(Span(item.source.name, 1, 1, 2), "no catalogue to size from",
                                     "give `--catalogue FILE.csv`, or add e.g. `catalogue \"sawn-lumber-ps20.csv\"` "
                                     "to the member")])
-    folder = Path(item.path).parent if item.path is not None else Path(".")
-    for candidate in (folder / line.path, SHIPPED / line.path):
-        if candidate.is_file():
-            return candidate
-    shipped = ", ".join(sorted(p.name for p in SHIPPED.glob("*.csv")))
-    raise BeamError([Diagnostic(line.span, f"catalogue '{line.path}' not found beside the member or among the "
-                                "shipped ones", f"the shipped catalogues are: {shipped}")], item.source)
+    found = _found(line.path, Path(item.path).parent if item.path is not None else Path("."))
+    if found is None:
+        raise BeamError([Diagnostic(line.span, f"catalogue '{line.path}' not found beside the member or among the "
+                                    "shipped ones", _shipped_hint())], item.source)
+    return found
+
+
+def catalogue_named(name: str) -> Path:
+    """`--catalogue NAME`: a path from the current folder, or the file name of a shipped catalogue."""
+    found = _found(name, Path("."))
+    if found is None:
+        raise BeamError([Diagnostic(Span(name, 1, 1, 2), f"catalogue '{name}' not found here or among the shipped ones",
+                                    _shipped_hint())])
+    return found
 
 
 def shown(path: Path) -> str:
@@ -79,15 +102,42 @@ def shown(path: Path) -> str:
     return f"beamlang/catalogues/{path.name}" if path.resolve().parent == SHIPPED else path.as_posix()
 
 
-def with_section(item: Loaded, section_text: str) -> str:
-    """The member's file text with its section line replaced, indentation and comment kept."""
+def with_section(item: Loaded, section_text: str, designation: str | None = None, others: tuple[str, ...] = ()) -> str:
+    """The member's file text with its section line replaced (`section "designation" TEXT`), indentation kept,
+    and its comment kept with every name of `others` (the sections it no longer holds) made `designation`."""
     line = next(ln for ln in item.document.lines if isinstance(ln.statement, s.Section))
     lines = item.source.text.splitlines(keepends=True)
     old = lines[line.number - 1]
     indent = old[: len(old) - len(old.lstrip())]
     ending = "\n" if old.endswith("\n") else ""
-    lines[line.number - 1] = f"{indent}section {section_text}" + (f"  {line.comment}" if line.comment else "") + ending
+    named = f"{_quote(designation)} " if designation is not None else ""
+    comment = renamed(line.comment, others, designation) if line.comment and designation else line.comment
+    lines[line.number - 1] = f"{indent}section {named}{section_text}" + (f"  {comment}" if comment else "") + ending
     return "".join(lines)
+
+
+def renamed(comment: str, others: tuple[str, ...], designation: str) -> str:
+    """A comment that names another section (`# 2x8 trial`) names the chosen one instead (`# 2x12 trial`)."""
+    names = sorted({n for n in others if n and n != designation}, key=lambda n: (-len(n), n))
+    if not names:
+        return comment
+    pattern = re.compile(r"(?<![\w.])(?:" + "|".join(re.escape(n) for n in names) + r")(?![\w.])")
+    return pattern.sub(lambda _: designation, comment)
+
+
+def _quote(text: str) -> str:
+    return '"' + text.replace("\\", "\\\\").replace('"', '\\"') + '"'
+
+
+def section_line(item: Loaded, text: str) -> str:
+    """The section line of `text` (the member's file rewritten by `with_section`), as it reads there."""
+    line = next(ln for ln in item.document.lines if isinstance(ln.statement, s.Section))
+    return text.splitlines()[line.number - 1].strip()
+
+
+def designation_of(item: Loaded) -> str | None:
+    """The name on the member's section line, if it has one."""
+    return next((st.designation for _, st in item.document.statements if isinstance(st, s.Section)), None)
 
 
 def try_all(item: Loaded, catalogue: list[tuple[int, str, str]], catalogue_name: str) -> list[Trial]:
@@ -100,7 +150,7 @@ def try_all(item: Loaded, catalogue: list[tuple[int, str, str]], catalogue_name:
                         item.source)
     trials = []
     for number, name, section in catalogue:
-        source = Source(f"{catalogue_name}:{number}", with_section(item, section))
+        source = Source(f"{catalogue_name}:{number}", with_section(item, section, name))
         try:
             a = analyse_loaded(from_source(source, item.path))
         except BeamError as exc:

@@ -163,7 +163,7 @@ def section(ctx: Context, st: s.Section) -> m.SectionProperties | None:
     if flange_t is not None:
         dims += (("flange thickness", flange_t),)
     return m.SectionProperties(shape, dims, props["I"], props["A"], props["c"], props["S"],
-                               props["Q"], props["t"], st.span)
+                               props["Q"], props["t"], st.span, st.designation)
 
 
 def _flange_thickness(ctx: Context, st: s.Section) -> Fraction | None:
