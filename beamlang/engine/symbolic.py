@@ -10,10 +10,13 @@ for all of them, one fixed-end load 8.9 s -> 0.5 s). Used only by the calc packa
 from __future__ import annotations
 
 import dataclasses
+from bisect import bisect_left
 from dataclasses import dataclass
 from fractions import Fraction
 
+from beamlang.exact import Q
 from beamlang.model import Load, Member, MomentLoad, PointLoad, Settlement
+from beamlang.poly import Poly
 
 
 @dataclass(frozen=True, slots=True, eq=False)
@@ -97,12 +100,7 @@ def symbolic_member(member: Member, load: Load) -> tuple[Member, Load, dict[str,
 def _names(member: Member, load: Load) -> dict[str, Fraction]:
     """The symbols the member and load need, in the order they are met, with their values."""
     names: dict[str, Fraction] = {}
-
-    def note(name: str, value: Fraction) -> Fraction:
-        names[name] = value
-        return Fraction(value)
-
-    _build(member, load, note)
+    _build(member, load, _noted(names))
     return names
 
 
@@ -166,19 +164,119 @@ def worth_deriving(member: Member, redundants: int) -> bool:
 
 
 def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fraction, object]], dict[str, Fraction]]:
-    """[(segment start, end, v(x) as a sympy expression)] for one load alone, and the symbols' values."""
+    """[(segment start, end, v(x) as a sympy expression)] for one load alone, and the symbols' values.
+
+    The formula depends on the numbers only through the layout (which segment lies where), so it is derived
+    once per layout and reused: a formula derived before for the same kind of load, signs, symbols, supports
+    and order of positions is taken when, evaluated at this load's values, it gives exactly the curve the
+    engine finds for this load alone (else this load's own formula is derived)."""
+    from beamlang.engine.solve import solve
+    names: dict[str, Fraction] = {}
+    numeric, _ = _build(member, load, _noted(names))
+    probe = solve(numeric)  # the same member and load in plain exact numbers: fast
+    key = _layout(member, load, names, numeric)
+    values = tuple(names.values())
+    pieces = probe.targets[0].curves.v.pieces
+    for derived in _DERIVED.get(key, ()):
+        if derived.agrees(values, pieces):
+            return _segments(probe.xs, derived.exprs), names
+    derived, xs = _derive(member, load)
+    if len(_DERIVED) >= _LAYOUTS:
+        _DERIVED.clear()  # a batch of many members: keep memory flat
+    _DERIVED.setdefault(key, []).append(derived)
+    return _segments(xs, derived.exprs), names
+
+
+_LAYOUTS = 256  # derived formulas kept per process, by layout
+
+
+@dataclass(frozen=True, slots=True)
+class _Derived:
+    """One load's formula per segment: factored for display, and as exact coefficient functions to reuse it."""
+
+    exprs: tuple  # v(x) per segment, a factored sympy expression
+    coeffs: tuple  # per segment, per power of x: a number, or (numerator terms, denominator terms) in the symbols
+
+    def agrees(self, values: tuple, pieces: tuple) -> bool:
+        """Whether these formulas, at the symbols' `values`, are exactly the polynomials `pieces`."""
+        if len(pieces) != len(self.coeffs):
+            return False
+        return all(Poly.of(*(_evaluate(c, values) for c in cs)) == p for cs, p in zip(self.coeffs, pieces))
+
+
+_DERIVED: dict[tuple, list[_Derived]] = {}
+
+
+def _noted(names: dict[str, Fraction]):
+    """A `sym` for `_build` that records each symbol's value in `names` and gives back the plain number."""
+    def note(name: str, value: Fraction) -> Fraction:
+        names[name] = value
+        return value
+    return note
+
+
+def _layout(member: Member, load: Load, names: dict, numeric: Member) -> tuple:
+    """What a formula can depend on besides the symbols' values: the load's kind and signs, the symbols, the
+    supports' kinds and the order of every position (ties included)."""
+    ld = numeric.cases[0].loads[0]
+    at = [sp.x for sp in numeric.supports] + [getattr(ld, k) for k in ("x", "x1", "x2") if hasattr(ld, k)]
+    order = sorted({Fraction(0), numeric.length, *at})
+    signs = tuple(1 if v > 0 else (-1 if v < 0 else 0) for v in _magnitudes(ld))
+    return (type(load).__name__, signs, tuple(names), tuple(sp.kind for sp in member.supports),
+            len(member.hinges), len(member.stretches), tuple(bisect_left(order, x) for x in at))
+
+
+def _magnitudes(load: Load) -> tuple:
+    if isinstance(load, PointLoad):
+        return (load.force,)
+    if isinstance(load, MomentLoad):
+        return (load.moment,)
+    if isinstance(load, Settlement):
+        return (load.movement,)
+    return (load.w1, load.w2)
+
+
+def _derive(member: Member, load: Load) -> tuple[_Derived, tuple]:
+    """The load's formula derived by the solver on symbols, and the segment ends it found."""
     import sympy
 
     from beamlang.engine.solve import solve
-    m, _, names = symbolic_member(member, load)
+    m, _, _ = symbolic_member(member, load)
     sol = solve(m)
     x = sympy.Symbol("x")
-    out = []
-    for k, p in enumerate(sol.targets[0].curves.v.pieces):
+    exprs, coeffs = [], []
+    for p in sol.targets[0].curves.v.pieces:
         expr = sum((_expr(c) * x**i for i, c in enumerate(p.coeffs)), sympy.Integer(0))
-        a, b = sol.xs[k], sol.xs[k + 1]
-        out.append((_value(a), _value(b), sympy.factor(sympy.together(expr))))
-    return out, names
+        exprs.append(sympy.factor(sympy.together(expr)))
+        coeffs.append(tuple(_terms(c) for c in p.coeffs))
+    return _Derived(tuple(exprs), tuple(coeffs)), sol.xs
+
+
+def _segments(xs, exprs) -> list[tuple[Fraction, Fraction, object]]:
+    return [(_value(a), _value(b), e) for a, b, e in zip(xs, xs[1:], exprs)]
+
+
+def _terms(c):
+    """A coefficient as exact data: a number, or the terms (exponents, rational) of its numerator and denominator."""
+    if not isinstance(c, Sym):
+        return Fraction(c)
+    def terms(poly) -> tuple:
+        return tuple((monom, Q(int(k.numerator), int(k.denominator))) for monom, k in poly.terms())
+    return terms(c.expr.numer), terms(c.expr.denom)
+
+
+def _evaluate(c, values: tuple) -> Fraction:
+    if not isinstance(c, tuple):
+        return c
+    def at(terms) -> Fraction:
+        total = Q(0)
+        for monom, k in terms:
+            for v, e in zip(values, monom):
+                if e:
+                    k = k * v**e
+            total += k
+        return total
+    return at(c[0]) / at(c[1])
 
 
 def _expr(c):

@@ -43,14 +43,21 @@ def limit_lines(ax, m, r, u: dict) -> None:
 
 
 def sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
-    """Points on every segment, both sides of each breakpoint (jumps stay vertical)."""
+    """Points on every segment, both sides of each breakpoint (jumps stay vertical). The values are floats
+    from the exact coefficients of each piece in h = x - (segment start), converted to `unit` exactly first:
+    short, well-conditioned sums (the marked extremes are drawn from their exact values)."""
+    factor = convert(Fraction(1), unit)
     xs, ys = [], []
     for k, p in enumerate(curve.pieces):
         a, b = curve.xs[k], curve.xs[k + 1]
+        coeffs = [float(c * factor) for c in reversed(p.taylor(a).coeffs)]
+        step = float(b - a) / SAMPLES_PER_SEGMENT
         for i in range(SAMPLES_PER_SEGMENT + 1):
-            x = a + (b - a) * Fraction(i, SAMPLES_PER_SEGMENT)
-            xs.append(x)
-            ys.append(float(convert(p(x), unit)))
+            xs.append(a + (b - a) * Fraction(i, SAMPLES_PER_SEGMENT))
+            h, y = step * i, 0.0
+            for c in coeffs:
+                y = y * h + c
+            ys.append(y)
     return xs, ys
 
 
