@@ -79,8 +79,8 @@ def test_exit_code_is_one_when_a_check_fails(capsys, tmp_path, monkeypatch):
     assert main(["check", "f.beam"]) == 1
     out = capsys.readouterr().out
     # 5 w L^4 / (384 E I) = 5 * 5000 * 6^4 / (384 * 16e6) m = 5.273 mm: passes span/360, fails 1 mm
-    assert "deflection a  5.273 mm  16.67 mm  0.316  PASS" in out
-    assert "deflection a  5.273 mm  1 mm      5.273  FAIL" in out
+    assert "deflection a, span 1, 0 m to 6 m  5.273 mm  16.67 mm  0.316    PASS" in out
+    assert "deflection a                      5.273 mm  1 mm      5.273 <  FAIL" in out
     assert "1 of 2 checks pass, 1 FAIL" in out
 
 

@@ -19,7 +19,7 @@ def test_rebuild_reports_status_changes(tmp_path, monkeypatch):
     beam = tmp_path / "b3.beam"
     beam.write_text(beam.read_text(encoding="utf-8").replace("point 12 kN", "point 60 kN"), encoding="utf-8")
     (line,) = rebuild([Path("b3.beam")], Path("out"), previous)
-    assert line == "rebuilt out/B-3: 3 of 4 checks pass; deflection live (line 30) PASS -> FAIL"
+    assert line == "rebuilt out/B-3: 3 of 4 checks pass; deflection live span 1 (line 30) PASS -> FAIL"
     beam.write_text("span 4\n", encoding="utf-8")
     (line,) = rebuild([Path("b3.beam")], Path("out"), previous)
     assert line.startswith("b3.beam: input errors, package not rebuilt\nb3.beam:1:6: error: this number needs its unit")
@@ -44,4 +44,4 @@ def test_watch_loop_rebuilds_on_save(tmp_path, monkeypatch):
     stop.set()
     worker.join(timeout=10)
     assert said[0] == "rebuilt out/L-4: 3 of 3 checks pass"
-    assert said[2] == "rebuilt out/L-4: 2 of 3 checks pass; deflection dead (line 19) PASS -> FAIL"
+    assert said[2] == "rebuilt out/L-4: 2 of 3 checks pass; deflection dead span 1 (line 19) PASS -> FAIL"

@@ -5,8 +5,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from beamlang.analysis.results import TargetResult
-from beamlang.engine.extrema import SAME
+from beamlang.analysis.results import Region, TargetResult
+from beamlang.engine.extrema import Located
 from beamlang.exact import plain
 from beamlang.model import Member
 from beamlang.source import Span
@@ -28,13 +28,22 @@ class Check:
     basis: str  # how the allowed value was found
     span: Span
     region: str = ""  # span | overhang | cantilever, for span/N limits
+    place: str = ""  # "span 2", "left overhang", "cantilever": a span/N limit gives one check per span and overhang
+    lo: Fraction | None = None  # the ends of that span or overhang (m)
+    hi: Fraction | None = None
+    divisor: Fraction | None = None  # N of span/N
+    length: Fraction | None = None  # the length span/N refers to (m): the span, or twice the overhang
+    at: Located | None = None  # the governing deflection, or the moment or shear that gives the stress
+    stretch: int | None = None  # stress: index of the stretch whose section and material give it
+    strength: str = ""  # stress: what the allowed value is ("yield", "shear", "von Mises")
 
     @property
     def label(self) -> str:
-        """How the check is named wherever it is listed: kind, target and input line (and the support,
-        for a slope limit, which gives one check per support)."""
+        """How the check is named wherever it is listed: kind, target, the span or overhang of a span/N limit,
+        and input line (and the support, for a slope limit, which gives one check per support)."""
         where = f" at x = {plain(self.x)} m" if self.kind == "support slope" else ""
-        return f"{self.kind} {self.target}{where} (line {self.span.line})"
+        place = f" {self.place}" if self.place else ""
+        return f"{self.kind} {self.target}{place}{where} (line {self.span.line})"
 
     @property
     def ratio(self) -> float:
@@ -46,28 +55,28 @@ def run_checks(member: Member, results: tuple[TargetResult, ...]) -> tuple[Check
     by_name = {r.name: r for r in results}
     out: list[Check] = []
     for limit in member.limits:
-        out.append(_deflection(limit, by_name[limit.target]))
+        out.extend(_deflection(limit, by_name[limit.target]))
     for limit in member.slope_limits:
         out.extend(_slopes(member, limit, results))
     for check in member.stress_checks:
         out.extend(_stress(member, check, by_name[check.target]))
-    return tuple(sorted(out, key=lambda c: (c.span.line, c.kind)))
+    return tuple(sorted(out, key=lambda c: (c.span.line, c.kind)))  # stable: spans stay in order
 
 
-def _deflection(limit, r: TargetResult) -> Check:
+def _deflection(limit, r: TargetResult) -> list[Check]:
+    """An absolute limit: one check on the largest deflection anywhere. A span/N limit: one check per span
+    (against that span's length) and per overhang or cantilever (against twice its length)."""
     if limit.value is not None:
         worst = max((l for l in (r.max_down, r.max_up) if l is not None), key=lambda l: abs(l.value), default=None)
         actual = abs(worst.value) if worst else Fraction(0)
-        return Check("deflection", limit.target, actual, limit.value, "m", actual <= limit.value,
-                     worst.x if worst else None, "absolute limit", limit.span)
-    best = None
-    for region in r.regions:
-        allowed = region.basis / limit.divisor
-        actual = abs(region.max_abs.value) if region.max_abs else Fraction(0)
-        # a larger ratio governs; equal ones (symmetry, to the precision of irrational places) keep the first
-        if best is None or actual / allowed > best[0] / best[1] * (1 + SAME):
-            best = (actual, allowed, region)
-    actual, allowed, region = best
+        return [Check("deflection", limit.target, actual, limit.value, "m", actual <= limit.value,
+                      worst.x if worst else None, "absolute limit", limit.span, at=worst)]
+    return [_span_check(limit, region) for region in r.regions]
+
+
+def _span_check(limit, region: Region) -> Check:
+    allowed = region.basis / limit.divisor
+    actual = abs(region.max_abs.value) if region.max_abs else Fraction(0)
     n = plain(limit.divisor)
     if region.kind == "span":
         basis = f"span/{n}, span {plain(region.hi - region.lo)} m from x = {plain(region.lo)} m"
@@ -76,7 +85,7 @@ def _deflection(limit, r: TargetResult) -> Check:
                  f"from x = {plain(region.lo)} m (twice the length: common practice)")
     x = region.max_abs.x if region.max_abs else None
     return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span,
-                 region.kind)
+                 region.kind, region.name, region.lo, region.hi, limit.divisor, region.basis, region.max_abs)
 
 
 def _stress(member: Member, check, r: TargetResult) -> list[Check]:
@@ -84,13 +93,16 @@ def _stress(member: Member, check, r: TargetResult) -> list[Check]:
     fy = st.yield_strength
     x = st.bending_at.x if st.bending_at else None
     out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy, x,
-                 "sigma = M c / I against the yield strength" + _where(member, st.bending_at), check.span)]
+                 "sigma = M c / I against the yield strength" + _where(member, st.bending_at), check.span,
+                 at=st.bending_at, stretch=st.bending_stretch, strength="yield")]
     if st.shear is not None:
+        given = st.shear_strength is not None
         allowed, basis = ((st.shear_strength, "tau = V Q / (I t) against the shear strength given with the material")
-                          if st.shear_strength is not None else
+                          if given else
                           (st.shear_fy / SQRT3, "tau = V Q / (I t) against fy/sqrt(3) (von Mises)"))
         out.append(Check("shear stress", check.target, st.shear, allowed, "Pa", st.shear_ok,
-                         st.shear_at.x if st.shear_at else None, basis + _where(member, st.shear_at), check.span))
+                         st.shear_at.x if st.shear_at else None, basis + _where(member, st.shear_at), check.span,
+                         at=st.shear_at, stretch=st.shear_stretch, strength="shear" if given else "von Mises"))
     return out
 
 

@@ -27,6 +27,7 @@ class Region:
     kind: str  # span | overhang | cantilever
     basis: Fraction  # length that span/N refers to: the span, or twice the overhang (common practice)
     max_abs: Located | None
+    name: str = ""  # "span 2", "left overhang", "right overhang", "cantilever": how the package names it
 
 
 @dataclass(frozen=True, slots=True)
@@ -40,6 +41,8 @@ class Stress:
     shear_at: Located | None = None
     shear_yield: Fraction | None = None  # of the stretch where shear governs
     shear_strength: Fraction | None = None  # that stretch's material's own shear strength, where given
+    bending_stretch: int | None = None  # index of the stretch where bending governs (its section and material)
+    shear_stretch: int | None = None  # index of the stretch where shear governs
 
     @property
     def elastic(self) -> bool | None:
@@ -175,11 +178,15 @@ def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
     xs = sorted({sp.x for sp in m.supports})
     bounds = region_bounds(m)
     out = []
+    spans = 0
     for lo, hi in zip(bounds, bounds[1:]):
         inside = any(x <= lo for x in xs) and any(x >= hi for x in xs)
         kind = "span" if inside else ("cantilever" if len(xs) == 1 and m.supports[0].kind == "fixed" else "overhang")
         basis = hi - lo if inside else 2 * (hi - lo)
-        out.append(Region(lo, hi, kind, basis, largest_abs([d for d in defl if lo <= d.x <= hi])))
+        spans += inside
+        name = (f"span {spans}" if inside else kind if kind == "cantilever" else
+                f"{'left' if lo == 0 else 'right'} overhang")
+        out.append(Region(lo, hi, kind, basis, largest_abs([d for d in defl if lo <= d.x <= hi]), name))
     return tuple(out)
 
 
@@ -187,8 +194,8 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
     """M c / I and V Q / (I t) in every stretch with its own section; the largest ratio to the stretch's
     yield governs (on a stepped member it may sit at a step rather than at the largest |M|)."""
     m = sol.member
-    bending = shearing = None  # (ratio key, stress, located, fy[, shear strength])
-    for st in m.stretches:
+    bending = shearing = None  # (ratio key, stress, located, fy, stretch index[, shear strength])
+    for k, st in enumerate(m.stretches):
         sec, fy, fv = st.section, st.material.yield_strength, st.material.shear_strength
         inside = lambda c: _in_stretch(sol, c, st)  # noqa: E731
         ms = [c for c in moment if inside(c)]
@@ -197,17 +204,18 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
         big_m = abs(at.value) if at else Fraction(0)
         sigma = big_m * sec.c / sec.I if sec.c is not None else (big_m / sec.S if sec.S is not None else None)
         if sigma is not None and (bending is None or _ratio(sigma, fy) > bending[0]):
-            bending = (_ratio(sigma, fy), sigma, at, fy)
+            bending = (_ratio(sigma, fy), sigma, at, fy, k)
         if sec.Q is not None and sec.t is not None:
             v_at = largest_abs([c for c in shear if inside(c)])
             tau = (abs(v_at.value) if v_at else Fraction(0)) * sec.Q / (sec.I * sec.t)
             key = _shear_key(tau, fy, fv)
             if shearing is None or key > shearing[0]:
-                shearing = (key, tau, v_at, fy, fv)
+                shearing = (key, tau, v_at, fy, k, fv)
     fy0 = m.stretches[0].material.yield_strength
     return Stress(bending[1] if bending else None, shearing[1] if shearing else None,
                   bending[3] if bending else fy0, bending[2] if bending else None,
                   shearing[2] if shearing else None, shearing[3] if shearing else None,
+                  shearing[5] if shearing else None, bending[4] if bending else None,
                   shearing[4] if shearing else None)
 
 

@@ -2,33 +2,51 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import CHECK_QUANTITY, convert, number, show
+from beamlang.analysis.display import (CHECK_QUANTITY, at, check_name, convert, governing, number, place, scaled, show,
+                                       working_units)
+from beamlang.language import syntax
 from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
 from beamlang.report.moving_md import moving_section
-from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed
+from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed, x_range
 from beamlang.report.tex import cell, md, num, plain, poly
 
 
 def summary(a: Analysis) -> list[str]:
     u = a.units
-    lines = ["## Summary", ""]
+    lines = ["## Summary", ""] + designation(a)
     if not a.checks:
         return lines + ["No checks are requested in the input file.", ""]
+    worst = governing(a.checks)
     lines += ["| check | case or combination | actual | allowed | ratio | result | governs at | input line |",
               "|---|---|---|---|---|---|---|---|"]
     for c in a.checks:
         q = CHECK_QUANTITY[c.unit]
-        where = f"x = {number(convert(c.x, u['length']))} {u['length']}" if c.x is not None else "-"
-        if c.region:
-            where += f" ({c.region})"
+        name = c.kind + (f", {place(c, u)}" if c.place else "")
+        ratio = f"**{c.ratio:.3f}** (governs)" if c is worst else f"{c.ratio:.3f}"
         result = "**PASS**" if c.passed else "**FAIL**"
-        lines.append(f"| {c.kind} | {md(c.target)} | {show(c.actual, u, q)} | {show(c.allowed, u, q)} | "
-                     f"{c.ratio:.3f} | {result} | {where} | {c.span.line} |")
+        lines.append(f"| {name} | {md(c.target)} | {show(c.actual, u, q)} | {show(c.allowed, u, q)} | "
+                     f"{ratio} | {result} | {at(c, u)} | {c.span.line} |")
     failed = sum(not c.passed for c in a.checks)
-    verdict = "All checks pass." if not failed else f"{failed} of {len(a.checks)} checks FAIL."
     named = [f"Section {md(a.loaded.member.designations)}.", ""] if a.loaded.member.designations else []
-    return lines + ["", verdict, ""] + named
+    verdict = (f"All {len(a.checks)} checks pass." if not failed else f"{failed} of {len(a.checks)} checks FAIL.")
+    return lines + ["", f"{verdict} Governing check: {md(check_name(worst, u))} (input line {worst.span.line}), "
+                    f"ratio {worst.ratio:.3f}, {'PASS' if worst.passed else 'FAIL'}.", ""] + named
+
+
+def designation(a: Analysis) -> list[str]:
+    """The member's section and material as written (and the catalogue row the section was taken from)."""
+    from beamlang.language.catalogue import designation as catalogue_row
+    from beamlang.language.fmt import statement_text
+    doc = a.loaded.document
+    row = catalogue_row(a.loaded)
+    out = []
+    for line, st in doc.statements:
+        if isinstance(st, (syntax.Section, syntax.Material)):
+            what = "Section" if isinstance(st, syntax.Section) else "Material"
+            named = f", {md(row[0])} from the catalogue {md(row[1])}" if row and what == "Section" else ""
+            out.append(f"- {what}: `{cell(statement_text(st))}` (input line {line.number}{named})")
+    return out + [""]
 
 
 def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None = None) -> list[str]:
@@ -116,7 +134,8 @@ def _reactions(a: Analysis, r) -> list[str]:
 def _moment_search(a: Analysis, r) -> list[str]:
     u = a.units
     zeros = [x for x in r.moment_candidates if x.reason == "derivative zero"]
-    found = ", ".join(f"x = {_where(z)} m" for z in zeros) or "none inside a segment"
+    L = u["length"]
+    found = ", ".join(f"x = {_where(z, L)} {L}" for z in zeros) or "none inside a segment"
     lines = ["### Shear and moment", "",
              f"Extreme moments are at segment ends (both sides of each) or where V(x) = 0 inside a segment: {found}.", ""]
     for label, loc in (("largest sagging moment", r.moment_positive), ("largest hogging moment", r.moment_negative),
@@ -130,19 +149,21 @@ def _moment_search(a: Analysis, r) -> list[str]:
 
 def _deflection_search(a: Analysis, t, r) -> list[str]:
     u = a.units
+    L = working_units(u)["length"]
     c, xs = t.curves, a.solution.xs
     cands = r.deflection_candidates
     lines = ["### Where the deflection is largest", "",
              "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
-             "θ(x) = 0 is solved exactly; its roots inside the segment, and both ends of every segment, are "
-             "the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |", "|---|---|---|"]
+             f"θ(x) = 0 (θ in rad, x in {L}) is solved exactly; its roots inside the segment, and both ends of every "
+             "segment, are the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |",
+             "|---|---|---|"]
     for k, p in enumerate(c.theta.pieces):
         roots = [x for x in cands if x.reason == "derivative zero" and x.segment == k]
-        text = "; ".join(_root_text(x) for x in roots) or "none"
-        lines.append(f"| {plain(xs[k])} ≤ x ≤ {plain(xs[k + 1])} | ${poly(p)} = 0$ | {text} |")
-    lines += ["", "| candidate x | why | v |", "|---|---|---|"]
+        text = "; ".join(_root_text(x, L) for x in roots) or "none"
+        lines.append(f"| {x_range(xs[k], xs[k + 1], L)} | ${poly(scaled(p, L, 'rad'))} = 0$ | {text} |")
+    lines += ["", f"| candidate x ({L}) | why | v |", "|---|---|---|"]
     for x in _unique(cands):
-        lines.append(f"| {_where(x)} m | {x.reason} | {show(x.value, u, 'deflection', 6)} |")
+        lines.append(f"| {_where(x, L)} | {x.reason} | {show(x.value, u, 'deflection', 6)} |")
     down = f"{show(r.max_down.value, u, 'deflection', 6)} at x = {_places(r.max_down, u)}" if r.max_down else "none"
     up = f"{show(r.max_up.value, u, 'deflection', 6)} at x = {_places(r.max_up, u)}" if r.max_up else "none"
     return lines + ["", f"Governing: largest downward deflection {down}; largest upward deflection {up}.", ""]
@@ -157,22 +178,24 @@ def _unique(cands: list) -> list:
     return out
 
 
-def _root_text(x) -> str:
+def _root_text(x, L: str) -> str:
+    """A root of the slope in the length unit shown: closed form for a quadratic factor, else its interval."""
     if x.root is None:
-        return f"x = {plain(x.x, 10)} (rational, exact)"
-    q = root_factor(x.root.poly)
+        return f"x = {plain(convert(x.x, L), 10)} (rational, exact)"
+    q = scaled(root_factor(x.root.poly), L, "rad")
+    xl = convert(x.x, L)
     if q.degree == 2:
         c0, c1, c2 = q.coeffs
         disc = c1 * c1 - 4 * c0 * c2
-        sign = "+" if x.x > -c1 / (2 * c2) else "-"
-        return f"x = $\\frac{{{num(-c1)} {sign} \\sqrt{{{num(disc)}}}}}{{{num(2 * c2)}}}$ = {plain(x.x, 10)}"
-    width = plain(x.root.hi - x.root.lo, 2)
-    return (f"x = {plain(x.x, 10)}, a root of the degree-{q.degree} factor (irrational; isolated exactly "
-            f"in an interval {width} m wide)")
+        sign = "+" if xl > -c1 / (2 * c2) else "-"
+        return f"x = $\\frac{{{num(-c1)} {sign} \\sqrt{{{num(disc)}}}}}{{{num(2 * c2)}}}$ = {plain(xl, 10)}"
+    width = plain(convert(x.root.hi - x.root.lo, L), 2)
+    return (f"x = {plain(xl, 10)}, a root of the degree-{q.degree} factor (irrational; isolated exactly "
+            f"in an interval {width} {L} wide)")
 
 
-def _where(x) -> str:
-    return plain(x.x, 8)
+def _where(x, L: str = "m") -> str:
+    return plain(convert(x.x, L), 8)
 
 
 def _places(loc, u) -> str:
@@ -206,25 +229,6 @@ def envelope(a: Analysis, figure: str) -> list[str]:
              "moving group; the figure draws the static part only.", ""] if moving else [])
     return ["## Envelope", "", "| case or combination | largest M+ | largest M- | largest down | largest up |",
             "|---|---|---|---|---|", *rows, "", *note, f"![Envelope of moment and deflection]({figure})", ""]
-
-
-def checks_detail(a: Analysis) -> list[str]:
-    u = a.units
-    lines = ["## Checks", "", "| input line | check | case or combination | actual | allowed | ratio | basis | result |",
-             "|---|---|---|---|---|---|---|---|"]
-    for c in a.checks:
-        q = CHECK_QUANTITY[c.unit]
-        lines.append(f"| {c.span.line} | {c.kind} | {md(c.target)} | {show(c.actual, u, q, 6)} | {show(c.allowed, u, q, 6)} | "
-                     f"{c.ratio:.4f} | {cell(c.basis)} | {'PASS' if c.passed else 'FAIL'} |")
-    lines += ["", "Elastic range: superposition holds only while the member stays linear elastic.", ""]
-    for r in a.results:
-        st = r.stress
-        if st.bending is None:
-            continue
-        shear = show(st.shear, u, "stress") if st.shear is not None else "not computed (section given by properties)"
-        state = {True: "elastic", False: "NOT elastic: superposition is not valid", None: "no yield strength given"}[st.elastic]
-        lines.append(f"- {md(r.name)}: bending stress {show(st.bending, u, 'stress')}, shear stress {shear}: {state}.")
-    return lines + [""]
 
 
 def required(a: Analysis) -> list[str]:

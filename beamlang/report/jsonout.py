@@ -31,8 +31,18 @@ def member_json(a: Analysis) -> dict:
         "checks": [{
             "kind": c.kind, "target": c.target, "actual": float(c.actual), "allowed": float(c.allowed),
             "unit": c.unit, "ratio": c.ratio, "pass": c.passed,
-            "x_m": _f(c.x), "basis": c.basis} for c in a.checks],
+            "x_m": _f(c.x), "basis": c.basis, **_check_extra(c)} for c in a.checks],
     }
+
+
+def _check_extra(c) -> dict:
+    """Fields added to each check (the first ones above keep their names): its name and input line, the span or
+    overhang of a span/N limit (one check each), the side of a jump the governing value is taken on."""
+    out = {"label": c.label, "input_line": c.span.line, "side": (c.at.side or None) if c.at is not None else None}
+    if c.place:
+        out.update({"place": c.place, "region": c.region, "from_m": float(c.lo), "to_m": float(c.hi),
+                    "divisor": float(c.divisor), "length_m": float(c.length)})
+    return out
 
 
 def _required(a: Analysis) -> dict:

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from beamlang.pipeline import Analysis
 from beamlang.report import analysis_md as results
+from beamlang.report import checks_md
 from beamlang.report import sections
 
 
@@ -15,6 +16,6 @@ def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | N
     parts += [results.target(a, t.name, figures.get(t.name), figures.get(f"(moving) {t.name}"))
               for t in a.solution.targets]
     parts += [results.envelope(a, figures["(envelope)"])]
-    parts += [results.checks_detail(a), results.required(a), results.cross_check(a), sections.cautions(a),
+    parts += [checks_md.checks_detail(a), results.required(a), results.cross_check(a), sections.cautions(a),
               sections.traceability(a)]
     return "\n".join(line for part in parts for line in part).rstrip("\n") + "\n"

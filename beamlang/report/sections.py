@@ -13,7 +13,7 @@ from beamlang.language.sections import FORMULAS
 from beamlang.language.units import SHORTHANDS, factor_of
 from beamlang.pipeline import Analysis
 from beamlang.report.provenance import versions_text
-from beamlang.report.tex import cell, md, num, plain
+from beamlang.report.tex import cell, md, num, plain, quantity
 
 US_TOKENS = ("ft", "in", "lbf", "kip", "psi", "ksi", "lb")
 NIST = ("NIST SP 811 (2008), Appendix B: 1 ft = 0.3048 m, 1 in = 0.0254 m, 1 lbf = 4.4482216152605 N, "
@@ -128,18 +128,21 @@ def section_properties(a: Analysis) -> list[str]:
                      if mat.yield_strength else "")
                   + (f", shear strength fv = {number(convert(mat.shear_strength, stress), 6)} {stress}"
                      if mat.shear_strength else "")
-                  + (f", density = {number(mat.density, 6)} kg/m^3" if mat.density else "")
+                  + (f", density = {number(convert(mat.density, a.units['density']), 6)} {a.units['density']}"
+                     if mat.density else "")
                   + f" (input line {mat.span.line}).", ""]
+    ei = "N*m^2" if m.units == "si" else "kip*in^2"
     if not m.stepped:
-        return lines + [f"Flexural stiffness: $EI = {num(m.stretches[0].EI)}$ N·m².", ""]
+        return lines + [f"Flexural stiffness: $EI = {quantity(convert(m.stretches[0].EI, ei), ei)}$.", ""]
     length = a.units["length"]
     lines += ["The member is stepped: each stretch has its own flexural stiffness, and the curvature "
               "M(x)/EI(x) is integrated stretch by stretch (every change is a segment end).", "",
-              f"| stretch ({length}) | section (input line) | material (input line) | EI (N·m²) |", "|---|---|---|---|"]
+              f"| stretch ({length}) | section (input line) | material (input line) | EI ({ei.replace('*', '·')}) |",
+              "|---|---|---|---|"]
     for st in m.stretches:
         lines.append(f"| {number(convert(st.x1, length))} to {number(convert(st.x2, length))} | "
                      f"{_named(st.section)}{st.section.shape} (line {st.section.span.line}) | "
-                     f"{md(st.material.name or 'unnamed')} (line {st.material.span.line}) | ${num(st.EI)}$ |")
+                     f"{md(st.material.name or 'unnamed')} (line {st.material.span.line}) | ${num(convert(st.EI, ei))}$ |")
     return lines + [""]
 
 
@@ -173,13 +176,14 @@ def method(a: Analysis) -> list[str]:
     """The primary beam and the compatibility system shared by every case."""
     sol, m = a.solution, a.loaded.member
     p = sol.primary
-    kept = ", ".join(_kept(m, p, i) for i in sorted(p.supports))
-    lines = ["## Method", ""] + _hinge_text(m)
+    L = a.units["length"]
+    kept = ", ".join(_kept(m, p, i, L) for i in sorted(p.supports))
+    lines = ["## Method", ""] + _hinge_text(m, L)
     if not p.redundants:
         return lines + [f"The member is statically determinate: a {p.kind} beam on {kept}. Reactions follow "
                         "from statics" + (" (with zero moment at every hinge)" if m.hinges else "") +
                         "; each load's curve is M/EI integrated twice with the support conditions.", ""]
-    names = [_redundant_name(m, r, j) for j, r in enumerate(p.redundants, start=1)]
+    names = [_redundant_name(m, r, j, L) for j, r in enumerate(p.redundants, start=1)]
     lines += [f"The member is statically indeterminate to degree {len(p.redundants)}. Primary (released) beam: "
               f"a {p.kind} beam on {kept}. Redundants: " + "; ".join(names) + ".", "",
               "Compatibility: at every released restraint the displacement of the primary beam under the loads, "
@@ -187,40 +191,62 @@ def method(a: Analysis) -> list[str]:
               "(zero for a rigid support, -R/k for a spring, plus any prescribed settlement Δ). With unit "
               "redundants this is A X = Δ - D0 (Δ = 0 without settlements), where A "
               "holds the displacement (or slope) at restraint i due to a unit value of redundant j, plus 1/k "
-              "on the diagonal for springs:", "",
-              "$$A = " + _matrix(p.flexibility) + "$$", ""]
+              f"on the diagonal for springs ({_flexibility_units(a)}):", "",
+              "$$A = " + _matrix(p.flexibility, _matrix_units(a)) + "$$", ""]
     return lines
 
 
-def _kept(m, p, i: int) -> str:
+def _kept(m, p, i: int, L: str) -> str:
     sp = m.supports[i]
     released = " (its moment released)" if sp.kind == "fixed" and (i, "moment") not in {
         (r.support, r.kind) for r in p.kept} else ""
-    return f"{sp.kind} at x = {plain(sp.x)} m (line {sp.span.line}){released}"
+    return f"{sp.kind} at x = {plain(convert(sp.x, L))} {L} (line {sp.span.line}){released}"
 
 
-def _hinge_text(m) -> list[str]:
+def _hinge_text(m, L: str) -> list[str]:
     if not m.hinges:
         return []
-    where = ", ".join(f"x = {plain(h.x)} m (line {h.span.line})" for h in m.hinges)
+    where = ", ".join(f"x = {plain(convert(h.x, L))} {L} (line {h.span.line})" for h in m.hinges)
     return [f"Internal hinges at {where}. At each hinge the bending moment is zero, which gives statics one more "
             "equation per hinge, and the slope may jump: the elastic curve is continuous there but not smooth. "
             "Each hinge adds one unknown slope jump to the two constants of integration; the support "
             "conditions of the primary beam fix them all.", ""]
 
 
-def _redundant_name(m, r, j: int) -> str:
+def _redundant_name(m, r, j: int, L: str) -> str:
     sp = m.supports[r.support]
     what = "force" if r.kind == "force" else "moment"
-    return f"X{j} = reaction {what} of the {sp.kind} at x = {plain(sp.x)} m (line {sp.span.line})"
+    return f"X{j} = reaction {what} of the {sp.kind} at x = {plain(convert(sp.x, L))} {L} (line {sp.span.line})"
 
 
-def _matrix(rows) -> str:
-    return "\\begin{bmatrix}" + " \\\\ ".join(" & ".join(num(v) for v in row) for row in rows) + "\\end{bmatrix}"
+def _matrix_units(a: Analysis) -> list[list[str]]:
+    """The unit of each flexibility entry: the displacement at restraint i per unit redundant j."""
+    from beamlang.analysis.display import working_units
+    w = working_units(a.units)
+    kinds = [r.kind for r in a.solution.primary.redundants]
+    move = {"force": w["deflection"], "moment": "rad"}
+    load = {"force": w["force"], "moment": w["moment"]}
+    return [[f"{move[ki]}/({load[kj]})" if "*" in load[kj] else f"{move[ki]}/{load[kj]}" for kj in kinds]
+            for ki in kinds]
 
 
-def vector(values) -> str:
-    return "\\begin{bmatrix}" + " \\\\ ".join(num(v) for v in values) + "\\end{bmatrix}"
+def _flexibility_units(a: Analysis) -> str:
+    units = sorted({u for row in _matrix_units(a) for u in row})
+    return "A in " + ", ".join(u.replace("*", "·") for u in units)
+
+
+def _matrix(rows, units: list[list[str]] | None = None) -> str:
+    def entry(i: int, j: int, v) -> str:
+        return num(v) if units is None else num(convert(v, units[i][j]))
+    return ("\\begin{bmatrix}" + " \\\\ ".join(" & ".join(entry(i, j, v) for j, v in enumerate(row))
+                                                for i, row in enumerate(rows)) + "\\end{bmatrix}")
+
+
+def vector(values, units: list[str] | None = None) -> str:
+    """A column vector for LaTeX; with `units`, each SI entry converted and shown with its unit."""
+    if units is None:
+        return "\\begin{bmatrix}" + " \\\\ ".join(num(v) for v in values) + "\\end{bmatrix}"
+    return "\\begin{bmatrix}" + " \\\\ ".join(quantity(convert(v, u), u) for v, u in zip(values, units)) + "\\end{bmatrix}"
 
 
 CAUTIONS = [

@@ -3,32 +3,46 @@ compatibility equations, the superposed curves."""
 
 from __future__ import annotations
 
+from beamlang.analysis.display import convert, scaled, working_units
 from beamlang.analysis.working import formulas_shown, general_formula, load_deflection, settlements
 from beamlang.language.fmt import statement_text
 from beamlang.model import LineLoad
 from beamlang.pipeline import Analysis
 from beamlang.report.sections import vector
-from beamlang.report.tex import cell, num, plain, poly, sympy_tex
+from beamlang.report.selfweight import self_weight_lines
+from beamlang.report.formula_md import formula_lines
+from beamlang.report.tex import cell, plain, poly
 
 
 def loads_table(a: Analysis, t) -> list[str]:
     doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
-    rows = [f"| {ld.span.line} | `{cell(statement_text(doc_lines[ld.span.line]))}` | {_load_si(ld)} |" for ld in t.loads]
-    return ["### Loads", "", "| line | load as written | in SI (signs: up and counterclockwise positive) |",
-            "|---|---|---|", *rows, ""]
+    w = working_units(a.units)
+    rows = [f"| {ld.span.line} | `{cell(statement_text(doc_lines[ld.span.line]))}` | {_load_value(ld, w)} |"
+            for ld in t.loads]
+    units = "SI" if w["length"] == "m" else f"{w['force']}, {_dot(w['moment'])}, {w['line load']}, {w['length']}"
+    return ["### Loads", "", f"| line | load as written | in {units} (signs: up and counterclockwise positive) |",
+            "|---|---|---|", *rows, ""] + self_weight_lines(a, t)
 
 
-def _load_si(ld) -> str:
+def _load_value(ld, w: dict[str, str]) -> str:
     kind = type(ld).__name__
+    L, F, M, q, d = w["length"], w["force"], w["moment"], w["line load"], w["deflection"]
+    pos = lambda x: f"{plain(convert(x, L))} {L}"  # noqa: E731
     if kind == "PointLoad":
-        return f"P = {plain(ld.force)} N at x = {plain(ld.x)} m"
+        return f"P = {plain(convert(ld.force, F))} {F} at x = {pos(ld.x)}"
     if kind == "MomentLoad":
-        return f"C = {plain(ld.moment)} N·m at x = {plain(ld.x)} m"
+        return f"C = {plain(convert(ld.moment, M))} {_dot(M)} at x = {pos(ld.x)}"
     if kind == "Settlement":
-        return f"support at x = {plain(ld.x)} m moves Δ = {plain(ld.movement)} m (prescribed; carries no force)"
+        return (f"support at x = {pos(ld.x)} moves Δ = {plain(convert(ld.movement, d))} {d} "
+                "(prescribed; carries no force)")
     if ld.w1 == ld.w2:
-        return f"w = {plain(ld.w1)} N/m from x = {plain(ld.x1)} m to {plain(ld.x2)} m"
-    return f"w from {plain(ld.w1)} N/m at x = {plain(ld.x1)} m to {plain(ld.w2)} N/m at x = {plain(ld.x2)} m"
+        return f"w = {plain(convert(ld.w1, q))} {q} from x = {pos(ld.x1)} to {pos(ld.x2)}"
+    return (f"w from {plain(convert(ld.w1, q))} {q} at x = {pos(ld.x1)} to {plain(convert(ld.w2, q))} {q} "
+            f"at x = {pos(ld.x2)}")
+
+
+def _dot(unit: str) -> str:
+    return unit.replace("*", "·")
 
 
 def runs(xs, *curves):
@@ -43,12 +57,15 @@ def runs(xs, *curves):
     return out
 
 
-def x_range(start, end) -> str:
-    return f"{plain(start)} ≤ x ≤ {plain(end)}"
+def x_range(start, end, length: str = "m") -> str:
+    """A segment's ends in the length unit the curves are shown in."""
+    return f"{plain(convert(start, length))} ≤ x ≤ {plain(convert(end, length))}"
 
 
 def each_load(a: Analysis, t) -> list[str]:
     m = a.loaded.member
+    w = working_units(a.units)
+    L, d = w["length"], w["deflection"]
     symbolic = formulas_shown(a.solution)
     lines = ["### Each load's elastic curve", "",
              "Each load is solved alone on this member. " + (
@@ -56,35 +73,22 @@ def each_load(a: Analysis, t) -> list[str]:
                  "for this case), with the value of every symbol; then " if symbolic else
                  "(General formulas are not shown for members with springs, hinges, changes of section or more "
                  "than two redundants: they run to many lines.) ") +
-             "v(x) in m with x in m, coefficients shown to six significant digits (computed exactly). "
+             f"v(x) in {d} with x in {L}, coefficients shown to six significant digits (computed exactly). "
              "The case curve is their sum.", ""]
     xs = a.solution.xs
     for ld in t.loads:
         deflection = load_deflection(a.solution, ld)
         shared = sum(1 for other in t.loads if other.span.line == ld.span.line) > 1  # self-weight per stretch
-        where = f" ({plain(ld.x1)} m to {plain(ld.x2)} m)" if shared and isinstance(ld, LineLoad) else ""
+        where = (f" ({plain(convert(ld.x1, L))} {L} to {plain(convert(ld.x2, L))} {L})"
+                 if shared and isinstance(ld, LineLoad) else "")
         lines += [f"Load of line {ld.span.line}{where}:", ""]
         if symbolic:
-            lines += _formula(m, ld)
-        lines += ["| segment | v(x) |", "|---|---|"]
+            lines += formula_lines(a, ld)
+        lines += [f"| segment (x in {L}) | v(x) in {d} |", "|---|---|"]
         for start, end, (p,) in runs(xs, deflection):
-            lines.append(f"| {x_range(start, end)} | ${poly(p)}$ |")
+            lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(p, L, d))}$ |")
         lines.append("")
     return lines
-
-
-def _formula(m, ld) -> list[str]:
-    segments, names = general_formula(m, ld)
-    out = []
-    for start, end, expr in segments:
-        out += [f"$$v(x) = {sympy_tex(expr)} \\qquad ({plain(start)} \\le x \\le {plain(end)})$$", ""]
-    values = ", ".join(f"${_symbol(n)} = {num(v)}$" for n, v in names.items())
-    return out + [f"with {values} (SI units).", ""]
-
-
-def _symbol(name: str) -> str:
-    base, _, sub = name.partition("_")
-    return f"{base}_{{{sub}}}" if sub else base
 
 
 def compatibility(a: Analysis, t) -> list[str]:
@@ -92,28 +96,40 @@ def compatibility(a: Analysis, t) -> list[str]:
     if not p.redundants:
         return []
     s = t.solved
-    moved = settlements(a.loaded.member, s.loads)
-    delta = [moved.get(a.loaded.member.supports[r.support].x, 0) if r.kind == "force" else 0 for r in p.redundants]
+    m = a.loaded.member
+    w = working_units(a.units)
+    moved = settlements(m, s.loads)
+    delta = [moved.get(m.supports[r.support].x, 0) if r.kind == "force" else 0 for r in p.redundants]
+    move_units = [w["deflection"] if r.kind == "force" else "rad" for r in p.redundants]
+    force_units = [w["force"] if r.kind == "force" else w["moment"] for r in p.redundants]
+    d0 = vector(s.displacements, move_units)
+    x = vector(s.redundants, force_units)
+    names = "; ".join(f"X{j} the {'force' if r.kind == 'force' else 'moment'} of the "
+                      f"{m.supports[r.support].kind} at {plain(convert(m.supports[r.support].x, w['length']))} "
+                      f"{w['length']}" for j, r in enumerate(p.redundants, start=1))
     if not any(delta):
         return ["### Compatibility", "",
-                "Displacements of the primary beam at the released restraints under this case, and the "
-                "redundants solved exactly from A X = -D0:", "",
-                f"$$D_0 = {vector(s.displacements)}, \\qquad X = -A^{{-1}} D_0 = {vector(s.redundants)}$$", ""]
+                "Displacements D0 of the primary beam at the released restraints under this case, and the "
+                f"redundants solved exactly from A X = -D0 ({names}):", "",
+                f"$$D_0 = {d0}, \\qquad X = -A^{{-1}} D_0 = {x}$$", ""]
     return ["### Compatibility", "",
-            "Displacements of the primary beam at the released restraints under this case, the prescribed "
-            "settlements Δ there, and the redundants solved exactly from A X = Δ - D0:", "",
-            f"$$D_0 = {vector(s.displacements)}, \\qquad \\Delta = {vector(delta)}, \\qquad "
-            f"X = A^{{-1}} (\\Delta - D_0) = {vector(s.redundants)}$$", ""]
+            "Displacements D0 of the primary beam at the released restraints under this case, the prescribed "
+            f"settlements Δ there, and the redundants solved exactly from A X = Δ - D0 ({names}):", "",
+            f"$$D_0 = {d0}, \\qquad \\Delta = {vector(delta, move_units)}, \\qquad "
+            f"X = A^{{-1}} (\\Delta - D_0) = {x}$$", ""]
 
 
 def superposed(a: Analysis, t) -> list[str]:
     xs = a.solution.xs
     c = t.curves
-    lines = ["### Superposed curves", "", "The sums of the load curves; x in m.", "",
-             "| segment | V(x) in N | M(x) in N·m |", "|---|---|---|"]
-    for start, end, (V, M) in runs(xs, c.V, c.M):
-        lines.append(f"| {x_range(start, end)} | ${poly(V)}$ | ${poly(M)}$ |")
-    lines += ["", "| segment | θ(x) in rad | v(x) in m |", "|---|---|---|"]
+    w = working_units(a.units)
+    L, F, M, d = w["length"], w["force"], w["moment"], w["deflection"]
+    lines = ["### Superposed curves", "", f"The sums of the load curves; x in {L}.", "",
+             f"| segment | V(x) in {F} | M(x) in {_dot(M)} |", "|---|---|---|"]
+    for start, end, (V, Mx) in runs(xs, c.V, c.M):
+        lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(V, L, F))}$ | ${poly(scaled(Mx, L, M))}$ |")
+    lines += ["", f"θ(x) is the slope dv/dx in rad (v and x taken in the same unit); x in {L}.", "",
+              f"| segment | θ(x) in rad | v(x) in {d} |", "|---|---|---|"]
     for start, end, (theta, v) in runs(xs, c.theta, c.v):
-        lines.append(f"| {x_range(start, end)} | ${poly(theta)}$ | ${poly(v)}$ |")
+        lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(theta, L, 'rad'))}$ | ${poly(scaled(v, L, d))}$ |")
     return lines + [""]

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from beamlang.analysis.display import CHECK_QUANTITY, convert, number, show
+from beamlang.analysis.display import CHECK_QUANTITY, at, check_name, convert, governing, number, show
 from beamlang.pipeline import Analysis
 
 
@@ -28,15 +28,16 @@ def member_table(a: Analysis) -> str:
     lines += _grid(head, rows)
     if a.checks:
         rows = []
+        worst = governing(a.checks)
         for c in a.checks:
             quantity = CHECK_QUANTITY[c.unit]
-            where = f"x = {number(convert(c.x, L))} {L}" if c.x is not None else ""
-            where += f" ({c.region})" if c.region else ""
-            rows.append([f"{c.kind} {c.target}", show(c.actual, u, quantity), show(c.allowed, u, quantity),
-                         f"{c.ratio:.3f}", "PASS" if c.passed else "FAIL", where])
+            where = at(c, u) if c.x is not None else ""
+            rows.append([check_name(c, u), show(c.actual, u, quantity), show(c.allowed, u, quantity),
+                         f"{c.ratio:.3f}" + (" <" if c is worst else ""), "PASS" if c.passed else "FAIL", where])
         lines += [""] + _grid(["check", "actual", "allowed", "ratio", "result", "governs at"], rows)
         failed = sum(1 for c in a.checks if not c.passed)
-        lines.append(f"  {len(a.checks) - failed} of {len(a.checks)} checks pass" + (f", {failed} FAIL" if failed else ""))
+        lines.append(f"  {len(a.checks) - failed} of {len(a.checks)} checks pass" + (f", {failed} FAIL" if failed else "")
+                     + f"; governing (<): {check_name(worst, u)}, ratio {worst.ratio:.3f}")
     else:
         lines.append("  no checks requested (add `limit deflection ...` or `check stress ...`)")
     if m.designations:

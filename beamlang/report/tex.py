@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from fractions import Fraction
 
 from beamlang.analysis.display import number
@@ -9,6 +10,7 @@ from beamlang.poly import Poly
 
 DIGITS = 6  # significant digits shown for computed values (all arithmetic is exact)
 _MD_SPECIAL = set("\\`*_{}[]()#+-.!|<>$~&")
+_UNIT_OPERATORS = re.compile(r"([*/])")
 
 
 def plain(value: Fraction | float, digits: int = DIGITS) -> str:
@@ -61,3 +63,21 @@ def sympy_tex(expr) -> str:
     """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML)."""
     import sympy
     return sympy.latex(expr).replace("\\left(", "(").replace("\\right)", ")")
+
+
+def unit(spelling: str) -> str:
+    """A unit for LaTeX, upright: 'kN*m' -> \\mathrm{kN}\\,\\mathrm{m}, 'mm^4' -> \\mathrm{mm}^{4}, 'kg/m^3' ->
+    \\mathrm{kg}/\\mathrm{m}^{3}."""
+    out = []
+    for token in _UNIT_OPERATORS.split(spelling.replace("**", "^").replace("·", "*")):
+        if token in ("*", "/"):
+            out.append("\\," if token == "*" else "/")
+            continue
+        name, _, power = token.partition("^")
+        out.append(f"\\mathrm{{{name}}}" + (f"^{{{power}}}" if power else ""))
+    return "".join(out)
+
+
+def quantity(value: Fraction | float, spelling: str, digits: int = DIGITS) -> str:
+    """A number with its unit for LaTeX: 45 \\ \\mathrm{kN}\\,\\mathrm{m}."""
+    return f"{num(value, digits)}\\ {unit(spelling)}"

@@ -232,7 +232,8 @@ def _key(c) -> str:
     if c.kind == "support slope":  # one check per support
         return f"{c.kind} {c.target} at x = {float(c.x):.6g} m"
     basis = c.basis.split(",")[0] if c.kind == "deflection" else c.kind
-    return f"{c.kind} {c.target}" + (f" ({basis})" if c.kind == "deflection" else "")
+    place = f", {c.place}" if c.place else ""  # a span/N limit: one check per span and overhang
+    return f"{c.kind} {c.target}" + (f" ({basis}{place})" if c.kind == "deflection" else "")
 
 
 def _status(key: str, old, new) -> StatusChange:
