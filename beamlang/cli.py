@@ -184,13 +184,15 @@ def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int
 def _changes_since(rev: str, item, a) -> list[str]:
     """The 'Changes since REV' section of a package: the diff of this member's file against REV."""
     from beamlang.tools import diffout
-    from beamlang.tools.diff import diff_members
+    from beamlang.tools.diff import Invalid, diff_members
     from beamlang.tools.gitsource import files_at
     from beamlang.report.tex import md
     name = item.path.as_posix()
     old = _side(f"{rev}:{name}") if name in files_at(rev, [name]) else None
     d = diff_members(name, old, a)
     body = diffout.markdown([d]).split("\n", 2)[2] if old else "The file did not exist at this revision.\n"
+    if isinstance(old, Invalid):
+        body = "The file had input errors at this revision; every check is shown as new.\n\n" + body
     return [f"## Changes since {md(rev)}", "", body.rstrip("\n") or "No change.", ""]
 
 
@@ -307,8 +309,10 @@ def _diff_pairs(args: argparse.Namespace) -> list:
 
 
 def _side(arg: str):
-    """A file, or REV:path read through git; analysed."""
+    """A file, or REV:path read through git; analysed, or `Invalid` with its input errors (a revision under review
+    may fix them: the diff goes on). A file that cannot be read at all is still an error."""
     from beamlang.language.frontend import from_source
+    from beamlang.tools.diff import Invalid
     from beamlang.tools.gitsource import read_revision
     from beamlang.language.parse import read_source
     from beamlang.pipeline import analyse_loaded
@@ -317,7 +321,11 @@ def _side(arg: str):
         source = read_revision(rev, path)
     else:
         source = read_source(arg)
-    return analyse_loaded(from_source(source, Path(source.name)))
+    try:
+        loaded = from_source(source, Path(source.name))
+    except BeamError as exc:
+        return Invalid(exc)
+    return analyse_loaded(loaded)
 
 
 def _usage(message: str):
