@@ -72,33 +72,39 @@ def watch_loop(targets: list[str], out: Path, stop: threading.Event | None = Non
         say(line)
     say("watching for changes (Ctrl-C to stop)")
     out_resolved = out.resolve()
+    built = {t: _identity(t) for t in targets}  # what each target was when its members were last built
     while not stop.is_set():
+        back = [t for t in targets if _identity(t) is not None and _identity(t) != built[t]]
+        for target in back:
+            say(f"{target} was replaced (an editor's save or a branch switch); watching it again")
+            built[target] = _identity(target)
+        if back:
+            for line in rebuild([_relative(p) for p in expand(back)], out, previous, owners):
+                say(line)
         watched = {t: _identity(t) for t in targets}
         present = [t for t, ident in watched.items() if ident is not None]
         if not present:
             stop.wait(0.5)
-            back = [t for t in targets if _identity(t) is not None]
-            for target in back:
-                say(f"{target} was replaced (an editor's save or a branch switch); watching it again")
-            for line in rebuild([_relative(p) for p in expand(back)], out, previous, owners):
-                say(line)
             continue
-        for changes in watch(*present, stop_event=stop, debounce=200, rust_timeout=500,
-                             yield_on_timeout=True):
-            changed = {_relative(Path(p)) for kind, p in changes if kind != Change.deleted and p.endswith(".beam")
-                       and Path(p).is_file() and out_resolved not in Path(p).resolve().parents}
+        for changes in watch(*present, stop_event=stop, debounce=200, rust_timeout=500, yield_on_timeout=True):
             replaced = [t for t in targets if _identity(t) != watched[t]]
-            for target in replaced:
-                say(f"{target} is gone; waiting for it to come back" if _identity(target) is None else
-                    f"{target} was replaced (an editor's save or a branch switch); watching it again")
-            changed |= {_relative(p) for p in expand([t for t in replaced if _identity(t) is not None])}
+            changed = {_relative(Path(p)) for kind, p in changes if kind != Change.deleted and p.endswith(".beam")
+                       and Path(p).is_file() and out_resolved not in Path(p).resolve().parents
+                       and not any(_within(Path(p), t) for t in replaced)}  # those are rebuilt whole, above
             if changed:
                 for line in rebuild(sorted(changed), out, previous, owners):
                     say(line)
+            for target in replaced:
+                if _identity(target) is None:
+                    say(f"{target} is gone; waiting for it to come back")
+                    built[target] = None
             if replaced:
                 break  # watch the new files and folders
-            if stop.is_set():
-                break
+
+
+def _within(path: Path, target: str) -> bool:
+    top, here = Path(target).resolve(), path.resolve()
+    return here == top or top in here.parents
 
 
 def _identity(target: str) -> tuple[int, int] | None:
