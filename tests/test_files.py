@@ -278,3 +278,28 @@ def test_a_full_or_read_only_disk_is_reported_not_an_internal_error(code, why, t
     assert capsys.readouterr().err == f"beamlang: file-system error on m.beam: {why}\n"
     assert (tmp_path / "m.beam").read_text(encoding="utf-8") == UNFORMATTED
     assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".")] == []  # no temporary file left
+
+
+@pytest.mark.parametrize("in_repository", [True, False])
+def test_a_package_is_the_same_from_any_folder_and_any_spelling_of_the_path(in_repository, tmp_path, monkeypatch,
+                                                                            capsys):
+    project = tmp_path / "project"
+    (project / "beams").mkdir(parents=True)
+    if in_repository:
+        (project / ".git").mkdir()
+    (project / "beams" / "m.beam").write_text(MEMBER, encoding="utf-8")
+    monkeypatch.chdir(project)
+    assert main(["build", "beams/m.beam", "-o", str(tmp_path / "a")]) == 0
+    monkeypatch.chdir(tmp_path)
+    assert main(["build", str(project / "beams" / "m.beam"), "-o", "b"]) == 0
+    monkeypatch.chdir(project / "beams")
+    assert main(["build", "./m.beam", "-o", str(tmp_path / "c")]) == 0
+    capsys.readouterr()
+    packages = [_package(tmp_path / side / "T-1") for side in "abc"]
+    assert packages[0] == packages[1] == packages[2]
+    recorded = "beams/m.beam" if in_repository else "m.beam"
+    from beamlang.report.tex import md
+    assert f"Input file {md(recorded)}, SHA-256" in packages[0]["T-1.md"].decode("utf-8")
+    import json
+    assert json.loads(packages[0]["results.json"])["file"] == recorded
+    assert str(tmp_path).encode() not in b"".join(packages[0].values())

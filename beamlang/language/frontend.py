@@ -87,6 +87,19 @@ def _mark_span(item: Loaded) -> Span:
     return item.member.span
 
 
+def recorded_name(item: Loaded) -> str:
+    """The input path a package records, the same whichever folder the build ran from and however the path was
+    typed: relative to the git repository that holds the file (the nearest folder above it with a `.git`),
+    with `/` separators; outside a repository, the file's name alone (a builder's folders stay out of it)."""
+    if item.path is None or not item.path.is_file():
+        return item.source.name
+    here = item.path.resolve()
+    for folder in here.parents:
+        if (folder / ".git").exists():
+            return here.relative_to(folder).as_posix()
+    return here.name
+
+
 def _shown(path: Path) -> str:
     """Paths are shown as given, relative where they are relative (no absolute paths in output)."""
     return path.as_posix()
