@@ -82,14 +82,20 @@ def test_size_write_is_atomic(tmp_path, monkeypatch, capsys):
     import beamlang.tools.files as files
     monkeypatch.chdir(tmp_path)
     source = (ROOT / "examples" / "floor-joist-sized-us.beam").read_text(encoding="utf-8")
+    heavier = 'section "2x12" rectangle width 1.5 in depth 11.25 in'
+    source = source.replace('section "2x10" rectangle width 1.5 in depth 9.25 in', heavier)
+    assert heavier in source
     (tmp_path / "j.beam").write_text(source, encoding="utf-8")
+    os.chmod(tmp_path / "j.beam", 0o600)
     calls = []
     real = files.os.replace
     monkeypatch.setattr(files.os, "replace", lambda a, b: calls.append((Path(a).parent, Path(b).name)) or real(a, b))
-    assert main(["size", "j.beam", "--write"]) in (0, 1)
+    assert main(["size", "j.beam", "--write"]) == 0
     capsys.readouterr()
-    if (tmp_path / "j.beam").read_text(encoding="utf-8") != source:
-        assert calls == [(tmp_path, "j.beam")]  # written beside the file, then renamed over it
+    written = (tmp_path / "j.beam").read_text(encoding="utf-8")
+    assert 'section "2x10" rectangle width 1.5 in depth 9.25 in' in written and heavier not in written
+    assert calls == [(tmp_path, "j.beam")]  # written beside the file, then renamed over it
+    assert (tmp_path / "j.beam").stat().st_mode & 0o777 == 0o600
 
 
 def _package(folder: Path) -> dict[str, bytes]:
