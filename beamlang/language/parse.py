@@ -265,6 +265,12 @@ class _Build(Transformer):
         end = second.span if second else value.span
         return s.Property(self._name(name), value, second, self._span(name, end))
 
+    def allowable_property(self, name: Token, value: s.Quantity) -> s.Property:
+        """`allowable bending 1.2 ksi`: one property named by both words."""
+        start = self._find("allowable", before=name.column)
+        return s.Property(s.Name(f"allowable {name}", self._span(start, name)), value, None,
+                          self._span(start, value.span))
+
     def member(self, mark: Token, title: Token) -> s.Member:
         return s.Member(self._name(mark), _unquote(str(title)), self._stmt_span())
 
