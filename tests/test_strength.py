@@ -65,3 +65,17 @@ def test_the_allowable_form_formats_back_to_itself():
     path = CASES / "checker" / "timber-allowable-us.beam"
     text = format_document(parse(read_source(path)))
     assert "material timber E 1600 ksi allowable bending 1 ksi shear 0.18 ksi density 35 lb/ft^3" in text
+
+
+def test_the_self_weight_line_of_a_us_member_gives_g_with_its_value_and_unit():
+    a, md, _ = _package("timber-allowable-us.beam")
+    # w = rho A g: 35 lb/ft^3 x (1.5 x 9.25 / 144) ft^2 = 3.37239 lb of mass per ft, which weighs 3.37239 lbf/ft
+    # (1 lbf = 1 lb x g_n, g_n = 9.80665 m/s^2 exactly: NIST SP 811, 2008, appendix B.8)
+    dead = next(c for c in a.loaded.member.cases if c.name == "dead")
+    plf = F("4.4482216152605") / F("0.3048")  # N/m per lbf/ft (NIST SP 811, 2008, appendix B.8 and B.9)
+    assert abs(dead.loads[0].w1) / plf == F(35) * F(3, 2) * F(37, 4) / 144  # exactly 3.37239583... lbf/ft
+    assert ("w = \\rho A g = 35\\ \\mathrm{lb}/\\mathrm{ft}^{3} \\times 0.0963542\\ \\mathrm{ft}^{2} \\times "
+            "32.174049\\ \\mathrm{ft}/\\mathrm{s}^{2} = 108.504\\ \\mathrm{lb}/\\mathrm{s}^{2} = "
+            "3.3724\\ \\mathrm{lbf}/\\mathrm{ft}$$") in md
+    assert "\\times g =" not in md
+    assert "g = 9.80665 m/s² (exact by definition) = 32.174049 ft/s²" in md
