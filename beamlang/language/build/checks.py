@@ -11,7 +11,7 @@ def _target(ctx: Context, name: s.Name, targets: set[str]) -> bool:
     """True when a limit or check names a known case or combination; else the error is reported."""
     if name.text in targets:
         return True
-    ctx.error(name.span, f"unknown case or combination '{name.text}'",
+    ctx.whole(name.span, f"unknown case or combination '{name.text}'",
               ctx.suggest(name.text, sorted(targets), "cases and combinations"))
     return False
 
@@ -46,7 +46,7 @@ def slope_limits(ctx: Context, targets: set[str], supports: tuple[m.Support, ...
         if ok and value is not None:
             out.append(m.SlopeLimit(st.target.text if st.target else None, value, st.span))
     if out and supports and all(sp.kind == "fixed" for sp in supports):
-        ctx.error(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
+        ctx.whole(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
                   "a fixed support holds the slope at zero; the limit is for bearings")
     return tuple(out)
 

@@ -42,7 +42,7 @@ def stretches(ctx: Context) -> tuple[m.Stretch, ...]:
 
 
 def _merge(ctx: Context, mats: Placed, secs: Placed) -> tuple[m.Stretch, ...]:
-    if not mats or not secs or ctx.errors.items:
+    if not mats or not secs or ctx.failed:
         return ()
     bounds = sorted({x for x1, x2, _ in mats + secs for x in (x1, x2)})
     out = []
@@ -100,7 +100,7 @@ def _gaps_and_overlaps(ctx: Context, placed: list[tuple[Fraction, Fraction, obje
     at = Fraction(0)
     for x1, x2, _, st in placed:
         if x1 > at:
-            ctx.error(st.stretch.span, f"no {key} covers {plain(at)} m to {plain(x1)} m",
+            ctx.whole(st.stretch.span, f"no {key} covers {plain(at)} m to {plain(x1)} m",
                       f"every part of the member needs a {key}: the stretches must meet end to end")
         elif x1 < at:
             ctx.error(st.stretch.span, f"this {key} overlaps another from {plain(x1)} m to "
@@ -108,7 +108,7 @@ def _gaps_and_overlaps(ctx: Context, placed: list[tuple[Fraction, Fraction, obje
         at = max(at, x2)
     if at < ctx.length:
         last = placed[-1][3]
-        ctx.error(last.stretch.span if last.stretch else last.span,
+        ctx.whole(last.stretch.span if last.stretch else last.span,
                   f"no {key} covers {plain(at)} m to {plain(ctx.length)} m (the end of the member)",
                   f"every part of the member needs a {key}: the last stretch must end at the span")
 
