@@ -18,6 +18,7 @@ from beamlang.report.drawing import (
     mark_extreme,
     sample,
 )
+from beamlang.report.load_labels import LoadLabels
 from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
 
@@ -69,7 +70,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     for sp in m.supports:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
-    style = _Labels(a, factors, u)
+    style = LoadLabels(a, factors, u)
     levels = {1: 0, -1: 0}  # line loads drawn so far above the member (downward loads) and below it (upward)
     loads = [(case.name, ld) for case in m.cases if case.name in factors for ld in case.loads]
     marks = tuple(float(convert(ld.x, u["length"])) for _, ld in loads if isinstance(ld, (PointLoad, MomentLoad)))
@@ -107,53 +108,7 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     ax.title = (title, 8.0)
 
 
-class _Labels:
-    """A load's label: its value in the unit it was written in, factored where a factor is not 1 (then the
-    written value and its factor are shown too), named by its case on a combination's figure."""
-
-    def __init__(self, a: Analysis, factors: dict[str, Fraction], u: dict):
-        self.u, self.factors = u, factors
-        self.factored = any(f != 1 for f in factors.values())
-        self.combination = len(factors) > 1
-        self.statements = {ln.number: st for ln, st in a.loaded.document.statements}
-        written = [_unit_of(st, "intensity", "") for st in self.statements.values()]
-        # self-weight is written without a unit: it is shown in the unit of the file's first line load
-        self.line_unit = next((w for w in written if w), u["force"] + "/" + u["length"])
-
-    def text(self, case: str, load) -> str:
-        value, unit = self._value(load)
-        f = self.factors[case]
-        shown = f"{number(convert(value * f, unit))} {unit}"
-        if f != 1:
-            shown = f"{number(f)} x {number(convert(value, unit))} = {shown}"
-        if isinstance(load, LineLoad) and load.w1 != load.w2:
-            shown = (f"{number(convert(abs(load.w1) * f, unit))} to {number(convert(abs(load.w2) * f, unit))} {unit}"
-                     + (f" ({number(f)} x the written values)" if f != 1 else ""))
-        if isinstance(load, MomentLoad):
-            shown += "\n" + ("counterclockwise" if load.moment > 0 else "clockwise")
-        what = "self-weight " if getattr(load, "origin", None) == "self-weight" else ""
-        return (f"{case}: " if self.combination else "") + what + shown
-
-    def _value(self, load) -> tuple[Fraction, str]:
-        """The load's magnitude in SI and the unit its statement wrote it in (the package's where none)."""
-        st = self.statements.get(load.span.line)
-        if isinstance(load, PointLoad):
-            return abs(load.force), _unit_of(st, "force", self.u["force"])
-        if isinstance(load, MomentLoad):
-            return abs(load.moment), _unit_of(st, "moment", self.u["moment"])
-        return abs(load.w1), _unit_of(st, "intensity", self.line_unit)
-
-
-def _unit_of(st, field: str, default: str) -> str:
-    """The unit a load statement wrote its value in (`uniform 15 plf` -> plf)."""
-    for name in (field, "start_intensity"):
-        q = getattr(st, name, None)
-        if q is not None:
-            return q.unit
-    return default
-
-
-def _point_stacks(ax, items: list, style: _Labels, u: dict, L: float, top: float) -> float:
+def _point_stacks(ax, items: list, style: LoadLabels, u: dict, L: float, top: float) -> float:
     """Point loads, moments and settlements. Those that stand together (a dead and a live load at the tip) are
     drawn at their places and labelled one above the other, each label on a line of its own; returns the
     highest label's top."""
