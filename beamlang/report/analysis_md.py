@@ -8,6 +8,7 @@ from beamlang.language import syntax
 from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
 from beamlang.report.moving_md import moving_section
+from beamlang.report.pattern_md import pattern_section
 from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed, x_range
 from beamlang.report.tex import cell, md, num, plain, poly
 
@@ -70,6 +71,10 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         if figure is None:  # the moving group alone: no static curves to draw
             return lines
         return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
+    if r.pattern is not None:  # the envelope over every arrangement replaces the one curve and its searches
+        lines += pattern_section(a, r) + _reactions(a, r)
+        return lines + _points(a, r) + [
+            f"![{md(name)}: loads and reactions, envelopes of V, M, slope and deflection with its limits]({figure})", ""]
     lines += superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads and reactions, V, M, slope and deflection with its limits]({figure})", ""]

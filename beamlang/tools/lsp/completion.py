@@ -26,7 +26,7 @@ WORDS = {"SHAPE": SHAPES, "SUPPORT_KIND": SUPPORT_KINDS, "FORCE_DIR": FORCE_DIRE
 STATEMENT_KIND = {"span": "length", "point": "force", "uniform": "force per length", "linear": "force per length",
                   "moment": "moment", "settlement": "length", "moving": "force", "limit": "length", "report": "length",
                   "support": "force per length"}
-WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "x": "length", "-": "length",
+WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "over": "length", "x": "length", "-": "length",
              "supports": "angle", "spring": "force per length", **MATERIAL_PROPERTIES, **DIMENSION_KIND}
 
 
