@@ -10,7 +10,7 @@ from beamlang import model as m
 from beamlang.language import syntax as s
 from beamlang.language.build import moving, sections
 from beamlang.language.build.context import Context, sign
-from beamlang.language.units import factor_of
+from beamlang.language.units import factor_of, to_si
 from beamlang.source import Span
 
 LoadHandler = Callable[[Context, Any], list[m.Load]]
@@ -92,7 +92,7 @@ def moment(ctx: Context, st: s.Moment) -> list[m.Load]:
 
 
 def uniform(ctx: Context, st: s.Uniform) -> list[m.Load]:
-    w = _intensity(ctx, st.intensity, st.width, "a uniform load",
+    w = _intensity(ctx, st.intensity, st.width, _width(ctx, st.width), "a uniform load",
                    _hint_for(st.intensity, "force", "for a single force, did you mean `point`?"))
     x1 = Fraction(0) if st.start is None else ctx.position(st.start, "load start")
     x2 = ctx.length if st.end is None else ctx.position(st.end, "load end")
@@ -100,13 +100,18 @@ def uniform(ctx: Context, st: s.Uniform) -> list[m.Load]:
 
 
 def linear(ctx: Context, st: s.Linear) -> list[m.Load]:
-    w1 = _intensity(ctx, st.start_intensity, st.width, "a linear load")
-    w2 = _intensity(ctx, st.end_intensity, st.width, "a linear load")
+    b = _width(ctx, st.width)
+    w1 = _intensity(ctx, st.start_intensity, st.width, b, "a linear load")
+    w2 = _intensity(ctx, st.end_intensity, st.width, b, "a linear load")
     x1, x2 = ctx.position(st.start, "load start"), ctx.position(st.end, "load end")
     return _line_load(ctx, st, x1, x2, w1, w2, "linear")
 
 
-def _intensity(ctx: Context, q: s.Quantity, width: s.Quantity | None, what: str,
+def _width(ctx: Context, width: s.Quantity | None) -> Fraction | None:
+    return None if width is None else ctx.positive(width, "length", "a tributary width")
+
+
+def _intensity(ctx: Context, q: s.Quantity, width: s.Quantity | None, b: Fraction | None, what: str,
                hint: str | None = None) -> Fraction | None:
     """A load per length: as written, or a pressure times the tributary width it is gathered from (`over`)."""
     if width is None:
@@ -120,7 +125,6 @@ def _intensity(ctx: Context, q: s.Quantity, width: s.Quantity | None, what: str,
                   _hint_for(q, "force per length", "a load per length needs no `over`; leave the width out"))
         return None
     p = ctx.si(q, "stress", f"{what} with `over`")
-    b = ctx.positive(width, "length", "a tributary width")
     return None if p is None or b is None else p * b
 
 
@@ -134,7 +138,7 @@ def _line_load(ctx: Context, st: s.Uniform | s.Linear, x1: Fraction | None, x2: 
                   "write `from` the left position `to` the right one")
         return []
     k = sign(st.direction.text)
-    width = None if st.width is None else ctx.si(st.width, "length", "a tributary width")
+    width = None if st.width is None else to_si(st.width, "length", "a tributary width")  # sound: checked above
     return [m.LineLoad(x1, x2, k * w1, k * w2, origin, st.span, width)]
 
 
