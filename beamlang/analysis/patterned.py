@@ -35,9 +35,10 @@ class PatternResult:
         return next((a for e, a, *_ in self.arrangements if e == extreme), None)
 
 
-def patterned_target(sol: Solution, t: Target) -> TargetResult:
-    """A target holding patterned cases, in the shape of any result: every extreme from the envelopes."""
-    pattern = pattern_of(sol, t)
+def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> TargetResult:
+    """A target holding patterned cases, in the shape of any result: every extreme from the envelopes (`cache`:
+    the patterned cases' parts, shared by the targets of one member)."""
+    pattern = pattern_of(sol, t, cache)
     assert pattern is not None
     m = sol.member
     region_list = regions(sol, [])

@@ -96,15 +96,16 @@ class TargetResult:
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
     """Every case and combination of a solved member."""
     fe: dict = {}  # case name -> its finite-element solution, summed for the combinations
-    return tuple(_target(solution, t, fe) for t in solution.targets)
+    parts: dict = {}  # patterned case -> its parts, solved once for the case and its combinations
+    return tuple(_target(solution, t, fe, parts) for t in solution.targets)
 
 
-def _target(sol: Solution, t: Target, fe: dict) -> TargetResult:
+def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> TargetResult:
     if sol.member.moving(t.name):
         return _moving_target(sol, t)
     if sol.member.patterned(t.name):
         from beamlang.analysis.patterned import patterned_target
-        return patterned_target(sol, t)
+        return patterned_target(sol, t, parts)
     m, c = sol.member, t.curves
     L = m.length
     defl = candidates(c.v, c.theta, Fraction(0), L)

@@ -10,7 +10,7 @@ are found by the same root isolation as any curve: the cost grows with the numbe
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from fractions import Fraction
 
 from beamlang.engine.extrema import Candidate
@@ -50,6 +50,7 @@ class Pattern:
     fixed: Curves
     parts: tuple[Part, ...]
     bounds: tuple[Fraction, ...]  # region bounds: the ends and the supports
+    zeros: dict = field(default_factory=dict, compare=False, repr=False)  # (case, region, quantity, segment) -> x
 
     def envelope(self, quantity: str, sign: int) -> tuple[Piecewise, list[Candidate], dict]:
         """The upper (sign 1) or lower (-1) envelope of v, theta, M or V; its extremum candidates (placed by x,
@@ -63,7 +64,7 @@ class Pattern:
         for k, base in enumerate(fixed.pieces):
             a, b = fixed.xs[k], fixed.xs[k + 1]
             own = [p.pieces[k] for p in parts]
-            cuts = sorted({r.x for p in own for r in roots_in(p, a, b)} | {a, b})
+            cuts = sorted({x for i, p in enumerate(own) for x in self._zeros(i, quantity, k, p, a, b)} | {a, b})
             for c, d in zip(cuts, cuts[1:]):
                 mid = (c + d) / 2
                 chosen = frozenset(i for i, p in enumerate(own) if sign * p(mid) > 0)
@@ -72,15 +73,23 @@ class Pattern:
                     poly = poly + own[i]
                 xs.append(d)
                 pieces.append(poly)
-                places = [(c, "segment end", None, "right")]
-                places += [(r.x, "derivative zero", None if r.exact is not None else r, "")
+                ends = {x: _worst(base, own, x, sign) for x in (c, d)}  # the true sign of every part there
+                places = [(c, "segment end", None, "right", ends[c])]
+                places += [(r.x, "derivative zero", None if r.exact is not None else r, "", (poly(r.x), chosen))
                            for r in roots_in(poly.derivative(), c, d)]
-                places.append((d, "segment end", None, "left"))
-                for x, reason, root, side in places:
-                    value, at_x = _worst(base, own, x, sign)
+                places.append((d, "segment end", None, "left", ends[d]))
+                for x, reason, root, side, (value, at_x) in places:
                     cands.append(Candidate(x, value, reason, root, side, -1))
                     loaded.setdefault((x, value), at_x)
         return Piecewise(tuple(xs), tuple(pieces)), cands, loaded
+
+    def _zeros(self, i: int, quantity: str, k: int, p: Poly, a: Fraction, b: Fraction) -> list[Fraction]:
+        """Where part i changes sign inside segment k: the same for both envelopes and for any factor of the
+        part, so found once per case, region and segment."""
+        key = (self.parts[i].case, self.parts[i].region, quantity, k)
+        if key not in self.zeros:
+            self.zeros[key] = [r.x for r in roots_in(p, a, b)]
+        return self.zeros[key]
 
     def reaction(self, j: int, which: int, sign: int) -> Arranged:
         """The worst force (which 0) or moment (1) at support j for one sign, with its arrangement."""
@@ -133,11 +142,13 @@ def _cut(ld: LineLoad, a: Fraction, b: Fraction) -> LineLoad:
     return LineLoad(a, b, w(a), w(b), ld.origin, ld.span, ld.width)
 
 
-def pattern_of(sol: Solution, t: Target) -> Pattern | None:
-    """The pattern of a target that holds patterned cases; None for one solved as written."""
+def pattern_of(sol: Solution, t: Target, cache: dict | None = None) -> Pattern | None:
+    """The pattern of a target that holds patterned cases; None for one solved as written. `cache` keeps each
+    patterned case's parts (solved once for the case and all its combinations) and their zeros."""
     names = sol.member.patterned(t.name)
     if not names:
         return None
+    cache = {} if cache is None else cache
     terms = ((Fraction(1), t.name),) if t.kind == "case" else t.terms
     fixed: Curves | None = None
     parts: list[Part] = []
@@ -147,11 +158,12 @@ def pattern_of(sol: Solution, t: Target) -> Pattern | None:
             c = case.curves if factor == 1 else case.curves.scaled(factor)
             fixed = c if fixed is None else fixed + c
             continue
-        for k, loads in enumerate(split(sol.member, case.loads)):
-            if loads:
-                curves = curves_with(sol, tuple(loads))
-                parts.append(Part(name, k, curves if factor == 1 else curves.scaled(factor),
-                                  tuple((factor, ld) for ld in loads)))
+        if name not in cache:
+            cache[name] = [(k, curves_with(sol, tuple(loads)), loads)
+                           for k, loads in enumerate(split(sol.member, case.loads)) if loads]
+        for k, curves, loads in cache[name]:
+            parts.append(Part(name, k, curves if factor == 1 else curves.scaled(factor),
+                              tuple((factor, ld) for ld in loads)))
     if fixed is None:
         fixed = case.curves.scaled(Q(0))
-    return Pattern(fixed, tuple(parts), region_bounds(sol.member))
+    return Pattern(fixed, tuple(parts), region_bounds(sol.member), cache.setdefault("(zeros)", {}))
