@@ -216,3 +216,10 @@ def test_envelope_is_never_less_adverse_than_any_arrangement(drawn):
         assert sign * got[key] <= worst * (1 + tol) + F(1, 10**12), (key, got[key], worst)  # and reached by one
     for j, (_, force, _) in enumerate(env.reactions):
         assert abs(force) == max(abs(v) for v in best[f"R{j}"] + [0])
+
+
+def test_diff_names_an_added_pattern_line_and_the_results_it_moves():
+    from beamlang.tools.diff import diff_members
+
+    d = diff_members("T-1", _two_spans(extra=()), _two_spans())
+    assert [(c.kind, c.what, c.new) for c in d.inputs] == [("added", "pattern loading of a", "pattern a")]

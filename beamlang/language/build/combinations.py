@@ -77,6 +77,11 @@ def patterned(ctx: Context, cases: tuple[m.Case, ...], names: set[str]) -> tuple
                       "put the settlement in a case of its own and pattern the loads")
         else:
             chosen[name] = st
+    for combo in ctx.of(s.Combine):
+        held = [t.case.text for t in combo.terms]
+        if any(n in chosen for n in held) and any(n in ctx.moving_cases for n in held):
+            ctx.error(combo.span, f"combination '{combo.name.text}' holds a patterned case and a moving load",
+                      "the two envelopes are not combined; combine the moving case with the fixed cases only")
     return tuple(replace(c, patterned=True) if c.name in chosen else c for c in cases)
 
 

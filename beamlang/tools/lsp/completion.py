@@ -146,6 +146,8 @@ def _names(prefix: str, analysed: Analysed) -> list[Candidate]:
     targets = [(c.name.text, types.CompletionItemKind.Event, f"case, line {c.span.line}", "0") for c in cases]
     if words[0] == "combine":
         return targets if "=" in words else []
+    if words[0] == "pattern":
+        return targets
     if words[0] in ("limit", "check"):
         return targets + [(c.name.text, types.CompletionItemKind.Operator, f"combination, line {c.span.line}", "0")
                           for c in combos]
