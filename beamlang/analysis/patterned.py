@@ -3,7 +3,7 @@ the arrangement (which spans of which patterned case are loaded) that gives it."
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from fractions import Fraction
 
 from beamlang.analysis.results import Region, TargetResult, _stress, factored_loads, regions
@@ -46,11 +46,19 @@ def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> Tar
     named: list[tuple[str, str, Fraction | None, Fraction, str]] = []
     describe = _describer(pattern, region_list)
 
+    def sided(q: str, found: Located | None) -> Located | None:
+        """The side of a jump, judged on the one envelope that holds the value (not against the other one)."""
+        if found is None:
+            return None
+        s = 1 if (found.x, found.value) in env[(q, 1)][2] else -1
+        values = {c.value for c in env[(q, s)][1] if c.x == found.x}
+        return replace(found, side=found.side if len(values) > 1 else "")
+
     def pick(extreme: str, q: str, found: Located | None) -> Located | None:
         if found is not None:
             loaded = env[(q, 1)][2].get((found.x, found.value), env[(q, -1)][2].get((found.x, found.value)))
             named.append((extreme, describe(loaded), found.x, found.value, KIND[q]))
-        return found
+        return sided(q, found)
 
     def both(q: str) -> list[Candidate]:
         return env[(q, 1)][1] + env[(q, -1)][1]
@@ -62,10 +70,8 @@ def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> Tar
     m_neg = pick("largest hogging moment", "M", largest(env[("M", -1)][1], -1))
     v_max = pick("largest shear", "V", largest_abs(shear))
     slope_max = pick("largest slope", "theta", largest_abs(slope))
-    own_regions = regions(sol, defl)
-    for region in own_regions:
-        if region.max_abs is not None:
-            pick(f"largest deflection in {region.name}", "v", region.max_abs)
+    own_regions = tuple(replace(region, max_abs=pick(f"largest deflection in {region.name}", "v", region.max_abs))
+                        for region in regions(sol, defl))
     reactions = []
     for j, sp in enumerate(m.supports):
         for which, what in ((0, "force"), (1, "moment")):
@@ -88,10 +94,12 @@ def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> Tar
         m.patterned(t.name), tuple((p.case, region_list[p.region].name) for p in pattern.parts),
         tuple((q, env[(q, 1)][0]) for q in QUANTITIES), tuple((q, env[(q, -1)][0]) for q in QUANTITIES),
         tuple(named))
+    stress = _stress(sol, moment, shear)
+    stress = replace(stress, bending_at=sided("M", stress.bending_at), shear_at=sided("V", stress.shear_at))
     governing = max((l for l in (max_down, max_up) if l is not None), key=lambda l: abs(l.value), default=None)
     return TargetResult(
-        t.name, t.kind, tuple(reactions), (max_down), (max_up), (slope_max), supports,
-        (m_pos), (m_neg), (v_max), points, own_regions, _stress(sol, moment, shear),
+        t.name, t.kind, tuple(reactions), max_down, max_up, slope_max, supports,
+        m_pos, m_neg, v_max, points, own_regions, stress,
         _cross_check(sol, t, pattern, governing, env), tuple(defl), tuple(moment), pattern=result)
 
 
