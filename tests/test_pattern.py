@@ -223,3 +223,18 @@ def test_diff_names_an_added_pattern_line_and_the_results_it_moves():
 
     d = diff_members("T-1", _two_spans(extra=()), _two_spans())
     assert [(c.kind, c.what, c.new) for c in d.inputs] == [("added", "pattern loading of a", "pattern a")]
+
+
+def test_sizing_uses_the_envelope():
+    from pathlib import Path
+
+    from beamlang.language.frontend import load
+    from beamlang.pipeline import analyse_loaded
+    from beamlang.tools.size import try_all
+
+    item = load(Path(__file__).resolve().parent.parent / "examples" / "floor-joist-patterned-us.beam")
+    a = analyse_loaded(item)
+    trial, = try_all(item, [(1, "2x10", "rectangle width 1.5 in depth 9.25 in")], "test")
+    assert trial.ratio == max(c.ratio for c in a.checks)
+    unpatterned = analyse_text(item.source.text.replace("pattern live", ""))
+    assert trial.ratio > max(c.ratio for c in unpatterned.checks)

@@ -63,8 +63,11 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         lines += loads_table(a, t) + each_load(a, t) + compatibility(a, t)
     else:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
-        lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
-                  "(exact, by linearity).", ""]
+        lines += ([f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
+                   "(exact, by linearity).", ""] if r.pattern is None else
+                  [f"{md(name)} = {terms}, with {', '.join(md(c) for c in r.pattern.cases)} patterned: the other "
+                   "cases, factored, are on every span; each patterned case enters, factored, through the "
+                   "envelope of its arrangements below.", ""])
     if r.envelope is not None:
         lines += moving_section(a, t, r) + [
             f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", ""]

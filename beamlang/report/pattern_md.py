@@ -4,6 +4,7 @@ governing arrangement of every extreme; and the cautions pattern loading brings 
 from __future__ import annotations
 
 from beamlang.analysis.display import show
+from beamlang.language import syntax as s
 from beamlang.model import LineLoad, MomentLoad, PointLoad
 from beamlang.pipeline import Analysis
 from beamlang.report.tex import md
@@ -13,11 +14,12 @@ def pattern_section(a: Analysis, r) -> list[str]:
     """How the envelope was found and which arrangement gives each extreme."""
     p = r.pattern
     u = a.units
-    cases = " and ".join(f"`{md(c)}`" for c in p.cases)
+    lines_of = {st.case.text: line.number for line, st in a.loaded.document.statements if isinstance(st, s.Pattern)}
+    cases = " and ".join(f"`{md(c)}` (input line {lines_of[c]})" for c in p.cases)
     parts = ", ".join(f"{md(case)} on {'' if region.startswith('span') else 'the '}{md(region)}"
                       for case, region in p.parts)
     lines = ["### Pattern loading", "",
-             f"Patterned: {cases} (`pattern` lines). Each part below is loaded or not, independently: "
+             f"Patterned: {cases}. Each part below is loaded or not, independently: "
              f"{len(p.parts)} parts, {2 ** len(p.parts)} arrangements. Parts: {parts}.", "",
              "Each part is solved alone, exactly. At every x the worst arrangement for an effect loads exactly "
              "the parts of one sign there, so the upper envelope is the fixed loads' curve plus every positive "
@@ -30,7 +32,8 @@ def pattern_section(a: Analysis, r) -> list[str]:
         where = show(x, u, "length") if x is not None else "-"
         lines.append(f"| {md(extreme)} | {show(value, u, quantity)} | x = {where} | {md(how)} |")
     return lines + ["", "Where several arrangements give the same value (a part that adds nothing there), the "
-                    "one named leaves that part unloaded.", ""]
+                    "one named leaves that part unloaded. The reactions below are, at each support, the larger in "
+                    "magnitude of its two extremes above.", ""]
 
 
 def pattern_cautions(a: Analysis) -> list[str]:
