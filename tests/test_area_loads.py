@@ -70,3 +70,15 @@ def test_format_keeps_over_and_parts():
     assert "  uniform 40 psf over 16 in down from 1 ft 6 in to span\n" in out
     assert "span 22 ft 6 in\n" in out and "pattern live\n" in out
     assert format_document(parse(Source("t.beam", out))) == out
+
+
+def test_a_spacing_in_parts_is_one_spacing_and_two_spacings_need_and():
+    m = _model(_member(["moving 2 kip and 2 kip down spaced 3 ft 6 in"]))
+    assert m.cases[0].loads[0].offsets == (0, 42 * IN)
+    from beamlang.errors import BeamError
+    try:
+        _model(_member(["moving 2 kip and 2 kip and 1 kip down spaced 3 ft 2 ft"]))
+    except BeamError as exc:
+        assert [d.message for d in exc.diagnostics] == ["the spacings of a moving group are joined by `and`"]
+    else:
+        raise AssertionError("`spaced 3 ft 2 ft` must not be read as one length")

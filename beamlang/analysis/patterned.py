@@ -72,6 +72,23 @@ def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> Tar
     slope_max = pick("largest slope", "theta", largest_abs(slope))
     own_regions = tuple(replace(region, max_abs=pick(f"largest deflection in {region.name}", "v", region.max_abs))
                         for region in regions(sol, defl))
+    reactions, supports, points = _at_supports_and_points(m, pattern, describe, named)
+    result = PatternResult(
+        m.patterned(t.name), tuple((p.case, region_list[p.region].name) for p in pattern.parts),
+        tuple((q, env[(q, 1)][0]) for q in QUANTITIES), tuple((q, env[(q, -1)][0]) for q in QUANTITIES),
+        tuple(named))
+    stress = _stress(sol, moment, shear)
+    stress = replace(stress, bending_at=sided("M", stress.bending_at), shear_at=sided("V", stress.shear_at))
+    governing = max((l for l in (max_down, max_up) if l is not None), key=lambda l: abs(l.value), default=None)
+    return TargetResult(
+        t.name, t.kind, reactions, max_down, max_up, slope_max, supports,
+        m_pos, m_neg, v_max, points, own_regions, stress,
+        _cross_check(sol, t, pattern, governing, env), tuple(defl), tuple(moment), pattern=result)
+
+
+def _at_supports_and_points(m, pattern: Pattern, describe, named: list) -> tuple[tuple, tuple, tuple]:
+    """Each reaction (the larger magnitude of its two extremes; both named with their arrangements), the slope at
+    each support and the report points' deflection and slope, the larger magnitude of either envelope."""
     reactions = []
     for j, sp in enumerate(m.supports):
         for which, what in ((0, "force"), (1, "moment")):
@@ -85,22 +102,11 @@ def patterned_target(sol: Solution, t: Target, cache: dict | None = None) -> Tar
         force = _bigger(pattern.reaction(j, 0, 1), pattern.reaction(j, 0, -1))
         couple = _bigger(pattern.reaction(j, 1, 1), pattern.reaction(j, 1, -1))
         reactions.append((sp.x, force.value, couple.value))
-    supports = tuple((sp.x, _bigger(pattern.at("theta", sp.x, 1, "left"), pattern.at("theta", sp.x, -1, "left"),
-                                    pattern.at("theta", sp.x, 1), pattern.at("theta", sp.x, -1)).value)
-                     for sp in m.supports)
+    supports = tuple((sp.x, _bigger(*(pattern.at("theta", sp.x, s, side) for s in (1, -1)
+                                      for side in ("left", "right"))).value) for sp in m.supports)
     points = tuple((p.x, _bigger(pattern.at("v", p.x, 1), pattern.at("v", p.x, -1)).value,
                     _bigger(pattern.at("theta", p.x, 1), pattern.at("theta", p.x, -1)).value) for p in m.report_points)
-    result = PatternResult(
-        m.patterned(t.name), tuple((p.case, region_list[p.region].name) for p in pattern.parts),
-        tuple((q, env[(q, 1)][0]) for q in QUANTITIES), tuple((q, env[(q, -1)][0]) for q in QUANTITIES),
-        tuple(named))
-    stress = _stress(sol, moment, shear)
-    stress = replace(stress, bending_at=sided("M", stress.bending_at), shear_at=sided("V", stress.shear_at))
-    governing = max((l for l in (max_down, max_up) if l is not None), key=lambda l: abs(l.value), default=None)
-    return TargetResult(
-        t.name, t.kind, tuple(reactions), max_down, max_up, slope_max, supports,
-        m_pos, m_neg, v_max, points, own_regions, stress,
-        _cross_check(sol, t, pattern, governing, env), tuple(defl), tuple(moment), pattern=result)
+    return tuple(reactions), supports, points
 
 
 def _bigger(*items: Arranged) -> Arranged:

@@ -208,20 +208,29 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
     return value
 
 
+def in_parts(q: Quantity) -> bool:
+    """True when a quantity written in parts goes from larger units to smaller, each part less than one of the
+    unit before it (`22 ft 6 in`, `2 m 250 mm`): a length in parts, not two quantities side by side."""
+    units = [factor_of(part.unit) for part in (q, *q.parts)]
+    if any(f is None or f.kind != "length" for f in units):
+        return False
+    try:
+        values = [exact_number(part.number, part.span) * f.factor for part, f in zip(q.parts, units[1:])]
+    except UnitProblem:
+        return False
+    return all(big.factor > small.factor and v < big.factor for big, small, v in zip(units, units[1:], values))
+
+
 def _in_parts(q: Quantity, kind: str, what: str) -> Fraction:
     if kind != "length":
         raise UnitProblem(Diagnostic(q.parts[0].span, f"only a length may be written in parts; {what} takes one "
                                      "number and one unit", f"write it as one quantity, e.g. \"10 {EXAMPLE_UNIT[kind]}\""))
     first = Quantity(q.number, q.unit, replace(q.span, end_col=q.unit_span.end_col), q.unit_span)
-    values = [to_si(part, "length", what) for part in (first, *q.parts)]
-    units = (first, *q.parts)
-    for before, part in zip(units, units[1:]):
-        if factor_of(part.unit).factor >= factor_of(before.unit).factor:  # both known: to_si passed them
-            raise UnitProblem(Diagnostic(part.span, f"a length in parts goes from larger units to smaller ones, "
-                                         f"but {part.unit} follows {before.unit}",
-                                         "write e.g. \"22 ft 6 in\" or \"1 m 200 mm\"; two separate values are "
-                                         "joined by `and` where a statement takes several"))
-    total = sum(values, Q(0))
+    total = sum((to_si(part, "length", what) for part in (first, *q.parts)), Q(0))
+    if not in_parts(q):
+        raise UnitProblem(Diagnostic(q.span, f"{what} of {q}: a length in parts goes from the larger unit to the "
+                                     "smaller, each part less than one of the unit before it",
+                                     "write e.g. `22 ft 6 in` or `2 m 250 mm`, or one number and one unit"))
     if not in_range(total):
         raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(total)} m, surely a typo",
                                      f"values {ACCEPTED} m are accepted"))

@@ -2,16 +2,19 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
 from fractions import Fraction
 
 from beamlang import model as m
 from beamlang.language import syntax as s
 from beamlang.language.build.context import Context, sign
+from beamlang.language.units import in_parts
 
 
 def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
     """The forces (signed), their offsets from the first, and the travel (the whole member unless given)."""
-    if _written_without_and(ctx, st):
+    joined = _without_and(ctx, st)
+    if joined:
         return []
     forces = [ctx.positive(q, "force", "a moving force") for q in st.forces]
     gaps = [ctx.positive(q, "length", "a spacing") for q in st.spacings]
@@ -33,17 +36,18 @@ def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
     return [m.MovingLoad(tuple(k * f for f in forces), tuple(offsets), lo, hi, st.span)]
 
 
-def _written_without_and(ctx: Context, st: s.Moving) -> bool:
-    """`moving 20 kN 20 kN ...` reads as one force in parts: the second force (or spacing) lacks its `and`."""
-    for what, quantities in (("forces", st.forces), ("spacings", st.spacings)):
-        bad = next((q for q in quantities if q.parts), None)
-        if bad is None:
-            continue
-        items = [f"{q.number} {q.unit}" if i == 0 else str(q) for q in quantities
-                 for i, q in enumerate((q, *q.parts))]
-        ctx.error(bad.parts[0].span, f"the {what} of a moving group are joined by `and`",
-                  f"write them as `{' and '.join(items)}`")
-        return True
+def _without_and(ctx: Context, st: s.Moving) -> bool:
+    """`moving 20 kN 20 kN ...` or `spaced 3 m 1.5 m`: a second force or spacing written without `and` (a
+    spacing in proper parts, `spaced 3 ft 6 in`, is one length); reported, True."""
+    for what, items in (("forces", st.forces), ("spacings", st.spacings)):
+        for q in items:
+            if q.parts and (what == "forces" or not in_parts(q)):
+                second = q.parts[0]
+                text = ctx.doc.source.line_text(second.span.line)
+                fixed = text[: second.span.col - 1].rstrip() + " and " + text[second.span.col - 1:]
+                ctx.error(replace(second.span, end_col=second.span.col + len(second.number)),
+                          f"the {what} of a moving group are joined by `and`", f"write `{fixed.strip()}`")
+                return True
     return False
 
 
