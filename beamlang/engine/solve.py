@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from fractions import Fraction
 
 from beamlang.errors import BeamError, Diagnostic
@@ -10,7 +10,10 @@ from beamlang.exact import Q
 from beamlang.model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from beamlang.poly import Piecewise, Poly
 from beamlang.stability import Mechanism, Restraint, components, equilibrium_column, keep
+from beamlang.engine.banded import solve_banded
 from beamlang.engine.statics import breakpoints, moment_left, resultant, shear_and_moment
+
+BANDED_FROM = 6  # redundants from which a load is solved in banded stiffness form (linear in the segments)
 
 
 @dataclass(frozen=True, slots=True)
@@ -34,20 +37,46 @@ class Curves:
 
 @dataclass(frozen=True, slots=True)
 class Primary:
-    """The released, statically determinate beam and the compatibility system of the redundants."""
+    """The released, statically determinate beam and the compatibility system of the redundants.
+
+    The unit curves and the flexibility matrix are made on first use: with many redundants the loads are
+    solved in banded form (`banded.py`) and only the calc package's method section asks for them."""
 
     kind: str  # "cantilever" (fixed at one support), "simple" (two point supports) or "hinged"
     kept: tuple[Restraint, ...]  # reaction components of the primary beam
     redundants: tuple[Restraint, ...]
-    flexibility: tuple[tuple[Fraction, ...], ...]  # A in A X = -D0, spring terms 1/k on the diagonal
-    units: tuple["Curves", ...]  # primary response to a unit value of each redundant
     statics: tuple[tuple[Fraction, ...], ...]  # inverse of the kept components' equilibrium matrix
     kinematics: tuple[tuple[Fraction, ...], ...]  # inverse of their support conditions in (c1, c2, jumps)
+    basis: tuple = field(default=(), compare=False, repr=False)  # (member, xs, EI) for the lazy parts
+    _made: dict = field(default_factory=dict, compare=False, repr=False)
 
     @property
     def supports(self) -> tuple[int, ...]:
         """The supports of the primary beam, each once."""
         return tuple(dict.fromkeys(r.support for r in self.kept))
+
+    @property
+    def units(self) -> tuple["Curves", ...]:
+        """The primary response to a unit value of each redundant."""
+        if "units" not in self._made:
+            member, xs, EI = self.basis
+            self._made["units"] = tuple(_on_primary(member, xs, EI, self, [_unit(member, r)]) for r in self.redundants)
+        return self._made["units"]
+
+    @property
+    def flexibility(self) -> tuple[tuple[Fraction, ...], ...]:
+        """A in A X = -D0: the displacement at restraint i under a unit redundant j, 1/k on a spring's diagonal."""
+        if "A" not in self._made:
+            member = self.basis[0]
+            A = []
+            for i, r in enumerate(self.redundants):
+                row = [_displacement(member, r, u) for u in self.units]
+                k = member.supports[r.support].stiffness
+                if r.kind == "force" and k:
+                    row[i] += 1 / k
+                A.append(tuple(row))
+            self._made["A"] = tuple(A)
+        return self._made["A"]
 
 
 @dataclass(frozen=True, slots=True)
@@ -176,16 +205,7 @@ def _primary(member: Member, xs, EI) -> Primary:
     columns = [equilibrium_column(sps, hinges, r) for r in kept]
     statics = _inverse([[col[i] for col in columns] for i in range(len(kept))])
     kinematics = _inverse([_condition(sps[r.support].x, r.kind, hinges) for r in kept])
-    skeleton = Primary(kind, kept, redundants, (), (), statics, kinematics)
-    units = tuple(_on_primary(member, xs, EI, skeleton, [_unit(member, r)]) for r in redundants)
-    A = []
-    for i, r in enumerate(redundants):
-        row = [_displacement(member, r, u) for u in units]
-        k = member.supports[r.support].stiffness
-        if r.kind == "force" and k:
-            row[i] += 1 / k
-        A.append(tuple(row))
-    return Primary(kind, kept, redundants, tuple(A), units, statics, kinematics)
+    return Primary(kind, kept, redundants, statics, kinematics, (member, xs, EI))
 
 
 def _condition(x, kind: str, hinges) -> list:
@@ -218,6 +238,8 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 
 
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
+    if len(primary.redundants) >= BANDED_FROM:
+        return _banded(member, xs, EI, primary, loads)
     base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
     moved = prescribed(member, loads)
@@ -236,6 +258,16 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
     total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions))
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
+
+
+def _banded(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
+    """The same exact solution from the banded stiffness form; the redundants are read off its reactions
+    and D0 off the primary beam under the loads (one integration), for the package's compatibility text."""
+    (V, M, theta, v), reactions = solve_banded(member, xs, EI, loads, prescribed(member, loads))
+    base = _on_primary(member, xs, EI, primary, list(loads))
+    D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
+    X = tuple(reactions[r.support][0 if r.kind == "force" else 1] for r in primary.redundants)
+    return LoadSolution(tuple(loads), base, D0, X, Curves(V, M, theta, v, reactions))
 
 
 def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> Curves:
