@@ -7,7 +7,7 @@ from fractions import Fraction
 
 from beamlang.errors import BeamError, Diagnostic
 from beamlang.exact import Q
-from beamlang.model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
+from beamlang.model import Load, LineLoad, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from beamlang.poly import Piecewise, Poly
 from beamlang.stability import Mechanism, Restraint, components, equilibrium_column, keep
 from beamlang.engine.banded import solve_banded
@@ -141,8 +141,41 @@ def stiffness(member: Member, xs) -> tuple[Fraction, ...]:
 
 
 def load_solution(solution: Solution, load: Load) -> LoadSolution:
-    """One load alone on the member: its own elastic curve, for showing the superposition."""
-    return _solve_loads(solution.member, solution.xs, solution.EI, solution.primary, (load,))
+    """One load alone on the member: its own elastic curve, for showing the superposition.
+
+    Solved on the breakpoints this load needs (ends, supports, hinges, stretch ends and its own positions)
+    and carried over to the member's grid: every piece is a polynomial in global x, so the piece of a
+    shared segment is that of the wider segment holding it, the same exact curve. A case of n loads then
+    costs n solves on a few segments each instead of n solves on the whole grid."""
+    member, xs = solution.member, solution.xs
+    own = _own_breakpoints(member, load)
+    if len(own) == len(xs):
+        return _solve_loads(member, xs, solution.EI, solution.primary, (load,))
+    alone = _solve_loads(member, own, stiffness(member, own), solution.primary, (load,))
+    return LoadSolution(alone.loads, _on_grid(alone.primary, xs), alone.displacements, alone.redundants,
+                        _on_grid(alone.curves, xs))
+
+
+def _own_breakpoints(member: Member, load: Load) -> tuple[Fraction, ...]:
+    """The breakpoints of the member without its loads, plus those of this load (all on the shared grid)."""
+    xs = {Q(0), member.length}
+    xs.update(sp.x for sp in member.supports)
+    xs.update(h.x for h in member.hinges)
+    xs.update(st.x1 for st in member.stretches)
+    xs.update((load.x1, load.x2) if isinstance(load, LineLoad) else (load.x,))
+    return tuple(sorted(xs))
+
+
+def _on_grid(curves: Curves, xs) -> Curves:
+    """Curves on wider segments -> the same curves on the finer grid xs (which holds every wider breakpoint)."""
+    def finer(c: Piecewise) -> Piecewise:
+        pieces, j = [], 0
+        for a in xs[:-1]:
+            while c.xs[j + 1] <= a:
+                j += 1
+            pieces.append(c.pieces[j])
+        return Piecewise(tuple(xs), tuple(pieces))
+    return Curves(finer(curves.V), finer(curves.M), finer(curves.theta), finer(curves.v), curves.reactions)
 
 
 def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
