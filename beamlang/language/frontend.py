@@ -6,6 +6,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from beamlang.language.build import build
+from beamlang.language.marks import folder_key, folder_name
 from beamlang.errors import BeamError, Diagnostic
 from beamlang.model import Member
 from beamlang.language.parse import parse, read_source
@@ -44,19 +45,36 @@ def expand(args: list[str]) -> list[Path]:
     return out
 
 
+def without_colliding_marks(loaded: list[Loaded]) -> tuple[list[Loaded], BeamError | None]:
+    """Two files whose marks give one output folder in one run is an error (one package would overwrite the
+    other), found before anything is built and naming both files; neither is built. -> (the others, the error)."""
+    keys = [folder_key(item.member.mark) for item in loaded]
+    kept = [item for item, key in zip(loaded, keys) if keys.count(key) == 1]
+    try:
+        check_unique_marks(loaded)
+    except BeamError as exc:
+        return kept, exc
+    return kept, None
+
+
 def check_unique_marks(loaded: list[Loaded]) -> None:
-    """Two files describing the same mark in one run is an error (their output would collide)."""
+    """Raise the error of `without_colliding_marks`, if any."""
     seen: dict[str, Loaded] = {}
     problems = []
     for item in loaded:
         mark = item.member.mark
-        first = seen.get(mark.lower())
-        if first is not None:
+        first = seen.get(folder_key(mark))
+        if first is None:
+            seen[folder_key(mark)] = item
+            continue
+        where = f"{_shown(first.path)}:{_mark_span(first).line}"
+        if first.member.mark.lower() == mark.lower():
             problems.append(Diagnostic(_mark_span(item), f"member mark '{mark}' is used twice",
-                                       f"also in {_shown(first.path)}:{first.member.span.line}; "
-                                       "marks name the output folders and must differ"))
+                                       f"also in {where}; marks name the output folders and must differ"))
         else:
-            seen[mark.lower()] = item
+            problems.append(Diagnostic(_mark_span(item), f"member mark '{mark}' gives the same output folder "
+                                       f"'{folder_name(mark)}' as '{first.member.mark}' in {where}",
+                                       "marks name the output folders: change one of them"))
     if problems:
         raise BeamError(problems, [item.source for item in loaded])
 
@@ -67,6 +85,19 @@ def _mark_span(item: Loaded) -> Span:
         if isinstance(st, MemberStmt):
             return st.mark.span
     return item.member.span
+
+
+def recorded_name(item: Loaded) -> str:
+    """The input path a package records, the same whichever folder the build ran from and however the path was
+    typed: relative to the git repository that holds the file (the nearest folder above it with a `.git`),
+    with `/` separators; outside a repository, the file's name alone (a builder's folders stay out of it)."""
+    if item.path is None or not item.path.is_file():
+        return item.source.name
+    here = item.path.resolve()
+    for folder in here.parents:
+        if (folder / ".git").exists():
+            return here.relative_to(folder).as_posix()
+    return here.name
 
 
 def _shown(path: Path) -> str:

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import difflib
+import os
 from functools import lru_cache
 from pathlib import Path
 
@@ -11,7 +12,8 @@ from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput
 
 from beamlang.language import syntax as s
 from beamlang.errors import BeamError, Collector
-from beamlang.source import Source, Span
+from beamlang.language.characters import first_problem
+from beamlang.source import Source, Span, split_lines
 from beamlang.language.vocabulary import KEYWORDS, SHAPES, SUPPORT_KINDS
 
 TERMINAL_WORDS = {
@@ -55,7 +57,11 @@ def parse(source: Source) -> s.Document:
                      f"the limits are {MAX_BYTES} bytes and {MAX_LINES} lines")
         errors.raise_if_any()
     lines = []
-    for number, text in enumerate(source.text.splitlines(), start=1):
+    for number, text in enumerate(split_lines(source.text), start=1):
+        bad = first_problem(text)
+        if bad is not None:
+            errors.error(Span(source.name, number, bad.col, bad.col + bad.width), bad.message, bad.hint)
+            continue
         if len(text) > MAX_LINE_LENGTH:
             errors.error(Span(source.name, number, MAX_LINE_LENGTH + 1, len(text) + 1),
                          f"line too long ({len(text)} characters)", f"one fact per line, at most {MAX_LINE_LENGTH} characters")
@@ -199,9 +205,10 @@ def _expected(expected: set[str]) -> str | None:
 
 
 def _unquote(text: str) -> str:
+    """Quoted text -> its characters: `\\"` is a quote, `\\\\` a backslash (`characters` refuses other escapes)."""
     body, out, i = text[1:-1], [], 0
     while i < len(body):
-        if body[i] == "\\" and i + 1 < len(body):
+        if body[i] == "\\" and i + 1 < len(body) and body[i + 1] in ('"', "\\"):
             i += 1
         out.append(body[i])
         i += 1
@@ -373,13 +380,18 @@ def read_source(path: str | Path, shown_as: str | None = None) -> Source:
     """Read a file as UTF-8 text; a missing or undecodable file is a user error."""
     name = shown_as or str(path)
     try:
-        data = Path(path).read_bytes()
+        data = _read_limited(Path(path))
     except FileNotFoundError:
         raise BeamError([_file_diag(name, "no such file")]) from None
     except IsADirectoryError:
         raise BeamError([_file_diag(name, "is a folder, not a .beam file")]) from None
+    except _NotRegular as exc:
+        raise BeamError([_file_diag(name, f"is not a regular file ({exc}); a member is a .beam file")]) from None
     except OSError as exc:
         raise BeamError([_file_diag(name, f"cannot read file ({exc.strerror})")]) from None
+    if len(data) > MAX_BYTES:
+        raise BeamError([_diag(Span(name, 1, 1, 2), f"file too large for a member (more than {MAX_BYTES} bytes)",
+                               f"the limits are {MAX_BYTES} bytes and {MAX_LINES} lines")]) from None
     try:
         text = data.decode("utf-8")
     except UnicodeDecodeError as exc:
@@ -388,6 +400,26 @@ def read_source(path: str | Path, shown_as: str | None = None) -> Source:
         raise BeamError([_diag(Span(name, line, col, col + 1), "file is not UTF-8 text",
                                "save the file as UTF-8")]) from None
     return Source(name, text.removeprefix("\ufeff"))
+
+
+class _NotRegular(OSError):
+    pass
+
+
+def _read_limited(path: Path) -> bytes:
+    """At most MAX_BYTES + 1 bytes of a regular file; a device, pipe or socket is refused before it is opened
+    (a pipe with no writer would wait for ever, /dev/zero never ends)."""
+    import stat
+    kind = path.stat().st_mode
+    if stat.S_ISDIR(kind):
+        raise IsADirectoryError(str(path))
+    if not stat.S_ISREG(kind):
+        raise _NotRegular("a pipe" if stat.S_ISFIFO(kind) else "a socket" if stat.S_ISSOCK(kind) else "a device")
+    fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
+    with os.fdopen(fd, "rb") as handle:
+        if not stat.S_ISREG(os.fstat(handle.fileno()).st_mode):  # replaced between the two looks
+            raise _NotRegular("not a file")
+        return handle.read(MAX_BYTES + 1)
 
 
 def _file_diag(name: str, message: str):

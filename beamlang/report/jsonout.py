@@ -7,6 +7,7 @@ from fractions import Fraction
 
 from beamlang.analysis.results import SIGN_CONVENTION, TargetResult
 from beamlang.analysis.working import reported
+from beamlang.language.frontend import recorded_name
 from beamlang.pipeline import Analysis
 
 SCHEMA = "beamlang.results/1"
@@ -18,7 +19,7 @@ def member_json(a: Analysis) -> dict:
         "schema": SCHEMA,
         "member": m.mark,
         "title": m.title,
-        "file": a.loaded.source.name,
+        "file": recorded_name(a.loaded),
         "input_sha256": hashlib.sha256(a.loaded.source.text.encode("utf-8")).hexdigest(),
         "sign_convention": SIGN_CONVENTION,
         "stretches": [{"from_m": float(st.x1), "to_m": float(st.x2), "EI_Nm2": float(st.EI),

@@ -292,6 +292,8 @@ def _unchecked_shear(a: Analysis) -> list[str]:
 
 def traceability(a: Analysis) -> list[str]:
     import hashlib
+
+    from beamlang.language.frontend import recorded_name
     src = a.loaded.source
     digest = hashlib.sha256(src.text.encode("utf-8")).hexdigest()
     width = len(str(len(src.text.splitlines())))
@@ -299,7 +301,7 @@ def traceability(a: Analysis) -> list[str]:
     longest = max((len(run) for run in re.findall(r"`+", src.text)), default=0)
     fence = "`" * max(3, longest + 1)  # the file's own backticks cannot close the block
     return ["## Traceability", "",
-            f"Input file {md(src.name)}, SHA-256 `{digest}`, built by beamlang {__version__} "
+            f"Input file {md(recorded_name(a.loaded))}, SHA-256 `{digest}`, built by beamlang {__version__} "
             f"with {versions_text()}. Nothing in this package depends on the clock; rebuilding the same input "
             "with the same versions gives the same bytes.", "",
             "### Appendix: the input file, line by line", "", fence + "text", *listing, fence, ""]
