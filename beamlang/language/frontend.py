@@ -5,13 +5,14 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
-from beamlang.language.build import build
-from beamlang.language.marks import folder_key, folder_name
 from beamlang.errors import BeamError, Diagnostic
-from beamlang.model import Member
-from beamlang.language.parse import parse, read_source
-from beamlang.source import Source, Span
+from beamlang.language.build import build
+from beamlang.language.build import problems as build_problems
+from beamlang.language.marks import folder_key, folder_name
+from beamlang.language.parse import parse_recovering, read_source
 from beamlang.language.syntax import Document
+from beamlang.model import Member
+from beamlang.source import Source, Span
 
 
 @dataclass(frozen=True, slots=True)
@@ -28,9 +29,12 @@ def load(path: Path) -> Loaded:
 
 
 def from_source(source: Source, path: Path | None) -> Loaded:
-    """Parse and validate text that is already read (a file, a git revision, a trial section)."""
-    doc = parse(source)
-    return Loaded(path, source, doc, build(doc))
+    """Parse and validate text that is already read (a file, a git revision, a trial section). A line that fails
+    to parse does not stop the others: they are validated too, and every problem is raised together."""
+    doc, problems = parse_recovering(source)
+    if not problems:
+        return Loaded(path, source, doc, build(doc))
+    raise BeamError(problems + build_problems(doc), source)
 
 
 def expand(args: list[str]) -> list[Path]:

@@ -11,7 +11,7 @@ from lark import Lark, Token, Transformer, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
 
 from beamlang.language import syntax as s
-from beamlang.errors import BeamError, Collector
+from beamlang.errors import BeamError, Collector, Diagnostic
 from beamlang.language.characters import first_problem
 from beamlang.source import Source, Span, split_lines
 from beamlang.language.vocabulary import KEYWORDS, SHAPES, SUPPORT_KINDS
@@ -50,6 +50,15 @@ MAX_LINE_LENGTH = 2_000
 
 def parse(source: Source) -> s.Document:
     """Parse a whole file; every bad line is reported, not only the first."""
+    doc, problems = parse_recovering(source)
+    if problems:
+        raise BeamError(problems, source)
+    return doc
+
+
+def parse_recovering(source: Source) -> tuple[s.Document, tuple[Diagnostic, ...]]:
+    """(the lines that parse, the problems of those that do not): one statement a line, so a bad line is left
+    out and parsing goes on at the next. A file over the size limits raises at once."""
     errors = Collector(source)
     size, count = len(source.text.encode("utf-8")), source.text.count("\n") + 1
     if size > MAX_BYTES or count > MAX_LINES:
@@ -69,8 +78,7 @@ def parse(source: Source) -> s.Document:
         line = _parse_line(source, number, text, errors)
         if line is not None:
             lines.append(line)
-    errors.raise_if_any()
-    return s.Document(source, tuple(lines))
+    return s.Document(source, tuple(lines)), tuple(errors.items)
 
 
 def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.Line | None:
@@ -104,6 +112,9 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     if word.startswith("-") and "NUMBER" in expected | {"NUMBER"} and word[1:2].isdigit():
         return span, "numbers are written without a sign", ("lengths, sizes and positions are positive; loads take a "
                                                              "direction word: `down`/`up`, `clockwise`/`counterclockwise`")
+    joined = _moving_without_and(text, col, word, expected)
+    if joined is not None:
+        return span, *joined
     if "FORCE_DIR" in expected:
         keyword = text.split()[0] if text.split() else ""
         example = _DIRECTION_EXAMPLES.get(keyword, _DIRECTION_EXAMPLES["point"])
@@ -133,6 +144,15 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     shown = f"'{word}'" if word else "end of line"
     misspelt = _misspelt_keyword(text[: col - 1], expected)
     return span, f"unexpected {shown}", misspelt or _expected(expected)
+
+
+def _moving_without_and(text: str, col: int, word: str, expected: set[str]) -> tuple[str, str] | None:
+    """`moving 20 kN 20 kN ...`: a second force (or spacing) of a moving group written without `and`."""
+    if text.split()[:1] != ["moving"] or not word[:1].isdigit() or "AND" not in expected:
+        return None
+    what = "spacings" if "spaced" in text[: col - 1].split() else "forces"
+    fixed = text[: col - 1].rstrip() + " and " + text[col - 1:]
+    return f"the {what} of a moving group are joined by `and`", f"write `{fixed.strip()}`"
 
 
 def _misspelt_keyword(before: str, expected: set[str]) -> str | None:
@@ -271,6 +291,12 @@ class _Build(Transformer):
     def property(self, name: Token, value: s.Quantity, second: s.Quantity | None = None) -> s.Property:
         end = second.span if second else value.span
         return s.Property(self._name(name), value, second, self._span(name, end))
+
+    def allowable_property(self, name: Token, value: s.Quantity) -> s.Property:
+        """`allowable bending 1.2 ksi`: one property named by both words."""
+        start = self._find("allowable", before=name.column)
+        return s.Property(s.Name(f"allowable {name}", self._span(start, name)), value, None,
+                          self._span(start, value.span))
 
     def member(self, mark: Token, title: Token) -> s.Member:
         return s.Member(self._name(mark), _unquote(str(title)), self._stmt_span())

@@ -191,10 +191,12 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         raise UnitProblem(Diagnostic(q.unit_span, f"unknown unit '{q.unit}'", extra))
     if f.kind != kind:
         got = _article(f.kind) if f.kind else "not a unit this language uses"
+        if POUND_MASS.search(q.unit) and kind != "density":
+            got = "in lb, the pound of mass (this language uses it for densities, e.g. \"35 lb/ft^3\")"
         label = {"moment": "a force times a length", "section modulus": "a length cubed"}.get(kind) or _article(kind)
         message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
         if POUND_MASS.search(q.unit) and kind != "density":
-            hint = "lb is a pound of mass; a pound-force is lbf (lbf/ft, or plf, for a line load)"
+            hint = f"a pound-force is lbf: write \"{q.number} {POUND_MASS.sub('lbf', q.unit)}\""
         raise UnitProblem(Diagnostic(q.span, message, hint))
     value = exact_number(q.number, q.span) * f.factor
     if not in_range(value):

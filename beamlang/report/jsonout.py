@@ -93,7 +93,9 @@ def _static(r: TargetResult) -> dict:
         "shear": {"max_abs": _at(r.shear_max, "value_N")},
         "points": [{"x_m": float(x), "deflection_m": float(v), "slope_rad": float(t)} for x, v, t in r.points],
         "stress": {"bending_Pa": _f(r.stress.bending), "shear_Pa": _f(r.stress.shear),
-                   "yield_Pa": _f(r.stress.yield_strength), "shear_strength_Pa": _f(r.stress.shear_strength),
+                   "yield_Pa": None if r.stress.allowable else _f(r.stress.yield_strength),
+                   "allowable_bending_Pa": _f(r.stress.yield_strength) if r.stress.allowable else None,
+                   "shear_strength_Pa": _f(r.stress.shear_strength),
                    "elastic": r.stress.elastic},
         "cross_check": {"max_rel_diff": reported(r.cross_check)},  # a bound: at most this, at least 1e-12
     }

@@ -126,8 +126,10 @@ def section_properties(a: Analysis) -> list[str]:
         lines += [f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
                   + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}"
                      if mat.yield_strength else "")
-                  + (f", shear strength fv = {number(convert(mat.shear_strength, stress), 6)} {stress}"
-                     if mat.shear_strength else "")
+                  + (f", allowable bending stress Fb = {number(convert(mat.allowable_bending, stress), 6)} {stress}"
+                     if mat.allowable_bending else "")
+                  + (f", {'allowable shear stress Fv' if mat.allowable_bending else 'shear strength fv'} = "
+                     f"{number(convert(mat.shear_strength, stress), 6)} {stress}" if mat.shear_strength else "")
                   + (f", density = {number(convert(mat.density, a.units['density']), 6)} {a.units['density']}"
                      if mat.density else "")
                   + f" (input line {mat.span.line}).", ""]
@@ -263,17 +265,30 @@ CAUTIONS = [
     "the deflection relative to the supports).",
     "The shear check is made at the neutral axis against the shear strength given with the material (`shear`), or "
     "else against fy/sqrt(3) (von Mises), which suits steel but overstates the shear strength of timber and other "
-    "non-metallic materials: give theirs. Bending and shear are not combined.",
+    "non-metallic materials: give theirs (a material given by `allowable bending` always gives its `shear`). "
+    "Bending and shear are not combined.",
     "This calculation must be reviewed and accepted by a qualified, licensed engineer before it is relied on.",
 ]
 
 
 def cautions(a: Analysis) -> list[str]:
-    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS + _unchecked_shear(a)]
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS[:-1] + _allowables(a) + CAUTIONS[-1:] + _unchecked_shear(a)]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
     return lines + [""]
+
+
+def _allowables(a: Analysis) -> list[str]:
+    """A material given by allowable stresses: they are used as written, its code's adjustments are not applied."""
+    lines = sorted({st.material.span.line for st in a.loaded.member.stretches if st.material.allowable_bending})
+    if not lines:
+        return []
+    where = ", ".join(str(n) for n in lines)
+    return [f"The allowable bending and shear stresses of the material (input line{'s' if len(lines) > 1 else ''} "
+            f"{where}) are used exactly as written. The adjustment factors of the governing timber or aluminium "
+            "code (load duration, moisture and temperature service, size, repetitive member, lateral stability, "
+            "welding and the like) are not applied here: they are the engineer's to apply to the values given."]
 
 
 def _unchecked_shear(a: Analysis) -> list[str]:
