@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from bisect import bisect_left, bisect_right
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import TYPE_CHECKING
@@ -188,14 +189,17 @@ def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
     bounds = region_bounds(m)
     out = []
     spans = 0
+    order = sorted(range(len(defl)), key=lambda i: defl[i].x)  # candidates by x; each region keeps their order
+    at = [defl[i].x for i in order]
     for lo, hi in zip(bounds, bounds[1:]):
-        inside = any(x <= lo for x in xs) and any(x >= hi for x in xs)
+        inside = bool(xs) and xs[0] <= lo and xs[-1] >= hi
         kind = "span" if inside else ("cantilever" if len(xs) == 1 and m.supports[0].kind == "fixed" else "overhang")
         basis = hi - lo if inside else 2 * (hi - lo)
         spans += inside
         name = (f"span {spans}" if inside else kind if kind == "cantilever" else
                 f"{'left' if lo == 0 else 'right'} overhang")
-        out.append(Region(lo, hi, kind, basis, largest_abs([d for d in defl if lo <= d.x <= hi]), name))
+        within = sorted(order[bisect_left(at, lo):bisect_right(at, hi)])
+        out.append(Region(lo, hi, kind, basis, largest_abs([defl[i] for i in within]), name))
     return tuple(out)
 
 

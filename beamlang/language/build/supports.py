@@ -8,10 +8,17 @@ from beamlang.language import syntax as s
 from beamlang.language.build.context import Context
 from beamlang.source import Span
 
+MAX_SUPPORTS = 1000  # the exact numbers of a continuous member grow with its spans: 1000 check in about 6 s
+
+
 
 def supports(ctx: Context, member_span: Span) -> tuple[m.Support, ...]:
     """The supports sorted by position (their positions also kept on the context, for settlements)."""
     stmts = ctx.of(s.Support)
+    if len(stmts) > MAX_SUPPORTS:
+        ctx.error(stmts[MAX_SUPPORTS].span, f"a member has at most {MAX_SUPPORTS} supports; this is support "
+                  f"{MAX_SUPPORTS + 1} of {len(stmts)}", "split the member into parts that each have fewer supports")
+        stmts = stmts[:MAX_SUPPORTS]
     out: list[m.Support] = []
     for st in stmts:
         sp = _support(ctx, st)
