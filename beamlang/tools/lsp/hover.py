@@ -7,6 +7,7 @@ import dataclasses
 
 from lsprotocol import types
 
+from beamlang.source import split_lines
 from beamlang.exact import fraction
 from beamlang.language import syntax as s
 from beamlang.language.fmt import statement_text
@@ -174,7 +175,7 @@ def code_end(row: str) -> int:
 
 def _word(text: str, line: int, col: int) -> tuple[str, Span] | None:
     """A statement keyword, section shape or support kind under the cursor, even on a line that does not parse."""
-    lines = text.splitlines()
+    lines = split_lines(text)
     if not 1 <= line <= len(lines):
         return None
     row = lines[line - 1]
