@@ -260,3 +260,28 @@ def test_reversed_direction_gives_the_larger_extreme():
     tips = scan(GROUP, L, lambda loads, x: cantilever(L, loads, x)[1], Fraction(1, 20))
     best, where = near_best(tips, -1)
     assert best == r.max_down.value and all(rv for _, _, rv in where)
+
+
+def test_moving_only_case_package_has_no_empty_sections_and_labels_its_wheels():
+    from beamlang.report.figures import all_figures, figure_names
+    from beamlang.report.markdown import member_markdown
+    text = member_text("12 m", ["pin at 0 m", "roller at span"], {"crane": ["moving 60 kN and 40 kN down spaced 3 m"]},
+                       ["combine strength = 1.5 crane"])
+    a = analyse_text(text)
+    md = member_markdown(a, figure_names(a))
+    case = md[md.index("## Case crane"):md.index("## Combination strength")]
+    assert "|---|---|---|\n\n" not in case and "No static loads" in case  # no empty Loads table
+    assert "Each load's elastic curve" not in case
+    assert "dynamic amplification" in md and "fatigue" in md  # the wheel-load caution beside the fatigue one
+    figures = all_figures(a)
+    moving = figures[figure_names(a)["(moving) crane"]]
+    assert ">1: 60 kN<" in moving and ">2: 40 kN<" in moving  # each wheel named on the influence lines
+    envelope = figures[figure_names(a)["(envelope)"]]
+    assert "strength (over every position of the moving group)" in envelope
+
+
+def test_static_member_has_no_moving_caution():
+    from beamlang.report.figures import figure_names
+    from beamlang.report.markdown import member_markdown
+    a = analyse_text(member_text("6 m", ["pin at 0 m", "roller at span"], {"dead": ["uniform 2 kN/m down"]}))
+    assert "dynamic amplification" not in member_markdown(a, figure_names(a))

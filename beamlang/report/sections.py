@@ -269,11 +269,24 @@ CAUTIONS = [
 
 
 def cautions(a: Analysis) -> list[str]:
-    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS + _unchecked_shear(a)]
+    cautions = CAUTIONS[:3] + _moving_cautions(a) + CAUTIONS[3:] + _unchecked_shear(a)
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in cautions]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
     return lines + [""]
+
+
+def _moving_cautions(a: Analysis) -> list[str]:
+    """A member with a moving group: its wheel loads are static forces as written, beside the fatigue caution."""
+    m = a.loaded.member
+    if not any(m.moving(t.name) for t in a.solution.targets):
+        return []
+    return ["The moving group's wheel loads are applied as static forces, exactly as written: no dynamic "
+            "amplification (impact allowance) of the vertical wheel loads is added, nor any horizontal wheel force "
+            "(lateral or along the runway). Where the governing code calls for an allowance, include it in the "
+            "wheel loads or in the combination's factor, and confirm it against that code. Fatigue under "
+            "repeated passes of the group is not checked (see above)."]
 
 
 def _unchecked_shear(a: Analysis) -> list[str]:
