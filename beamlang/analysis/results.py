@@ -147,7 +147,7 @@ def _moving_target(sol: Solution, t: Target) -> TargetResult:
         largest |slope| and |shear| tie with mirrored places of the other sign too."""
         if found is not None:
             tied = ties(env.of(q), found.value, q in ("theta", "V"), m.length)
-            first = next(c for c in tied if c.x == found.x)
+            first = next((c for c in tied if c.x == found.x), tied[0])
             picked.append((field, first))
             places.append((field, (first, *(c for c in tied if c is not first))))
             found = Located(found.x, found.value, None, "", tuple(sorted({c.x for c in tied})))
