@@ -41,7 +41,7 @@ def moving_figure(a: Analysis, name: str) -> str:
         top = float(max(ys.max(), 0.0))
         for k, (n, x, force) in enumerate(sorted(line.wheels, key=lambda w: w[1])):  # staggered: close wheels
             ax.text(length(x), top, f"{n}: {number(convert(force, u['force']))} {u['force']}", 6.0, LOAD,
-                    "middle", "bottom", dy=2 + 7 * (k % 2))
+                    "start", "top", dx=2.0, dy=-9.0 - 8.0 * (k % 2))
     for ax, band, quantity, marks in zip(axes[2:], drawing.bands, ("moment", "deflection"),
                                          ((r.moment_positive, r.moment_negative), (r.max_down, r.max_up))):
         q = band.quantity
