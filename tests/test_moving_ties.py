@@ -285,3 +285,28 @@ def test_static_member_has_no_moving_caution():
     from beamlang.report.markdown import member_markdown
     a = analyse_text(member_text("6 m", ["pin at 0 m", "roller at span"], {"dead": ["uniform 2 kN/m down"]}))
     assert "dynamic amplification" not in member_markdown(a, figure_names(a))
+
+
+def test_two_span_fixed_ends_ties_across_travel_directions():
+    # A symmetric two-span member (fixed, roller, fixed) under an asymmetric group: by symmetry, the group as
+    # written with its first force at p and the group reversed with its first force at L - p are mirror images,
+    # so every extreme the search lists must come in mirrored pairs (x and L - x, p and L - p, the direction
+    # flipped), and each listed place, re-solved as a static case with the forces where they stand, must give
+    # the listed value.
+    from beamlang.analysis.results import factored_loads
+    from beamlang.engine.moving import standing_case
+    from beamlang.engine.solve import curves_with
+    a = analyse_text(member_text("16 m", ["fixed at 0 m", "roller at 8 m", "fixed at span"],
+                                 {"crane": ["moving 60 kN and 40 kN down spaced 3 m"]}))
+    r, sol = a.result("crane"), a.solution
+    L, eps = Fraction(16), Fraction(1, 10**8)
+    for field, curve in (("max_down", "v"), ("max_up", "v"), ("moment_positive", "M"), ("moment_negative", "M")):
+        got = r.places_of(field)
+        assert len(got) == 2, field
+        first, other = got
+        assert first.reversed != other.reversed
+        assert abs(first.x + other.x - L) < eps and abs(first.position + other.position - L) < eps
+        for c in got:
+            curves = curves_with(sol, standing_case(r.envelope, c, factored_loads(sol, sol.target("crane"))))
+            value = getattr(curves, curve).at(c.x)
+            assert abs(value - c.value) <= Fraction(1, 10**9) * abs(c.value)
