@@ -37,8 +37,9 @@ def simple_beam(L, loads, x):
 def fixed_beam(L, loads, x):
     """Both ends fixed: M_A = -P a b^2 / L^2, R_A = P b^2 (3 a + b) / L^3 per load (Gere & Goodno, Mechanics
     of Materials, 8th ed., App. H, fixed-end actions of a point load, from memory; AISC Steel Construction Manual,
-    beam diagrams, fixed at both ends with a point load, from memory); then EI theta = M_A x + R_A x^2/2 - sum P <x - a>^2 / 2 and
-    EI v = M_A x^2/2 + R_A x^3/6 - sum P <x - a>^3 / 6, both zero at x = 0."""
+    beam diagrams, fixed at both ends with a point load, from memory); then
+    EI theta = M_A x + R_A x^2/2 - sum P <x - a>^2 / 2 and EI v = M_A x^2/2 + R_A x^3/6 - sum P <x - a>^3 / 6,
+    both zero at x = 0."""
     MA = sum(-P * a * (L - a) ** 2 / L**2 for a, P in loads)
     RA = sum(P * (L - a) ** 2 * (3 * a + (L - a)) / L**3 for a, P in loads)
     M = MA + RA * x - sum(P * _ramp(x, a, 1) for a, P in loads)
@@ -225,7 +226,8 @@ def test_two_span_sagging_moment_at_mirrored_irrational_places():
     # Two equal spans L, one force P at a = t L in the first: by the three-moment equation above, the moment under
     # it is P L (t - 5 t^2 / 4 + t^4 / 4), largest where 2 t^3 - 5 t + 2 = 0, t = 0.432320..., x = 3.45856 m on
     # 8 m spans, and its mirror 12.54144 m.
-    a = analyse_text(member_text("16 m", ["pin at 0 m", "roller at 8 m", "roller at span"], {"crane": ["moving 60 kN down"]}))
+    a = analyse_text(member_text("16 m", ["pin at 0 m", "roller at 8 m", "roller at span"],
+                                 {"crane": ["moving 60 kN down"]}))
     r = a.result("crane")
     t = 0.4323
     for _ in range(60):  # Newton on 2 t^3 - 5 t + 2

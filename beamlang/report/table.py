@@ -87,16 +87,17 @@ def _envelopes(a: Analysis, u: dict[str, str]) -> list[str]:
                 f"{value(c)} at x = {number(convert(c.x, L))} {L} ({_at_position(c, u)})" for c in places))
         for reach, turn in zip(r.reaches, r.moment_reaches):
             where = f"{number(convert(reach.x, L))} {L}"
-            lines.append(f"    reaction at {where}: max {show(reach.largest, u, 'force')} ("
-                         + "; ".join(_at_position(c, u) for c in reach.largest_at) + f"), min "
-                         f"{show(reach.smallest, u, 'force')} (" + "; ".join(_at_position(c, u) for c in reach.smallest_at)
-                         + ")")
+            lines.append(f"    reaction at {where}: " + _span(reach, u, "force"))
             if turn.largest or turn.smallest:
-                lines.append(f"    support moment at {where}: max {show(turn.largest, u, 'moment')} ("
-                             + "; ".join(_at_position(c, u) for c in turn.largest_at) + f"), min "
-                             f"{show(turn.smallest, u, 'moment')} ("
-                             + "; ".join(_at_position(c, u) for c in turn.smallest_at) + ")")
+                lines.append(f"    support moment at {where}: " + _span(turn, u, "moment"))
     return lines
+
+
+def _span(reach, u: dict[str, str], kind: str) -> str:
+    """'max V (positions), min V (positions)': a support over every position of the group."""
+    at = lambda items: "; ".join(_at_position(c, u) for c in items)  # noqa: E731
+    return (f"max {show(reach.largest, u, kind)} ({at(reach.largest_at)}), "
+            f"min {show(reach.smallest, u, kind)} ({at(reach.smallest_at)})")
 
 
 def _at_position(c, u: dict[str, str]) -> str:
