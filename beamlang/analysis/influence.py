@@ -30,6 +30,7 @@ class InfluenceLine:
     xi: np.ndarray  # unit-force positions, m
     values: np.ndarray
     forces_at: tuple[Fraction, ...]  # where the group's forces stand at the governing position, m
+    wheels: tuple[tuple[int, Fraction, Fraction], ...] = ()  # (number in the group as written, x m, force N down)
 
 
 @dataclass(frozen=True, slots=True)
@@ -64,7 +65,7 @@ def moving_drawing(sol: Solution, result) -> MovingDrawing:
             continue
         crit = result.position(field)
         forces = tuple(f.x for f in standing_loads(result.envelope, crit)) if crit is not None else ()
-        drawn.append(InfluenceLine(q, at, xi, lines.line(q, float(at.x), xi), forces))
+        drawn.append(InfluenceLine(q, at, xi, lines.line(q, float(at.x), xi), forces, _wheels(load, crit)))
     positions, offsets_all = _positions(load)
     xs = np.unique(np.concatenate([np.linspace(0.0, float(sol.member.length), X_SAMPLES), lines.xf]))
     bands = []
@@ -134,6 +135,18 @@ class _Lines:
             if on.any():
                 total[on] += float(env.factor * F) * self.line(q, x, xi[on])
         return total
+
+
+def _wheels(load, crit) -> tuple[tuple[int, Fraction, Fraction], ...]:
+    """Each force on the travel with the group where `crit` governs: its number as written, x and force (down)."""
+    if crit is None:
+        return ()
+    out = []
+    for k, (d, F) in enumerate(zip(group_offsets(load, crit.reversed), load.forces)):
+        x = crit.position + d
+        if load.lo <= x <= load.hi:
+            out.append((k + 1, x, -F))
+    return tuple(out)
 
 
 def _positions(load) -> tuple[np.ndarray, list]:

@@ -91,10 +91,17 @@ class TargetResult:
     moment_candidates: tuple[Candidate, ...]
     envelope: "Envelope | None" = None  # targets with a moving load: every extreme over the group's positions
     positions: tuple[tuple[str, "Critical"], ...] = ()  # result field -> the group position that gives it
+    places: tuple[tuple[str, tuple["Critical", ...]], ...] = ()  # result field -> every tied place and position
+    reaches: tuple = ()  # moving targets: per support, its force's largest and smallest over the positions
+    moment_reaches: tuple = ()  # the same for the support moments
     pattern: "PatternResult | None" = None  # targets with patterned cases: the envelopes and each extreme's arrangement
 
     def position(self, field: str) -> "Critical | None":
         return dict(self.positions).get(field)
+
+    def places_of(self, field: str) -> tuple["Critical", ...]:
+        """Every tied governing place of a moving extreme, the first one first (its position)."""
+        return dict(self.places).get(field, ())
 
 
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
@@ -135,19 +142,25 @@ def support_slope(theta, x: Fraction) -> Fraction:
 
 def _moving_target(sol: Solution, t: Target) -> TargetResult:
     """The envelope over every position of the target's moving group, in the same shape as a static result."""
+    from beamlang.analysis.governing import reaches, ties
     from beamlang.engine.moving import envelope
     m = sol.member
     env = envelope(sol, t, factored_loads(sol, t))
     picked: list[tuple[str, object]] = []
+    places: list[tuple[str, tuple]] = []
 
     def cands(q: str) -> list[Candidate]:  # segment -1: placed by x alone (a stretch end belongs to both)
         return [Candidate(c.x, c.value, c.how, None, "", -1) for c in env.of(q)]
 
     def locate(field: str, q: str, found: Located | None) -> Located | None:
+        """Every place that ties (a mirrored layout, the other travel direction), each with its position; the
+        largest |slope| and |shear| tie with mirrored places of the other sign too."""
         if found is not None:
-            crit = next(c for c in env.of(q) if c.x == found.x and c.value == found.value)
-            picked.append((field, crit))
-            found = Located(found.x, found.value, None, "", (found.x,))
+            tied = ties(env.of(q), found.value, q in ("theta", "V"), m.length)
+            first = next((c for c in tied if c.x == found.x), tied[0])
+            picked.append((field, first))
+            places.append((field, (first, *(c for c in tied if c is not first))))
+            found = Located(found.x, found.value, None, "", tuple(sorted({c.x for c in tied})))
         return found
 
     defl, moment, shear, slope = cands("v"), cands("M"), cands("V"), cands("theta")
@@ -165,7 +178,9 @@ def _moving_target(sol: Solution, t: Target) -> TargetResult:
         t.name, t.kind, reactions, max_down, max_up, slope_max,
         tuple((sp.x, env.support_slopes[j].value) for j, sp in enumerate(m.supports)),
         m_pos, m_neg, v_max, points, regions(sol, defl), _stress(sol, moment, shear),
-        _moving_cross_check(sol, t, env, governing), tuple(defl), tuple(moment), env, tuple(picked))
+        _moving_cross_check(sol, t, env, governing), tuple(defl), tuple(moment), env, tuple(picked), tuple(places),
+        reaches(env, "R", tuple(sp.x for sp in m.supports), m.length),
+        reaches(env, "Rm", tuple(sp.x for sp in m.supports), m.length))
 
 
 def _bigger(a, b):

@@ -44,9 +44,11 @@ def settlements(member: Member, loads) -> dict:
     return prescribed(member, loads)
 
 
-def standing_value(sol: Solution, target, result, field: str, kind: str) -> tuple[Fraction, tuple[Fraction, ...]]:
-    """A moving extreme re-solved as a static case: the response at its x, and where the group's forces stand."""
-    crit = result.position(field)
+def standing_value(sol: Solution, target, result, field: str, kind: str,
+                   crit=None) -> tuple[Fraction, tuple[Fraction, ...]]:
+    """A moving extreme re-solved as a static case: the response at its x, and where the group's forces stand
+    (at `crit`, one of the extreme's tied places; by default the first)."""
+    crit = crit if crit is not None else result.position(field)
     loads = standing_case(result.envelope, crit, factored_loads(sol, target))
     curves = curves_with(sol, loads)
     curve = curves.v if kind == "deflection" else curves.M

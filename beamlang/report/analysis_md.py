@@ -235,7 +235,8 @@ def envelope(a: Analysis, figure: str) -> list[str]:
                     f"{show(r.max_up.value if r.max_up else None, u, 'deflection')} |")
     moving = [n for n in names if a.loaded.member.moving(n)]
     note = ([f"For {', '.join(md(n) for n in moving)} the table gives the extremes over every position of the "
-             "moving group; the figure draws the static part only.", ""] if moving else [])
+             "moving group, each at its own position (not simultaneous); the figure draws the envelope over the "
+             "group's positions, sampled for drawing (the table's values are exact).", ""] if moving else [])
     return ["## Envelope", "", "| case or combination | largest M+ | largest M- | largest down | largest up |",
             "|---|---|---|---|---|", *rows, "", *note, f"![Envelope of moment and deflection]({figure})", ""]
 

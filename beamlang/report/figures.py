@@ -5,6 +5,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from beamlang.analysis.display import convert, number
+from beamlang.analysis.influence import moving_drawing
 from beamlang.model import LineLoad, MomentLoad, PointLoad, Settlement
 from beamlang.pipeline import Analysis
 from beamlang.report.drawing import (
@@ -349,23 +350,33 @@ def envelope_figure(a: Analysis) -> str:
     names = envelope_targets(a)
     fig = Figure()
     panels = [fig.panel(120.0), fig.panel(120.0)]
+    drawn = {name: moving_drawing(a.solution, a.result(name)) for name in names if a.solution.member.moving(name)}
     for ax, attr, quantity, label in ((panels[0], "M", "moment", "M"), (panels[1], "v", "deflection", "v")):
-        series = []
+        series = []  # (name, top, bottom, moving): a static curve has top == bottom; a moving group has its band
         for i, name in enumerate(names):
             xs, ys = sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
             pattern = a.result(name).pattern
-            if pattern is None:
-                series.append((name, ys))
-                continue
-            for s, side in ((1, "upper"), (-1, "lower")):  # the patterned target's envelopes at the same x
-                curve = pattern.curve(attr, s)
-                series.append((f"{name} ({side})", [float(convert(curve.at(p), u[quantity])) for p in xs]))
-        ax.band(x, [max(col) for col in zip(*(ys for _, ys in series))],
-                [min(col) for col in zip(*(ys for _, ys in series))], "#888888", 0.15)
-        for i, (name, ys) in enumerate(series):
-            tag = f"{name} (static part)" if a.solution.member.moving(name) else name
-            ax.line(x, ys, color=_PALETTE[i % len(_PALETTE)], width=0.9, label=tag if ax is panels[0] else None)
+            if name in drawn:
+                top, bottom = _moving_band(drawn[name], attr, u, quantity, [float(p) for p in xs])
+                series.append((name, top, bottom, True))
+            elif pattern is not None:
+                for s, side in ((1, "upper"), (-1, "lower")):  # the patterned target's envelopes at the same x
+                    curve = pattern.curve(attr, s)
+                    ys_side = [float(convert(curve.at(p), u[quantity])) for p in xs]
+                    series.append((f"{name} ({side})", ys_side, ys_side, False))
+            else:
+                series.append((name, ys, ys, False))
+        ax.band(x, [max(col) for col in zip(*(top for _, top, _, _ in series))],
+                [min(col) for col in zip(*(bottom for _, _, bottom, _ in series))], "#888888", 0.15)
+        for i, (name, top, bottom, moving) in enumerate(series):
+            color = _PALETTE[i % len(_PALETTE)]
+            if moving:
+                tag = f"{name} (over every position of the moving group)"
+                ax.line(x, top, color=color, width=0.9, label=tag if ax is panels[0] else None)
+                ax.line(x, bottom, color=color, width=0.9)
+            else:
+                ax.line(x, top, color=color, width=0.9, label=name if ax is panels[0] else None)
         ax.hline(0, width=0.6)
         ax.ylabel = f"{label} ({u[quantity]})"
     panels[0].legend.append(("envelope", "#888888", "band"))
@@ -373,6 +384,16 @@ def envelope_figure(a: Analysis) -> str:
                                          all(t.kind == "combination" for t in a.solution.targets) else "the cases"), 8.0)
     panels[1].xlabel = f"x ({u['length']}) from the left end"
     return fig.svg()
+
+
+def _moving_band(drawing, attr: str, u, quantity: str, xs_m: list[float]) -> tuple[list[float], list[float]]:
+    """A moving target's drawn envelope (static part plus the group at every drawn position), read at xs_m."""
+    import numpy as np
+    band = next(b for b in drawing.bands if b.quantity == attr)
+    scale = float(convert(Fraction(1), u[quantity]))
+    top = np.interp(xs_m, band.xs, band.top) * scale
+    bottom = np.interp(xs_m, band.xs, band.bottom) * scale
+    return [float(v) for v in top], [float(v) for v in bottom]
 
 
 _PALETTE = ("#1f4e79", "#b22222", "#2e7d32", "#8b4513", "#6a1b9a", "#00838f")

@@ -72,12 +72,16 @@ def _target(r: TargetResult) -> dict:
     if r.envelope is not None:  # the values above are extremes over every position of the moving group
         env = r.envelope
         out["moving"] = {
+            "envelope": "each value is the extreme over every position of the moving group, reached with the "
+                        "group where given; the values are not simultaneous",
             "input_line": env.load.span.line, "factor": float(env.factor),
-            "critical": {field: {"x_m": float(c.x), "first_force_at_m": float(c.position),
-                                 "reversed": c.reversed, "found": c.how} for field, c in r.positions},
-            "reactions": [{"x_m": float(big.x), "max_force_N": float(big.value),
-                           "max_at_first_force_m": float(big.position), "min_force_N": float(small.value),
-                           "min_at_first_force_m": float(small.position)} for big, small in env.reactions]}
+            "critical": {field: {**_position(c), "places": [_position(p, True) for p in r.places_of(field)]}
+                         for field, c in r.positions},
+            "reactions": [_reach(f, mo) for f, mo in zip(r.reaches, r.moment_reaches)]}
+        for entry, f, mo in zip(out["reactions"], r.reaches, r.moment_reaches):
+            entry.update({"envelope": True, "max_force_N": float(f.largest), "min_force_N": float(f.smallest)})
+            if mo.largest or mo.smallest:  # a support that resists moment
+                entry.update({"max_moment_Nm": float(mo.largest), "min_moment_Nm": float(mo.smallest)})
     if r.pattern is not None:  # the values above are extremes over every arrangement of the patterned cases
         out["pattern"] = {
             "cases": list(r.pattern.cases),
@@ -85,6 +89,25 @@ def _target(r: TargetResult) -> dict:
             "arrangements": 2 ** len(r.pattern.parts),
             "governing": [{"extreme": e, "loaded": how, "x_m": _f(x), "value_SI": float(v)}
                           for e, how, x, v, _ in r.pattern.arrangements]}
+    return out
+
+
+def _position(c, value: bool = False) -> dict:
+    """Where a moving extreme is reached: the place, the first force's position and the travel direction."""
+    out = {"x_m": float(c.x), "first_force_at_m": float(c.position), "reversed": c.reversed, "found": c.how}
+    return {**out, "value": float(c.value)} if value else out
+
+
+def _reach(force, moment) -> dict:
+    """A support over every position: its largest and smallest force and moment, each with every position."""
+    at = lambda items: [{"first_force_at_m": float(c.position), "reversed": c.reversed} for c in items]  # noqa: E731
+    out = {"x_m": float(force.x), "max_force_N": float(force.largest),
+           "max_at_first_force_m": float(force.largest_at[0].position), "max_positions": at(force.largest_at),
+           "min_force_N": float(force.smallest), "min_at_first_force_m": float(force.smallest_at[0].position),
+           "min_positions": at(force.smallest_at)}
+    if moment.largest or moment.smallest:  # a support that resists moment
+        out.update({"max_moment_Nm": float(moment.largest), "max_moment_positions": at(moment.largest_at),
+                    "min_moment_Nm": float(moment.smallest), "min_moment_positions": at(moment.smallest_at)})
     return out
 
 

@@ -20,8 +20,8 @@ def moving_figure(a: Analysis, name: str) -> str:
     drawing = moving_drawing(a.solution, r)
     to_length = float(convert(Fraction(1), u["length"]))
     length = lambda x: float(x) * to_length  # noqa: E731  SI metres (exact or float) -> report length unit
-    fig = Figure(title=f"{name}: moving group, influence lines and envelopes (dashed: the group where the value "
-                       "governs)")
+    fig = Figure(title=f"{name}: moving group, influence lines and envelopes (dashed: the group's forces where the "
+                       "value governs, numbered as written)")
     axes = [fig.panel(110.0, LABEL_ROOM) for _ in range(4)]
     per_force = 1 / float(convert(Fraction(1), u["force"]))  # newtons in one report force unit
     for ax, line, quantity in zip(axes[:2], drawing.lines, ("deflection", "moment")):
@@ -38,6 +38,10 @@ def moving_figure(a: Analysis, name: str) -> str:
                     "down at the position on the axis", 7.0)
         for x in line.forces_at:
             ax.vline(length(x), color=LOAD, width=0.8, dash="dashed")
+        top = float(max(ys.max(), 0.0))
+        for k, (n, x, force) in enumerate(sorted(line.wheels, key=lambda w: w[1])):  # staggered: close wheels
+            ax.text(length(x), top, f"{n}: {number(convert(force, u['force']))} {u['force']}", 6.0, LOAD,
+                    "start", "top", dx=2.0, dy=-9.0 - 8.0 * (k % 2))
     for ax, band, quantity, marks in zip(axes[2:], drawing.bands, ("moment", "deflection"),
                                          ((r.moment_positive, r.moment_negative), (r.max_down, r.max_up))):
         q = band.quantity

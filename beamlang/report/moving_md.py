@@ -47,23 +47,38 @@ def moving_section(a: Analysis, t, r) -> list[str]:
              f"{env.interiors} could hold both a value beyond those already found and a critical point (float "
              "bounds with a safety margin, on the response and on ∂f/∂x and ∂f/∂p, decide) and were solved exactly.",
              "",
+             "Every value below is an envelope over the group's positions: the extreme of that response over "
+             "every position, reached with the group where its row says (first force at, direction of travel). "
+             "The values are not simultaneous: each comes from its own position. Where a layout is mirrored, or "
+             "the other travel direction gives the same value, every place that ties is listed, each with its "
+             "own position (the largest slope and shear tie with mirrored places of the other sign); where a whole "
+             "range of positions or places gives the same value, the ends of the range are listed.",
+             "",
              "| result | value | at x | first force at | direction | found |", "|---|---|---|---|---|---|"]
     for field, label, kind in MOVING_FIELDS:
-        loc, crit = getattr(r, field), r.position(field)
-        if loc is None or crit is None:
+        loc, places = getattr(r, field), r.places_of(field)
+        if loc is None or not places:
             lines.append(f"| {label} | none | - | - | - | - |")
             continue
-        value = f"{plain(loc.value)} rad" if kind == "slope" else show(loc.value, u, kind, 6)
-        mark = "" if crit.exact else " (refined roots)"
-        lines.append(f"| {label} | {value} | {show(loc.x, u, 'length')} | {show(crit.position, u, 'length')} "
-                     f"| {'reversed' if crit.reversed else 'as written'} | {crit.how}{mark} |")
-    lines += ["", "Reactions over all positions (up +):", "",
-              "| support | x | largest | first force at | smallest | first force at | input line |",
+        for k, crit in enumerate(places):
+            value = f"{plain(crit.value)} rad" if kind == "slope" else show(crit.value, u, kind, 6)
+            mark = "" if crit.exact else " (refined roots)"
+            name = label if k == 0 else f"{label} (tied place {k + 1} of {len(places)})"
+            lines.append(f"| {name} | {value} | {show(crit.x, u, 'length')} | {show(crit.position, u, 'length')} "
+                         f"| {direction(crit)} | {crit.how}{mark} |")
+    lines += ["", "Reactions over all positions (up +): the largest and the smallest each support takes as the group "
+              "travels, each with every group position found to give it (first force at, direction); they are "
+              "not one simultaneous set of reactions.", "",
+              "| support | x | largest | group at | smallest | group at | input line |",
               "|---|---|---|---|---|---|---|"]
-    for sp, (big, small) in zip(m.supports, env.reactions):
-        lines.append(f"| {sp.kind} | {show(sp.x, u, 'length')} | {show(big.value, u, 'force')} | "
-                     f"{show(big.position, u, 'length')} | {show(small.value, u, 'force')} | "
-                     f"{show(small.position, u, 'length')} | {sp.span.line} |")
+    for sp, reach, turn in zip(m.supports, r.reaches, r.moment_reaches):
+        lines.append(f"| {sp.kind} | {show(sp.x, u, 'length')} | {show(reach.largest, u, 'force')} | "
+                     f"{positions(reach.largest_at, u)} | {show(reach.smallest, u, 'force')} | "
+                     f"{positions(reach.smallest_at, u)} | {sp.span.line} |")
+        if turn.largest or turn.smallest:
+            lines.append(f"| {sp.kind}, moment | {show(sp.x, u, 'length')} | {show(turn.largest, u, 'moment')} | "
+                         f"{positions(turn.largest_at, u)} | {show(turn.smallest, u, 'moment')} | "
+                         f"{positions(turn.smallest_at, u)} | {sp.span.line} |")
     lines += standing_check(a, t, r)
     if m.report_points:
         lines += ["", "Requested points over all positions:", "", "| x | largest up | largest down |", "|---|---|---|"]
@@ -73,6 +88,15 @@ def moving_section(a: Analysis, t, r) -> list[str]:
     return lines + [""]
 
 
+def direction(crit) -> str:
+    return "reversed" if crit.reversed else "as written"
+
+
+def positions(items, u) -> str:
+    """Group positions as 'first force at, direction', every one that ties."""
+    return "; ".join(f"{show(c.position, u, 'length')}, {direction(c)}" for c in items)
+
+
 def standing_check(a: Analysis, t, r) -> list[str]:
     """The governing positions re-solved as ordinary static cases: the checker's way to confirm them."""
     u = a.units
@@ -80,10 +104,13 @@ def standing_check(a: Analysis, t, r) -> list[str]:
              "they stand, with the target's other loads), and the response read at the governing x:", "",
              "| result | forces at | value of the static case | envelope value |", "|---|---|---|---|"]
     for field, label, kind in MOVING_FIELDS[:4]:
-        loc, crit = getattr(r, field), r.position(field)
-        if loc is None or crit is None:
+        loc, places = getattr(r, field), r.places_of(field)
+        if loc is None:
             continue
-        value, forces = standing_value(a.solution, t, r, field, kind)
-        wheels = ", ".join(show(x, u, "length") for x in forces) or "off the member"
-        lines.append(f"| {label} | {wheels} | {show(value, u, kind, 6)} | {show(loc.value, u, kind, 6)} |")
+        for k, crit in enumerate(places):
+            value, forces = standing_value(a.solution, t, r, field, kind, crit)
+            wheels = ", ".join(show(x, u, "length") for x in forces) or "off the member"
+            name = label if k == 0 else f"{label} (tied place {k + 1})"
+            lines.append(f"| {name}, x = {show(crit.x, u, 'length')} | {wheels} | {show(value, u, kind, 6)} | "
+                         f"{show(crit.value, u, kind, 6)} |")
     return lines

@@ -273,8 +273,9 @@ CAUTIONS = [
 
 def cautions(a: Analysis) -> list[str]:
     from beamlang.report.pattern_md import pattern_cautions
-    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in CAUTIONS[:-1] + _allowables(a) + _unchecked_shear(a)
-                                                   + pattern_cautions(a) + CAUTIONS[-1:]]
+    cautions = (CAUTIONS[:3] + _moving_cautions(a) + CAUTIONS[3:-1] + _allowables(a) + _unchecked_shear(a)
+                + pattern_cautions(a) + CAUTIONS[-1:])
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in cautions]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
@@ -291,6 +292,18 @@ def _allowables(a: Analysis) -> list[str]:
             f"{where}) are used exactly as written. The adjustment factors of the governing timber or aluminium "
             "code (load duration, moisture and temperature service, size, repetitive member, lateral stability, "
             "welding and the like) are not applied here: they are the engineer's to apply to the values given."]
+
+
+def _moving_cautions(a: Analysis) -> list[str]:
+    """A member with a moving group: its wheel loads are static forces as written, beside the fatigue caution."""
+    m = a.loaded.member
+    if not any(m.moving(t.name) for t in a.solution.targets):
+        return []
+    return ["The moving group's wheel loads are applied as static forces, exactly as written: no dynamic "
+            "amplification (impact allowance) of the vertical wheel loads is added, nor any horizontal wheel force "
+            "(lateral or along the runway). Where the governing code calls for an allowance, include it in the "
+            "wheel loads or in the combination's factor, and confirm it against that code. Fatigue under "
+            "repeated passes of the group is not checked (see above)."]
 
 
 def _unchecked_shear(a: Analysis) -> list[str]:

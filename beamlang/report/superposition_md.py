@@ -16,6 +16,9 @@ from beamlang.report.tributary import tributary_lines
 
 
 def loads_table(a: Analysis, t) -> list[str]:
+    if not t.loads:  # a case that holds only a moving group: its forces are listed with the group
+        return ["### Loads", "", "No static loads: the case holds only the moving group, whose forces and travel "
+                "are given under Moving load below.", ""] + self_weight_lines(a, t)
     doc_lines = {st.span.line: st for _, st in a.loaded.document.statements}
     w = working_units(a.units)
     rows = [f"| {ld.span.line} | `{cell(statement_text(doc_lines[ld.span.line]))}` | {_load_value(ld, w)} |"
@@ -64,6 +67,8 @@ def x_range(start, end, length: str = "m") -> str:
 
 
 def each_load(a: Analysis, t) -> list[str]:
+    if not t.loads:  # only a moving group: its response is the envelope below, not one elastic curve
+        return []
     m = a.loaded.member
     w = working_units(a.units)
     L, d = w["length"], w["deflection"]

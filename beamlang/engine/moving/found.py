@@ -33,6 +33,8 @@ class Envelope:
     points: tuple[tuple[Critical | None, Critical | None], ...]  # per report point: (v up, v down)
     cells: int  # how many (x, p) cells the plane was cut into, for the calc package
     interiors: int  # how many cell interiors needed the exact critical-point search (the others were bounded)
+    fixed: tuple[tuple[tuple[str, object], tuple[Critical, ...]], ...] = ()  # (quantity, x or support) -> every
+    # candidate found there: the analysis collects every position that ties for a reaction's largest or smallest
 
     def of(self, quantity: str) -> tuple[Critical, ...]:
         return dict(self.extremes)[quantity]

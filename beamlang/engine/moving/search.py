@@ -99,7 +99,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
             found[q] += items
     searched = _interiors(found, inner, sol.xs, best)
     return Envelope(load, factor, tuple((q, tuple(found[q])) for q in QUANTITIES), reactions, moments, slopes,
-                    points, cells, searched)
+                    points, cells, searched, tuple((key, tuple(items)) for key, items in at_fixed.items()))
 
 
 def standing_loads(env: Envelope, crit: Critical) -> list[PointLoad]:

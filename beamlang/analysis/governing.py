@@ -1,0 +1,60 @@
+"""A moving envelope's candidates -> every tied governing place of an extreme, each with its group position,
+and each support's force as the largest and smallest over the group's positions (never one simultaneous set)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+from typing import TYPE_CHECKING
+
+from beamlang.engine.extrema import SAME
+
+if TYPE_CHECKING:  # the moving engine is loaded only for moving targets
+    from beamlang.engine.moving import Critical, Envelope
+
+NEAR = Fraction(1, 10**9)  # two refined roots this close (relative to the member's length) are one place
+
+
+@dataclass(frozen=True, slots=True)
+class Reach:
+    """The largest and smallest value of a support's force (or moment) over the group's positions, each with
+    every group position found to reach it."""
+
+    x: Fraction
+    largest: Fraction
+    largest_at: tuple["Critical", ...]
+    smallest: Fraction
+    smallest_at: tuple["Critical", ...]
+
+
+def ties(items, target: Fraction, absolute: bool, length: Fraction) -> tuple["Critical", ...]:
+    """Every candidate whose value ties with `target` (its magnitude, when `absolute`: a mirrored slope or shear
+    has the other sign), one per distinct (place, group position, direction), ordered by x, then position."""
+    size = abs(target)
+    tied = [c for c in items if abs((abs(c.value) if absolute else c.value) - (size if absolute else target))
+            <= SAME * size]
+    return distinct(tied, length)
+
+
+def distinct(items, length: Fraction) -> tuple["Critical", ...]:
+    """One candidate per place and group position (the same point found from two cells, or by two routes,
+    counts once; an exact one is kept before a refined one)."""
+    eps = NEAR * length
+    out: list = []
+    for c in sorted(items, key=lambda c: (c.x, c.reversed, c.position, not c.exact)):
+        if any(o.reversed == c.reversed and abs(o.x - c.x) <= eps and abs(o.position - c.position) <= eps
+               for o in out):
+            continue
+        out.append(c)
+    return tuple(out)
+
+
+def reaches(env: "Envelope", kind: str, xs: tuple[Fraction, ...], length: Fraction) -> tuple[Reach, ...]:
+    """Per support: the largest and smallest of its force (kind "R") or moment ("Rm") over every position."""
+    fixed = dict(env.fixed)
+    out = []
+    for j, x in enumerate(xs):
+        items = fixed[(kind, j)]
+        hi, lo = max(c.value for c in items), min(c.value for c in items)
+        out.append(Reach(x, hi, ties(items, hi, False, length), lo, ties(items, lo, False, length)))
+    return tuple(out)
