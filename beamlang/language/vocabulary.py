@@ -8,13 +8,14 @@ from __future__ import annotations
 FIELDS = ("project", "job", "by", "checked", "date", "revision")
 KEYWORDS = ("member", *FIELDS, "units", "span", "material", "section", "support", "hinge", "case", "point",
             "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "limit", "check",
-            "report", "note", "catalogue")
+            "report", "note", "catalogue", "include")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 FORCE_DIRECTIONS = ("down", "up")
 TURN_DIRECTIONS = ("clockwise", "counterclockwise")
 SYSTEMS = ("si", "us")
-CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span")
+CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span", "shear",
+               "deformation", "frequency", "mass")
 LOADS = ("point", "uniform", "linear", "moment", "self-weight", "settlement", "moving")
 TARGETED = ("combine", "limit", "check")  # statements that name cases or combinations
 
@@ -24,8 +25,9 @@ FORMS: dict[str, tuple[str, str]] = {
     **{f: (f'{f} "text"', "a title-block field, taken from the file, never from the clock") for f in FIELDS},
     "units": ("units si | units us", "the report units; default from the unit of the span"),
     "span": ("span LENGTH", "the total length of the member"),
-    "material": ("material [NAME] E STRESS [yield STRESS] [shear STRESS] [density DENSITY] [from POS to POS]",
-                 "elastic modulus (required); yield and shear strength and density (optional)"),
+    "material": ("material [NAME] E STRESS [G STRESS] [yield STRESS] [shear STRESS] [density DENSITY] "
+                 "[from POS to POS]",
+                 "elastic modulus (required); shear modulus, yield and shear strength and density (optional)"),
     "section": ('section ["designation"] SHAPE DIMENSIONS [from POS to POS]',
                 "the cross-section: properties, rectangle, round, tube, box or I-shape"),
     "support": ("support fixed|pin|roller at POS  or  support spring STIFFNESS at POS",
@@ -41,10 +43,14 @@ FORMS: dict[str, tuple[str, str]] = {
     "moving": ("moving F [and F ...] down|up [spaced S [and S ...]] [from POS to POS]",
                "a group of forces at fixed spacings travelling along the member"),
     "combine": ("combine NAME = [F] CASE + [F] CASE ...", "a factored sum of cases"),
-    "limit": ("limit deflection TARGET span/N | LENGTH  or  limit slope [TARGET] at supports ANGLE",
-              "a deflection limit on a case or combination, or a slope limit at the bearings"),
+    "limit": ("limit deflection TARGET span/N | LENGTH  or  limit slope [TARGET] at supports ANGLE  or  "
+              "limit frequency FREQUENCY mass [F] CASE + ...",
+              "a deflection limit on a case or combination, a slope limit at the bearings, or the least "
+              "fundamental frequency with the cases whose loads are the mass"),
     "check": ("check stress TARGET", "the elastic bending and shear stress check of a case or combination"),
     "report": ("report deflection at POS", "an extra point to report"),
     "note": ('note "text"', "an assumption carried into the calc package"),
     "catalogue": ('catalogue "FILE.csv"', "the sections `beamlang size` tries for this member"),
+    "include": ("include shear deformation",
+                "deflections add the shear part V / (kappa G A); needs G on the material line"),
 }

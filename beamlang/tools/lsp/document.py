@@ -149,4 +149,6 @@ def target_names(st: s.Statement) -> list[s.Name]:
         return [st.target]
     if isinstance(st, s.SlopeLimit) and st.target is not None:
         return [st.target]
+    if isinstance(st, s.FrequencyLimit):
+        return [t.case for t in st.terms]
     return []
