@@ -18,6 +18,10 @@ CAUTIONS = [
 ]
 
 
+# units in which f1 = pi / (2 L^2) sqrt(EI / m) comes out in Hz: SI, and kip, inch, second for US members
+CONSISTENT = {"si": ("m", "N*m^2", "kg/m"), "us": ("in", "kip*in^2", "kip*s^2/in^2")}
+
+
 def frequency_section(a: Analysis, figures: dict[str, str]) -> list[str]:
     """One subsection per `limit frequency` line (none when the member has none)."""
     if not a.frequencies:
@@ -64,10 +68,12 @@ def _method(a: Analysis, found) -> list[str]:
     if f.method == "closed form":
         rel = abs(f.hz - f.fe_hz) / f.hz
         st = m.stretches[0]
-        mass = sum(float(m1) for _, _, m1, _ in found.masses.lines)
-        return ["The member is a uniform simple span with a uniform mass: the closed form applies,", "",
+        mass = sum((m1 for _, _, m1, _ in found.masses.lines), 0)
+        L, EI, ml = CONSISTENT[m.units]
+        return [f"The member is a uniform simple span with a uniform mass: the closed form applies (in consistent "
+                f"units: L in {L}, EI in {EI}, m in {ml}),", "",
                 f"$$f_1 = \\frac{{\\pi}}{{2 L^2}} \\sqrt{{\\frac{{EI}}{{m}}}} = \\frac{{\\pi}}{{2 \\times "
-                f"({quantity(float(m.length), 'm', 6)})^2}} \\sqrt{{\\frac{{{quantity(float(st.EI), 'N*m^2', 6)}}}"
-                f"{{{quantity(mass, 'kg/m', 6)}}}}} = {quantity(f.hz, 'Hz', 6)}$$", "",
+                f"({quantity(convert(m.length, L), L, 6)})^2}} \\sqrt{{\\frac{{{quantity(convert(st.EI, EI), EI, 6)}}}"
+                f"{{{quantity(convert(mass, ml), ml, 6)}}}}} = {quantity(f.hz, 'Hz', 6)}$$", "",
                 f"As a check: {numeric} It gives {number(f.fe_hz, 9)} Hz, {rel:.1e} relative from the closed form.", ""]
     return [numeric, ""]
