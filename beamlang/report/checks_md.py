@@ -130,8 +130,9 @@ def _magnitude(c: Check, d: str) -> list[str]:
         return [f"$$\\delta = |v| = {quantity(convert(c.actual, d), d)}$$", ""]
     vb, vs = (convert(p, d) for p in c.parts)
     total = c.parts[0] + c.parts[1]
-    return ["With shear deformation the deflection is the bending part $v_b$ (M/EI integrated twice) plus the "
-            "shear part $v_s$ (minus V/(κGA) integrated once), both at this place:", "",
+    return ["With shear deformation the deflection is the bending part $v_b$ (M/EI integrated twice, with any "
+            "movement of the supports) plus the shear part $v_s$ (minus V/(κGA) integrated once), both at this "
+            "place:", "",
             f"$$\\delta = |v_b + v_s| = |{quantity(vb, d)} {'+' if vs >= 0 else '-'} {quantity(abs(vs), d)}| = "
             f"{quantity(convert(c.actual, d), d)}$$", "",
             f"| part | deflection ({d}) | share of δ |", "|---|---|---|",
