@@ -20,7 +20,13 @@ class Material:
     density: Fraction | None  # kg/m^3
     span: Span
     shear_strength: Fraction | None = None  # Pa; given: the shear check uses it instead of yield/sqrt(3)
+    allowable_bending: Fraction | None = None  # Pa; given (timber, aluminium): the bending check's limit, no yield
     G: Fraction | None = None  # Pa, the shear modulus (for shear deformation)
+
+    @property
+    def bending_strength(self) -> Fraction | None:
+        """What bending stress is checked against: the allowable bending stress where given, else the yield."""
+        return self.allowable_bending if self.allowable_bending is not None else self.yield_strength
 
 
 @dataclass(frozen=True, slots=True)

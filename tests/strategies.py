@@ -6,11 +6,11 @@ from hypothesis import strategies as st
 
 SYSTEMS = {
     "si": {"length": ("m", 1000, "mm"), "force": ("kN", "N"), "line": ("kN/m", "N/mm"), "moment": ("kN*m", "kN\u00b7m"),
-           "E": "200 GPa", "G": "80 GPa", "yield": "350 MPa", "density": "7850 kg/m^3",
-           "spring": "5 kN/mm"},
+           "E": "200 GPa", "G": "80 GPa", "yield": "350 MPa", "density": "7850 kg/m^3", "spring": "5 kN/mm",
+           "allowable": "allowable bending 150 MPa shear 90 MPa"},
     "us": {"length": ("ft", 12, "in"), "force": ("kip", "lbf"), "line": ("kip/ft", "lbf/ft"), "moment": ("kip*ft", "kip*in"),
-           "E": "29000 ksi", "G": "11200 ksi", "yield": "50 ksi", "density": "490 lb/ft^3",
-           "spring": "30 kip/in"},
+           "E": "29000 ksi", "G": "11200 ksi", "yield": "50 ksi", "density": "490 lb/ft^3", "spring": "30 kip/in",
+           "allowable": "allowable bending 1.2 ksi shear 0.18 ksi"},
 }
 SECTIONS = {
     "si": ["section rectangle width 100 mm depth 200 mm", "section I-shape depth 250 mm flange 150 mm x 12 mm web 8 mm",
@@ -49,7 +49,8 @@ def members(draw) -> str:
     gap = lambda: draw(st.sampled_from([" ", "  ", "\t"]))  # noqa: E731
     lines = [f'member M-{draw(st.integers(1, 99))}{gap()}"Generated member"',
              f"span{gap()}{span} {unit}",
-             f"material steel E {u['E']}{gap()}yield {u['yield']} density {u['density']} G {u['G']}",
+             f"material steel E {u['E']}{gap()}"
+             + draw(st.sampled_from([f"yield {u['yield']}", u["allowable"]])) + f" density {u['density']} G {u['G']}",
              'project "Generated"  # a comment']
     inside = st.integers(1, span * sub - 1).filter(lambda k: 2 * k != span * sub)  # not an end, not span/2
     sections = draw(st.lists(st.sampled_from(SECTIONS[system]), min_size=1, max_size=3))

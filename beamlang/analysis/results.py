@@ -37,19 +37,22 @@ class Stress:
 
     bending: Fraction | None  # Pa, M c / I at the largest |M| (of the governing stretch)
     shear: Fraction | None  # Pa, V Q / (I t) at the largest |V| (of the governing stretch)
-    yield_strength: Fraction | None  # of the stretch where bending governs
+    yield_strength: Fraction | None  # the bending limit of the stretch where bending governs: fy, or see `allowable`
     bending_at: Located | None = None  # the moment that gives `bending`
     shear_at: Located | None = None
     shear_yield: Fraction | None = None  # of the stretch where shear governs
     shear_strength: Fraction | None = None  # that stretch's material's own shear strength, where given
     bending_stretch: int | None = None  # index of the stretch where bending governs (its section and material)
     shear_stretch: int | None = None  # index of the stretch where shear governs
+    allowable: bool = False  # `yield_strength` is the allowable bending stress given with the material, not fy
 
     @property
     def elastic(self) -> bool | None:
+        """Within fy (and the shear capacity); within allowable stresses it is elastic too, above them unknown."""
         if self.yield_strength is None or self.bending is None:
             return None
-        return self.bending <= self.yield_strength and self.shear_ok
+        within = self.bending <= self.yield_strength and self.shear_ok
+        return None if self.allowable and not within else within
 
     @property
     def shear_ok(self) -> bool:
@@ -206,7 +209,7 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
     m = sol.member
     bending = shearing = None  # (ratio key, stress, located, fy, stretch index[, shear strength])
     for k, st in enumerate(m.stretches):
-        sec, fy, fv = st.section, st.material.yield_strength, st.material.shear_strength
+        sec, fy, fv = st.section, st.material.bending_strength, st.material.shear_strength
         inside = lambda c: _in_stretch(sol, c, st)  # noqa: E731
         ms = [c for c in moment if inside(c)]
         at = max((l for l in (largest(ms, 1), largest(ms, -1)) if l is not None), key=lambda l: abs(l.value),
@@ -221,12 +224,13 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
             key = _shear_key(tau, fy, fv)
             if shearing is None or key > shearing[0]:
                 shearing = (key, tau, v_at, fy, k, fv)
-    fy0 = m.stretches[0].material.yield_strength
+    fy0 = m.stretches[0].material.bending_strength
+    governing = m.stretches[bending[4] if bending else 0].material
     return Stress(bending[1] if bending else None, shearing[1] if shearing else None,
                   bending[3] if bending else fy0, bending[2] if bending else None,
                   shearing[2] if shearing else None, shearing[3] if shearing else None,
                   shearing[5] if shearing else None, bending[4] if bending else None,
-                  shearing[4] if shearing else None)
+                  shearing[4] if shearing else None, governing.allowable_bending is not None)
 
 
 def _ratio(stress: Fraction, fy: Fraction | None) -> Fraction:

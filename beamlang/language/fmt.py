@@ -6,7 +6,7 @@ from beamlang.language import syntax as s
 from beamlang.language.build import FIELD_ORDER
 from beamlang.language.sections import SHAPE_DIMENSIONS
 
-MATERIAL_ORDER = ("E", "G", "yield", "shear", "density")
+MATERIAL_ORDER = ("E", "G", "yield", "allowable bending", "shear", "density")
 INDENT = "  "
 
 

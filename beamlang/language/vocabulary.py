@@ -14,8 +14,8 @@ SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 FORCE_DIRECTIONS = ("down", "up")
 TURN_DIRECTIONS = ("clockwise", "counterclockwise")
 SYSTEMS = ("si", "us")
-CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span", "shear",
-               "deformation", "frequency", "mass")
+CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span",
+               "allowable", "shear", "deformation", "frequency", "mass")
 LOADS = ("point", "uniform", "linear", "moment", "self-weight", "settlement", "moving")
 TARGETED = ("combine", "limit", "check")  # statements that name cases or combinations
 
@@ -25,9 +25,11 @@ FORMS: dict[str, tuple[str, str]] = {
     **{f: (f'{f} "text"', "a title-block field, taken from the file, never from the clock") for f in FIELDS},
     "units": ("units si | units us", "the report units; default from the unit of the span"),
     "span": ("span LENGTH", "the total length of the member"),
-    "material": ("material [NAME] E STRESS [G STRESS] [yield STRESS] [shear STRESS] [density DENSITY] "
-                 "[from POS to POS]",
-                 "elastic modulus (required); shear modulus, yield and shear strength and density (optional)"),
+    "material": ("material [NAME] E STRESS [G STRESS] [yield STRESS | allowable bending STRESS] [shear STRESS] "
+                 "[density DENSITY] [from POS to POS]",
+                 "elastic modulus (required); the shear modulus (for shear deformation); a metal's yield strength, or "
+                 "the allowable (design) bending stress of timber or aluminium with its allowable shear; shear "
+                 "strength and density (optional)"),
     "section": ('section ["designation"] SHAPE DIMENSIONS [from POS to POS]',
                 "the cross-section: properties, rectangle, round, tube, box or I-shape"),
     "support": ("support fixed|pin|roller at POS  or  support spring STIFFNESS at POS",

@@ -37,7 +37,9 @@ def checks_detail(a: Analysis) -> list[str]:
         if st.bending is None:
             continue
         shear = show(st.shear, u, "stress") if st.shear is not None else "not computed (section given by properties)"
-        state = {True: "elastic", False: "NOT elastic: superposition is not valid", None: "no yield strength given"}[st.elastic]
+        state = {True: "within the allowable stresses: elastic" if st.allowable else "elastic", False: "NOT elastic: superposition is not valid",
+                 None: "above the allowable stresses, and no yield strength is given to say whether it stays elastic"
+                 if st.allowable else "no yield strength given"}[st.elastic]
         lines.append(f"- {md(r.name)}: bending stress {show(st.bending, u, 'stress')}, shear stress {shear}: {state}.")
     return lines + [""]
 
@@ -63,8 +65,12 @@ def basis(a: Analysis, c: Check) -> str:
         return c.basis.replace("f1 at least the limit; ", "f1 at least the least frequency given; ")
     mat = m.stretches[c.stretch].material if c.stretch is not None else m.stretches[0].material
     where = f" (material line {mat.span.line})"
+    if c.kind == "bending stress" and c.strength == "allowable":
+        return "sigma = M c / I against the allowable bending stress Fb given with the material" + where
     if c.kind == "bending stress":
         return "sigma = M c / I against the yield strength fy" + where
+    if c.strength == "shear" and mat.allowable_bending is not None:
+        return "tau = V Q / (I t) against the allowable shear stress Fv given with the material" + where
     if c.strength == "shear":
         return "tau = V Q / (I t) against the shear strength fv given with the material" + where
     return "tau = V Q / (I t) against fy/sqrt(3) (von Mises)" + where
@@ -211,6 +217,10 @@ def _bending(a: Analysis, c: Check) -> list[str]:
                   f"$$\\sigma = \\frac{{M}}{{S}} = \\frac{{{quantity(convert(big_m, mo), mo)}}}"
                   f"{{{quantity(convert(sec.S, s + '^3'), s + '^3')}}} = {quantity(convert(c.actual, f), f)}$$", ""]
     name = md(mat.name or "the material")
+    if c.strength == "allowable":
+        return lines + [f"The allowable bending stress Fb is the value given with {name} (material line "
+                        f"{mat.span.line}), used as written: no adjustment factor is applied to it here:", "",
+                        f"$$\\sigma_{{allow}} = F_b = {quantity(convert(c.allowed, f), f)}$$", ""]
     lines += [f"The allowed bending stress is the yield strength fy of {name} (material line {mat.span.line}):", "",
               f"$$\\sigma_{{allow}} = f_y = {quantity(convert(c.allowed, f), f)}$$", ""]
     return lines
@@ -231,6 +241,10 @@ def _shear(a: Analysis, c: Check) -> list[str]:
              f"{quantity(convert(sec.Q, s + '^3'), s + '^3')}}}{{{quantity(convert(sec.I, s + '^4'), s + '^4')} "
              f"\\times {quantity(convert(sec.t, s), s)}}} = {quantity(convert(c.actual, f), f)}$$", ""]
     name = md(mat.name or "the material")
+    if c.strength == "shear" and mat.allowable_bending is not None:
+        return lines + [f"The allowable shear stress Fv is the value given with {name} (material line "
+                        f"{mat.span.line}), used as written: no adjustment factor is applied to it here:", "",
+                        f"$$\\tau_{{allow}} = F_v = {quantity(convert(c.allowed, f), f)}$$", ""]
     if c.strength == "shear":
         return lines + [f"The allowed shear stress is the shear strength fv given with {name} (material line "
                         f"{mat.span.line}):", "", f"$$\\tau_{{allow}} = f_v = {quantity(convert(c.allowed, f), f)}$$", ""]

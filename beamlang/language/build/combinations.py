@@ -45,7 +45,7 @@ def _terms(ctx: Context, st: s.Combine, cases: set[str]) -> tuple[list[tuple[Fra
                       f"load factors {ACCEPTED} are accepted")
             ok = False
         if term.case.text not in cases:
-            ctx.error(term.case.span, f"unknown case '{term.case.text}'",
+            ctx.whole(term.case.span, f"unknown case '{term.case.text}'",
                       ctx.suggest(term.case.text, sorted(cases), "cases"))
             ok = False
         elif any(t[1] == term.case.text for t in terms):

@@ -28,7 +28,7 @@ def cases(ctx: Context, member_span: Span) -> tuple[m.Case, ...]:
             current = (st, [])
         elif isinstance(st, s.LOADS) and line.indented:
             if current is None:
-                ctx.error(st.span, "this load belongs to no case", "put a `case` line above it")
+                ctx.whole(st.span, "this load belongs to no case", "put a `case` line above it")
                 continue
             current[1].extend(load(ctx, st))
         elif current and not line.indented:
@@ -37,14 +37,14 @@ def cases(ctx: Context, member_span: Span) -> tuple[m.Case, ...]:
     if current:
         out.append(_close_case(ctx, *current))
     if not out and not ctx.of(s.Case):
-        ctx.error(member_span, "this member has no load cases", "add e.g. `case dead` with its loads indented below it")
+        ctx.whole(member_span, "this member has no load cases", "add e.g. `case dead` with its loads indented below it")
     ctx.moving_cases = {c.name for c in out if any(isinstance(ld, m.MovingLoad) for ld in c.loads)}
     return tuple(out)
 
 
 def _close_case(ctx: Context, st: s.Case, loads: list[m.Load]) -> m.Case:
     for extra in [ld for ld in loads if isinstance(ld, m.MovingLoad)][1:]:
-        ctx.error(extra.span, "a case holds at most one moving load",
+        ctx.whole(extra.span, "a case holds at most one moving load",
                   "put the forces that travel together in one `moving` line, or the second "
                   "group in a case of its own")
     return m.Case(st.name.text, st.title, tuple(loads), st.span)
@@ -58,7 +58,7 @@ def names(ctx: Context, cases: tuple[m.Case, ...]) -> set[str]:
             ctx.error(c.span, f"a second case named '{c.name}'",
                       f"the first is on line {seen[c.name].span.line}; case names must differ")
         elif not c.loads and not _has_load_lines(ctx, c):
-            ctx.error(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
+            ctx.whole(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
         seen.setdefault(c.name, c)
     return set(seen)
 
@@ -125,7 +125,7 @@ def settlement(ctx: Context, st: s.Settlement) -> list[m.Load]:
     if d is None or x is None:
         return []
     if x not in ctx.support_positions:
-        ctx.error(st.at.span, "a settlement must be at a support",
+        ctx.whole(st.at.span, "a settlement must be at a support",
                   "write the position of the support that moves, e.g. `settlement 5 mm down at 4.5 m`")
         return []
     return [m.Settlement(x, sign(st.direction.text) * d, st.span)]
