@@ -104,6 +104,7 @@ class LineLoad:
     w2: Fraction
     origin: str  # uniform | linear | self-weight
     span: Span
+    width: Fraction | None = None  # m: written as a pressure gathered from this tributary width (`over`)
 
 
 @dataclass(frozen=True, slots=True)
@@ -147,6 +148,7 @@ class Case:
     title: str | None
     loads: tuple[Load, ...]
     span: Span
+    patterned: bool = False  # `pattern NAME`: applied span by span, the worst arrangement for each effect
 
 
 @dataclass(frozen=True, slots=True)
@@ -268,6 +270,14 @@ class Member:
             if case.name == name:
                 return case
         raise KeyError(name)
+
+    def patterned(self, target: str) -> tuple[str, ...]:
+        """The patterned cases a case or combination holds (none: it is solved as written)."""
+        for case in self.cases:
+            if case.name == target:
+                return (case.name,) if case.patterned else ()
+        combo = next((c for c in self.combinations if c.name == target), None)
+        return tuple(name for _, name in combo.terms if self.case(name).patterned) if combo else ()
 
     @property
     def targets(self) -> tuple[str, ...]:

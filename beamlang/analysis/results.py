@@ -11,6 +11,7 @@ from beamlang.engine.solve import Solution, Target
 from beamlang.engine.statics import region_bounds
 
 if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
+    from beamlang.analysis.patterned import PatternResult
     from beamlang.engine.moving import Critical, Envelope
     from beamlang.poly import Piecewise
 
@@ -90,6 +91,7 @@ class TargetResult:
     moment_candidates: tuple[Candidate, ...]
     envelope: "Envelope | None" = None  # targets with a moving load: every extreme over the group's positions
     positions: tuple[tuple[str, "Critical"], ...] = ()  # result field -> the group position that gives it
+    pattern: "PatternResult | None" = None  # targets with patterned cases: the envelopes and each extreme's arrangement
     shear_deflection: "Piecewise | None" = None  # the shear part of the deflection, with shear deformation
 
     def deflection_parts(self, at: Located | None) -> tuple[Fraction, Fraction] | None:
@@ -106,12 +108,16 @@ class TargetResult:
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
     """Every case and combination of a solved member."""
     fe: dict = {}  # case name -> its finite-element solution, summed for the combinations
-    return tuple(_target(solution, t, fe) for t in solution.targets)
+    parts: dict = {}  # patterned case -> its parts, solved once for the case and its combinations
+    return tuple(_target(solution, t, fe, parts) for t in solution.targets)
 
 
-def _target(sol: Solution, t: Target, fe: dict) -> TargetResult:
+def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> TargetResult:
     if sol.member.moving(t.name):
         return _moving_target(sol, t)
+    if sol.member.patterned(t.name):
+        from beamlang.analysis.patterned import patterned_target
+        return patterned_target(sol, t, parts)
     m, c = sol.member, t.curves
     L = m.length
     defl = candidates(c.v, c.slope, Fraction(0), L)

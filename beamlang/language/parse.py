@@ -264,8 +264,9 @@ class _Build(Transformer):
         comment = next((str(i) for i in items if isinstance(i, Token) and i.type == "COMMENT"), None)
         return statement, comment
 
-    def quantity(self, number: Token, unit: Token) -> s.Quantity:
-        return s.Quantity(str(number), str(unit), self._span(number, unit), self._span(unit))
+    def quantity(self, number: Token, unit: Token, *more: Token) -> s.Quantity:
+        parts = tuple(s.Quantity(str(n), str(u), self._span(n, u), self._span(u)) for n, u in zip(more[::2], more[1::2]))
+        return s.Quantity(str(number), str(unit), self._span(number, more[-1] if more else unit), self._span(unit), parts)
 
     def at_length(self, q: s.Quantity) -> s.Position:
         return s.Position("length", q, None, q.span)
@@ -339,13 +340,22 @@ class _Build(Transformer):
     def point(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Point:
         return s.Point(q, self._name(direction), at, self._stmt_span())
 
-    def uniform(self, q: s.Quantity, direction: Token, start: s.Position | None = None,
-                end: s.Position | None = None) -> s.Uniform:
-        return s.Uniform(q, self._name(direction), start, end, self._stmt_span())
+    def uniform(self, q: s.Quantity, *rest) -> s.Uniform:
+        width = rest[0][1] if rest and isinstance(rest[0], tuple) else None
+        direction, *where = rest[1:] if width is not None else rest
+        start, end = where if where else (None, None)
+        return s.Uniform(q, self._name(direction), start, end, self._stmt_span(), width)
 
-    def linear(self, q1: s.Quantity, q2: s.Quantity, direction: Token, start: s.Position,
-               end: s.Position) -> s.Linear:
-        return s.Linear(q1, q2, self._name(direction), start, end, self._stmt_span())
+    def linear(self, q1: s.Quantity, q2: s.Quantity, *rest) -> s.Linear:
+        width = rest[0][1] if isinstance(rest[0], tuple) else None
+        direction, start, end = rest[1:] if width is not None else rest
+        return s.Linear(q1, q2, self._name(direction), start, end, self._stmt_span(), width)
+
+    def tributary(self, width: s.Quantity) -> tuple[str, s.Quantity]:
+        return "over", width
+
+    def pattern(self, case: Token) -> s.Pattern:
+        return s.Pattern(self._name(case), self._stmt_span())
 
     def moment(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Moment:
         return s.Moment(q, self._name(direction), at, self._stmt_span())

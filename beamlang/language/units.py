@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import difflib
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from fractions import Fraction
 from functools import lru_cache
 
@@ -184,7 +184,10 @@ def _si_unit(kind: str | None) -> str:
 
 
 def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fraction:
-    """Convert a written quantity to exact SI, checking that it is the expected kind."""
+    """Convert a written quantity to exact SI, checking that it is the expected kind; a length written in
+    parts (`22 ft 6 in`) is the exact sum of its parts."""
+    if q.parts:
+        return _in_parts(q, kind, what)
     f = factor_of(q.unit)
     if f is None:
         close = difflib.get_close_matches(q.unit, COMMON_UNITS, n=1, cutoff=0.5)
@@ -204,6 +207,26 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(value)} {f.si_unit}, surely a typo",
                                      f"values {ACCEPTED} {f.si_unit} are accepted"))
     return value
+
+
+def _in_parts(q: Quantity, kind: str, what: str) -> Fraction:
+    if kind != "length":
+        raise UnitProblem(Diagnostic(q.parts[0].span, f"only a length may be written in parts; {what} takes one "
+                                     "number and one unit", f"write it as one quantity, e.g. \"10 {EXAMPLE_UNIT[kind]}\""))
+    first = Quantity(q.number, q.unit, replace(q.span, end_col=q.unit_span.end_col), q.unit_span)
+    values = [to_si(part, "length", what) for part in (first, *q.parts)]
+    units = (first, *q.parts)
+    for before, part in zip(units, units[1:]):
+        if factor_of(part.unit).factor >= factor_of(before.unit).factor:  # both known: to_si passed them
+            raise UnitProblem(Diagnostic(part.span, f"a length in parts goes from larger units to smaller ones, "
+                                         f"but {part.unit} follows {before.unit}",
+                                         "write e.g. \"22 ft 6 in\" or \"1 m 200 mm\"; two separate values are "
+                                         "joined by `and` where a statement takes several"))
+    total = sum(values, Q(0))
+    if not in_range(total):
+        raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(total)} m, surely a typo",
+                                     f"values {ACCEPTED} m are accepted"))
+    return total
 
 
 LOWEST, HIGHEST = Fraction(1, 10**12), Fraction(10**12)  # in SI base units: anything outside is a typo

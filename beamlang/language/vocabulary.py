@@ -7,17 +7,17 @@ from __future__ import annotations
 
 FIELDS = ("project", "job", "by", "checked", "date", "revision")
 KEYWORDS = ("member", *FIELDS, "units", "span", "material", "section", "support", "hinge", "case", "point",
-            "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "limit", "check",
+            "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "pattern", "limit", "check",
             "report", "note", "catalogue", "include")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 FORCE_DIRECTIONS = ("down", "up")
 TURN_DIRECTIONS = ("clockwise", "counterclockwise")
 SYSTEMS = ("si", "us")
-CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span",
+CONNECTIVES = ("at", "from", "to", "and", "spaced", "over", "deflection", "slope", "supports", "stress", "x", "span",
                "allowable", "shear", "deformation", "frequency", "mass")
 LOADS = ("point", "uniform", "linear", "moment", "self-weight", "settlement", "moving")
-TARGETED = ("combine", "limit", "check")  # statements that name cases or combinations
+TARGETED = ("combine", "pattern", "limit", "check")  # statements that name cases or combinations
 
 # keyword -> (the statement's form, what it means): the editor server's hover and completion text
 FORMS: dict[str, tuple[str, str]] = {
@@ -37,14 +37,19 @@ FORMS: dict[str, tuple[str, str]] = {
     "hinge": ("hinge at POS", "an internal moment release: zero moment there, the slope may jump"),
     "case": ('case NAME ["title"]', "a load case; its loads follow on the indented lines below"),
     "point": ("point FORCE down|up at POS", "a concentrated force"),
-    "uniform": ("uniform W down|up [from POS to POS]", "a uniform line load, the whole member unless a range is given"),
-    "linear": ("linear W1 to W2 down|up from POS to POS", "a linearly varying line load"),
+    "uniform": ("uniform W [over WIDTH] down|up [from POS to POS]",
+                "a uniform line load, the whole member unless a range is given; with `over`, W is a pressure "
+                "gathered from the tributary width WIDTH"),
+    "linear": ("linear W1 to W2 [over WIDTH] down|up from POS to POS",
+               "a linearly varying line load; with `over`, pressures gathered from the tributary width WIDTH"),
     "moment": ("moment M clockwise|counterclockwise at POS", "a concentrated moment"),
     "self-weight": ("self-weight", "density x area x standard gravity (9.80665 m/s^2), down"),
     "settlement": ("settlement D down|up at POS", "a prescribed movement of the support at POS in this case"),
     "moving": ("moving F [and F ...] down|up [spaced S [and S ...]] [from POS to POS]",
                "a group of forces at fixed spacings travelling along the member"),
     "combine": ("combine NAME = [F] CASE + [F] CASE ...", "a factored sum of cases"),
+    "pattern": ("pattern CASE", "pattern loading: the case applied span by span (each span and overhang loaded "
+                "or not) in the worst arrangement for each effect"),
     "limit": ("limit deflection TARGET span/N | LENGTH  or  limit slope [TARGET] at supports ANGLE  or  "
               "limit frequency FREQUENCY mass [F] CASE + ...",
               "a deflection limit on a case or combination, a slope limit at the bearings, or the least "

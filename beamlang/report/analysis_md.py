@@ -9,6 +9,7 @@ from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
 from beamlang.report.checks_md import stress_units
 from beamlang.report.moving_md import moving_section
+from beamlang.report.pattern_md import pattern_section
 from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed, x_range
 from beamlang.report.tex import cell, md, num, plain, poly, quantity
 
@@ -63,14 +64,21 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         lines += loads_table(a, t) + each_load(a, t) + compatibility(a, t)
     else:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
-        lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
-                  "(exact, by linearity).", ""]
+        lines += ([f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
+                   "(exact, by linearity).", ""] if r.pattern is None else
+                  [f"{md(name)} = {terms}, with {', '.join(md(c) for c in r.pattern.cases)} patterned: the other "
+                   "cases, factored, are on every span; each patterned case enters, factored, through the "
+                   "envelope of its arrangements below.", ""])
     if r.envelope is not None:
         lines += moving_section(a, t, r) + [
             f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", ""]
         if figure is None:  # the moving group alone: no static curves to draw
             return lines
         return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
+    if r.pattern is not None:  # the envelope over every arrangement replaces the one curve and its searches
+        lines += pattern_section(a, r) + _reactions(a, r)
+        return lines + _points(a, r) + [
+            f"![{md(name)}: loads and reactions, envelopes of V, M, slope and deflection with its limits]({figure})", ""]
     lines += superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads and reactions, V, M, slope and deflection with its limits]({figure})", ""]

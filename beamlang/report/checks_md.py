@@ -106,6 +106,12 @@ def _deflection(a: Analysis, c: Check) -> list[str]:
     u, m = a.units, a.loaded.member
     d, L = u["deflection"], u["length"]
     moving = " over every position of the moving group" if m.moving(c.target) else ""
+    pattern = a.result(c.target).pattern
+    if pattern is not None:  # the envelope over every arrangement, and the one that gives this deflection
+        up = c.at is not None and c.at.value > 0
+        how = pattern.arrangement(f"largest deflection in {c.place}" if c.place else
+                                  f"largest deflection {'up' if up else 'down'}")
+        moving = " over every arrangement of the patterned loads" + (f" ({md(how)})" if how else "")
     where = f"at x = {show(c.x, u, 'length')}" if c.x is not None else "(no deflection)"
     if not c.place:
         return [f"The allowed deflection is the value given on the limit line: $\\delta_{{allow}} = "
@@ -175,6 +181,13 @@ def _governing(a: Analysis, c: Check, what: str) -> str:
     q = "moment" if what == "moment" else "force"
     if c.at is None:
         return f"no {what} in {md(c.target)}"
+    pattern = a.result(c.target).pattern
+    if pattern is not None:  # the envelope over every arrangement, and the one that gives this value
+        extreme = ("largest shear" if what != "moment" else
+                   "largest sagging moment" if c.at.value > 0 else "largest hogging moment")
+        how = next((h for e, h, x, v, _ in pattern.arrangements if e == extreme and x == c.at.x and v == c.at.value),
+                   None)
+        moving = ", over every arrangement of the patterned loads" + (f" ({md(how)})" if how else "")
     sign = ""
     if what == "moment":
         sign = " (sagging)" if c.at.value > 0 else " (hogging)"

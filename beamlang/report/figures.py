@@ -23,6 +23,7 @@ from beamlang.report.load_labels import LoadLabels
 from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
 
+PATTERNED = {"force": "V", "moment": "M", "slope": "theta", "deflection": "v"}  # figure quantity -> envelope curve
 POINTS_PER_LEVEL = 30.0  # height of one unit of the loads panel (a level is 0.9): labels keep their room
 
 
@@ -43,13 +44,15 @@ def target_figure(a: Analysis, name: str) -> str:
         curves = [(curve, quantity, label, None) for curve, quantity, label, _ in curves]
     for curve, quantity, label, marks in curves:
         ax = fig.panel(100.0, LABEL_ROOM)
-        xs, ys = sample(curve, u[quantity])
-        px = [float(convert(x, u["length"])) for x in xs]
-        ax.band(px, ys, 0, CURVE, 0.12)
-        ax.line(px, ys, color=CURVE, width=1.2)
+        drawn = [curve] if r.pattern is None else [r.pattern.curve(PATTERNED[quantity], s) for s in (1, -1)]
+        for each in drawn:  # a patterned target: its upper and lower envelope over every arrangement
+            xs, ys = sample(each, u[quantity])
+            px = [float(convert(x, u["length"])) for x in xs]
+            ax.band(px, ys, 0, CURVE, 0.12)
+            ax.line(px, ys, color=CURVE, width=1.2)
         ax.hline(0, width=0.6)
         mark_changes_and_hinges(ax, m, u)
-        ax.ylabel = f"{label} ({u[quantity]})"
+        ax.ylabel = f"{label} ({u[quantity]})" + (" envelope" if r.pattern is not None else "")
         if quantity == "deflection" and r.envelope is None:
             limit_lines(ax, m, r, u)
         for loc in marks or []:
@@ -352,7 +355,13 @@ def envelope_figure(a: Analysis) -> str:
         for i, name in enumerate(names):
             xs, ys = sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
-            series.append((name, ys))
+            pattern = a.result(name).pattern
+            if pattern is None:
+                series.append((name, ys))
+                continue
+            for s, side in ((1, "upper"), (-1, "lower")):  # the patterned target's envelopes at the same x
+                curve = pattern.curve(attr, s)
+                series.append((f"{name} ({side})", [float(convert(curve.at(p), u[quantity])) for p in xs]))
         ax.band(x, [max(col) for col in zip(*(ys for _, ys in series))],
                 [min(col) for col in zip(*(ys for _, ys in series))], "#888888", 0.15)
         for i, (name, ys) in enumerate(series):

@@ -97,6 +97,13 @@ def _target(r: TargetResult) -> dict:
             "reactions": [{"x_m": float(big.x), "max_force_N": float(big.value),
                            "max_at_first_force_m": float(big.position), "min_force_N": float(small.value),
                            "min_at_first_force_m": float(small.position)} for big, small in env.reactions]}
+    if r.pattern is not None:  # the values above are extremes over every arrangement of the patterned cases
+        out["pattern"] = {
+            "cases": list(r.pattern.cases),
+            "parts": [{"case": case, "region": region} for case, region in r.pattern.parts],
+            "arrangements": 2 ** len(r.pattern.parts),
+            "governing": [{"extreme": e, "loaded": how, "x_m": _f(x), "value_SI": float(v)}
+                          for e, how, x, v, _ in r.pattern.arrangements]}
     return out
 
 

@@ -10,7 +10,7 @@ from beamlang import __version__
 from beamlang.analysis.display import convert, number
 from beamlang.language import syntax as s
 from beamlang.language.sections import FORMULAS
-from beamlang.language.units import SHORTHANDS, factor_of
+from beamlang.language.units import SHORTHANDS, factor_of, to_si
 from beamlang.pipeline import Analysis
 from beamlang.report.provenance import versions_text
 from beamlang.report.tex import cell, md, num, plain, quantity
@@ -69,8 +69,8 @@ def inputs(a: Analysis) -> list[str]:
     for line, st in a.loaded.document.statements:
         for k, q in enumerate(_quantities(st)):
             f = factor_of(q.unit)
-            units.add(q.unit)
-            si = number(Fraction(q.number) * f.factor, 10)
+            units.update(part.unit for part in (q, *q.parts))
+            si = number(to_si(q, "length", "a length") if q.parts else Fraction(q.number) * f.factor, 10)
             written = f"`{cell(statement_text(st))}`" if k == 0 else "″"  # the statement once, then ditto marks
             rows.append(f"| {line.number if k == 0 else ''} | {written} | {cell(str(q))} | {si} {f.si_unit} |")
     out = ["## Inputs", "", "Each number as written in the file and its exact value in SI base units.", "",
@@ -297,13 +297,14 @@ SHEAR_CAUTION = (
 
 
 def cautions(a: Analysis) -> list[str]:
+    from beamlang.report.pattern_md import pattern_cautions
     listed = [SHEAR_CAUTION] + CAUTIONS[1:] if a.loaded.member.shear_deformation else list(CAUTIONS)
     if a.loaded.member.frequency_limits:
         from beamlang.report.frequency_md import CAUTIONS as FREQUENCY
         listed = [c.replace("connections, vibration, ", "connections, ") for c in listed]
         listed = listed[:-1] + FREQUENCY + listed[-1:]  # the review by a licensed engineer stays last
-    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in listed[:-1] + _allowables(a) + listed[-1:]
-                                                   + _unchecked_shear(a)]
+    lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in listed[:-1] + _allowables(a) + _unchecked_shear(a)
+                                                   + pattern_cautions(a) + listed[-1:]]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]

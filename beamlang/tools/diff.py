@@ -199,6 +199,8 @@ def _index(doc: s.Document) -> dict[tuple, s.Statement]:
             key = ("include shear deformation",)
         elif isinstance(st, s.Report):
             key = ("report", str(st.at))
+        elif isinstance(st, s.Pattern):
+            key = ("pattern", st.case.text)
         else:
             key = ("note", st.text)
         index[key] = st
@@ -225,6 +227,8 @@ def _label(key: tuple) -> str:
         return f"{kind}, stretch {key[1] + 1}"
     if kind == "slope limit":
         return f"slope limit on {key[1]}"
+    if kind == "pattern":
+        return f"pattern loading of {key[1]}"
     return kind
 
 

@@ -47,6 +47,7 @@ def _member(ctx: Context) -> m.Member | None:
     supports.no_couple_at_hinges(ctx, cases, hinges)
     names = loads.names(ctx, cases)
     combos = combinations.combinations(ctx, names)
+    cases = combinations.patterned(ctx, cases, names)
     targets = combinations.targets(ctx, names)
     limits = checks.deflection_limits(ctx, targets)
     slopes = checks.slope_limits(ctx, targets, bearings)

@@ -23,7 +23,7 @@ FAMILY: dict[type, str] = {
     s.Support: "supports", s.Hinge: "supports",
     s.Case: "loads", s.Point: "loads", s.Uniform: "loads", s.Linear: "loads", s.Moment: "loads",
     s.SelfWeight: "loads", s.Settlement: "loads", s.Moving: "loads",
-    s.Combine: "combinations",
+    s.Combine: "combinations", s.Pattern: "combinations",
     s.Limit: "checks", s.SlopeLimit: "checks", s.StressCheck: "checks", s.Report: "checks",
     s.FrequencyLimit: "checks",
 }

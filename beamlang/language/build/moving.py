@@ -11,6 +11,8 @@ from beamlang.language.build.context import Context, sign
 
 def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
     """The forces (signed), their offsets from the first, and the travel (the whole member unless given)."""
+    if _written_without_and(ctx, st):
+        return []
     forces = [ctx.positive(q, "force", "a moving force") for q in st.forces]
     gaps = [ctx.positive(q, "length", "a spacing") for q in st.spacings]
     if len(gaps) != len(forces) - 1:
@@ -29,6 +31,20 @@ def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
         offsets.append(offsets[-1] + gap)
     k = sign(st.direction.text)
     return [m.MovingLoad(tuple(k * f for f in forces), tuple(offsets), lo, hi, st.span)]
+
+
+def _written_without_and(ctx: Context, st: s.Moving) -> bool:
+    """`moving 20 kN 20 kN ...` reads as one force in parts: the second force (or spacing) lacks its `and`."""
+    for what, quantities in (("forces", st.forces), ("spacings", st.spacings)):
+        bad = next((q for q in quantities if q.parts), None)
+        if bad is None:
+            continue
+        items = [f"{q.number} {q.unit}" if i == 0 else str(q) for q in quantities
+                 for i, q in enumerate((q, *q.parts))]
+        ctx.error(bad.parts[0].span, f"the {what} of a moving group are joined by `and`",
+                  f"write them as `{' and '.join(items)}`")
+        return True
+    return False
 
 
 def _spacing_count(ctx: Context, st: s.Moving, forces: int, gaps: int) -> None:

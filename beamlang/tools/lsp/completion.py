@@ -26,7 +26,7 @@ WORDS = {"SHAPE": SHAPES, "SUPPORT_KIND": SUPPORT_KINDS, "FORCE_DIR": FORCE_DIRE
 STATEMENT_KIND = {"span": "length", "point": "force", "uniform": "force per length", "linear": "force per length",
                   "moment": "moment", "settlement": "length", "moving": "force", "limit": "length", "report": "length",
                   "support": "force per length"}
-WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "x": "length", "-": "length",
+WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "over": "length", "x": "length", "-": "length",
              "supports": "angle", "spring": "force per length", **{k.split()[-1]: v for k, v in MATERIAL_PROPERTIES.items()},
              **DIMENSION_KIND}
 
@@ -152,6 +152,8 @@ def _names(prefix: str, analysed: Analysed) -> list[Candidate]:
     targets = [(c.name.text, types.CompletionItemKind.Event, f"case, line {c.span.line}", "0") for c in cases]
     if words[0] == "combine":
         return targets if "=" in words else []
+    if words[0] == "pattern":
+        return targets
     if words[0] in ("limit", "check"):
         return targets + [(c.name.text, types.CompletionItemKind.Operator, f"combination, line {c.span.line}", "0")
                           for c in combos]

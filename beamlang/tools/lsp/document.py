@@ -136,6 +136,8 @@ def target_names(st: s.Statement) -> list[s.Name]:
         return own + [t.case for t in st.terms] if isinstance(st, s.Combine) else own
     if isinstance(st, (s.Limit, s.StressCheck)):
         return [st.target]
+    if isinstance(st, s.Pattern):
+        return [st.case]
     if isinstance(st, s.SlopeLimit) and st.target is not None:
         return [st.target]
     if isinstance(st, s.FrequencyLimit):
