@@ -19,6 +19,7 @@ from beamlang.report.drawing import (
     mark_extreme,
     sample,
 )
+from beamlang.report.mode_figure import mode_figure
 from beamlang.report.load_labels import LoadLabels
 from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
@@ -403,6 +404,7 @@ def figure_names(a: Analysis) -> dict[str, str]:
     """Figure key -> file name: "sign convention", "(envelope)", every target's name, and "(moving) NAME" for
     the influence lines and envelopes of each target with a moving group (no case name has a space)."""
     out = {"sign convention": "sign-convention.svg", "(envelope)": "envelope.svg"}
+    out.update({f"(mode) {k}": f"mode-{k + 1}.svg" for k in range(len(a.frequencies))})
     for i, t in enumerate(a.solution.targets, start=1):
         moving = a.solution.member.moving(t.name)
         if not moving or any(p.coeffs for p in t.curves.v.pieces):  # a moving case alone has no static curves
@@ -420,6 +422,8 @@ def all_figures(a: Analysis) -> dict[str, str]:
             out[file] = sign_convention_figure()
         elif key == "(envelope)":
             out[file] = envelope_figure(a)
+        elif key.startswith("(mode) "):
+            out[file] = mode_figure(a, int(key.removeprefix("(mode) ")))
         elif key.startswith("(moving) "):
             out[file] = moving_figure(a, key.removeprefix("(moving) "))
         else:

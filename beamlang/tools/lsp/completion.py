@@ -99,7 +99,8 @@ def _statements(terminal: str, word: str | None, prefix: str, analysed: Analysed
 
 def _keyword(st: s.Statement) -> str:
     return st.name if isinstance(st, s.Field) else {s.SpanLength: "span", s.SelfWeight: "self-weight",
-                                                   s.StressCheck: "check", s.SlopeLimit: "limit"}.get(
+                                                   s.StressCheck: "check", s.SlopeLimit: "limit",
+                                                   s.FrequencyLimit: "limit"}.get(
         type(st), type(st).__name__.lower())
 
 

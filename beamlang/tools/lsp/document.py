@@ -156,4 +156,6 @@ def target_names(st: s.Statement) -> list[s.Name]:
         return [st.case]
     if isinstance(st, s.SlopeLimit) and st.target is not None:
         return [st.target]
+    if isinstance(st, s.FrequencyLimit):
+        return [t.case for t in st.terms]
     return []

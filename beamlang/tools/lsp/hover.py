@@ -53,7 +53,7 @@ def _parts(obj: object) -> list:
             found += _parts(getattr(obj, f.name))
         if isinstance(obj, (s.Quantity, s.Position)):
             found.append(obj)
-    if isinstance(obj, (s.Case, s.Combine, s.Pattern, s.Limit, s.StressCheck, s.SlopeLimit)):
+    if isinstance(obj, (s.Case, s.Combine, s.Pattern, s.Limit, s.StressCheck, s.SlopeLimit, s.FrequencyLimit)):
         found += target_names(obj)
     return found
 
