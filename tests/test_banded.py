@@ -87,6 +87,7 @@ def test_banded_equals_force_method_on_continuous_members(text):
 @given(members())
 def test_banded_equals_force_method_on_generated_members(text):
     member = member_of(text)
+    assume(not member.shear_deformation)  # the banded form is bending only: solve() keeps such members on the force method
     assert_same(member, force_method(member))
 
 
@@ -136,3 +137,18 @@ def test_one_support_past_the_limit_is_reported_at_that_support():
     assert d.span.line == 4 + MAX_SUPPORTS + 1  # member, span, material, section, then the supports
     assert d.span.col == 1
     assert "split the member" in d.hint
+
+
+def test_shear_deformation_keeps_many_supports_on_the_force_method():
+    """The banded form has no shear flexibility: past BANDED_FROM a member with shear deformation is still solved
+    by the force method, whose compatibility equations include it (its curves differ from the bending-only ones)."""
+    sup = ["pin at 0 m"] + [f"roller at {k} m" for k in range(1, 8)] + ["roller at span"]
+    text = member_text("9 m", sup, {"a": ["uniform 2 kN/m down"]}, material="steel E 200 GPa G 80 GPa yield 350 MPa",
+                       section="rectangle width 100 mm depth 600 mm", extra=["include shear deformation"])
+    member = member_of(text)
+    solved = solve_module.solve(member)
+    assert len(solved.primary.redundants) >= solve_module.BANDED_FROM
+    assert solved.targets[0].curves.v.pieces == force_method(member).targets[0].curves.v.pieces
+    bending_only = solve_module.solve(member_of(text.replace("include shear deformation\n", "")))
+    assert solved.targets[0].curves.v.pieces != bending_only.targets[0].curves.v.pieces
+

@@ -281,7 +281,7 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 
 
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
-    if len(primary.redundants) >= BANDED_FROM:
+    if len(primary.redundants) >= BANDED_FROM and not member.shear_deformation:  # the banded form is bending only
         return _banded(member, xs, EI, primary, loads)
     base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
