@@ -1,4 +1,5 @@
-"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, figures/*.svg and results.json, written atomically."""
+"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, <mark>.pdf, figures/*.svg and results.json,
+written atomically."""
 
 from __future__ import annotations
 
@@ -20,8 +21,9 @@ def folder_name(mark: str) -> str:
     return name + "_" if name.split(".")[0].upper() in RESERVED else name
 
 
-def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
-    """Every file of the package, by relative path (figures first; the page embeds them)."""
+def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None) -> dict[str, bytes]:
+    """Every file of the package, by relative path (figures first; the page and the sheets embed them);
+    `sheets` are the PDF's `report.pdf.Options` (paper, fallback date), default when None."""
     from beamlang.report.figures import all_figures, figure_names
     from beamlang.report.html import member_html
     from beamlang.report.markdown import member_markdown
@@ -34,13 +36,16 @@ def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, byt
     page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",
                        {k: v.decode("utf-8") for k, v in files.items() if k.endswith(".svg")})
     files[f"{mark}.html"] = page.encode("utf-8")
+    from beamlang.report.pdf import Options, member_pdf
+    files[f"{mark}.pdf"] = member_pdf(a.loaded.member, text, {f"figures/{k}": v for k, v in svgs.items()},
+                                      sheets or Options())
     files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
     return dict(sorted(files.items()))
 
 
-def write_package(a: Analysis, out: Path, changes: list[str] | tuple = ()) -> Path:
+def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None) -> Path:
     """Build everything in a temporary folder beside the target, then swap it into place."""
-    files = package_files(a, changes)
+    files = package_files(a, changes, sheets)
     out.mkdir(parents=True, exist_ok=True)
     target = out / folder_name(a.loaded.member.mark)
     staging = Path(tempfile.mkdtemp(prefix=f".{target.name}.", dir=out))

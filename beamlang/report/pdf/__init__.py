@@ -1,0 +1,64 @@
+"""PDF: a member's calc-package Markdown + figures -> <mark>.pdf sheets; members -> the calc set with contents.
+
+`member_pdf` typesets one member; `set_pdf` (in `calcset.py`) the whole project. The Markdown is the one source:
+`markup.py` converts it, `math.py` its formulas, `sheet.py` adds the title block and runs typst."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from beamlang import __version__
+from beamlang.report.pdf.markup import to_typst_markup
+from beamlang.report.pdf.sheet import Info, compile_pdf, document, iso_date
+
+PAPER_WORDS = {"a4": "a4", "letter": "letter", "us letter": "letter", "us-letter": "letter"}
+
+
+@dataclass(frozen=True, slots=True)
+class Options:
+    """How the sheets are made beyond the member itself: paper from the project, a fallback date (the commit's)."""
+    paper: str | None = None  # a4 | letter; None: the member's `paper` field, else by its unit system
+    fallback_date: str | None = None  # YYYY-MM-DD, used when the member has no `date` line
+
+
+def member_info(member) -> Info:
+    f = dict(member.fields)
+    return Info(project=f.get("project", ""), job=f.get("job", ""), mark=member.mark, title=member.title,
+                by=f.get("by", ""), checked=f.get("checked", ""), date=f.get("date", ""),
+                revision=f.get("revision", ""), tool=f"beamlang {__version__}")
+
+
+def paper_of(member, options: Options) -> str:
+    """The member's `paper` line wins, then the project setting, then the unit system (US: letter, SI: A4)."""
+    written = dict(member.fields).get("paper")
+    if written:
+        return PAPER_WORDS[written.strip().lower()]
+    if options.paper:
+        return options.paper
+    return "letter" if member.units == "us" else "a4"
+
+
+def pdf_date(member, options: Options) -> tuple[int, int, int] | None:
+    return iso_date(dict(member.fields).get("date", "")) or iso_date(options.fallback_date or "")
+
+
+def pdf_figures(svgs: dict[str, str]) -> dict[str, str]:
+    """Figure SVGs keyed for sys.inputs, their text in DejaVu Sans Mono (a font of the typst wheel, whose
+    advance of 0.6 em is the width the plotter assumes)."""
+    from beamlang.report.svgplot import FONT
+    return {key: svg.replace(f'font-family="{FONT}"', 'font-family="DejaVu Sans Mono"') for key, svg in svgs.items()}
+
+
+def member_body(member, markdown: str) -> str:
+    """One member's `bl-member` call: its title-block facts and its converted Markdown."""
+    return f"#bl-member({member_info(member).typst()})[\n{to_typst_markup(markdown, lambda src: src)}\n]\n"
+
+
+def member_source(member, markdown: str, options: Options = Options()) -> str:
+    return document(member_body(member, markdown), paper_of(member, options), f"{member.mark}: {member.title}",
+                    pdf_date(member, options), in_set=False)
+
+
+def member_pdf(member, markdown: str, svgs: dict[str, str], options: Options = Options()) -> bytes:
+    """The member's sheets; `svgs` maps each figure path the Markdown uses to its SVG text."""
+    return compile_pdf(member_source(member, markdown, options), pdf_figures(svgs))
