@@ -129,3 +129,15 @@ def test_paper_follows_the_unit_system(built):
         box = re.search(r"Page size:\s+([\d.]+) x ([\d.]+) pts", info)
         size = (round(float(box.group(1))), round(float(box.group(2))))
         assert size == ((612, 792) if item.member.units == "us" else (595, 842)), pdf.name
+
+
+def test_a_paper_line_wins_over_the_unit_system(tmp_path):
+    from beamlang.report.pdf import Options, paper_of
+    text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
+    path = tmp_path / "x.beam"
+    path.write_text(text.replace('project "Demo garden studio"', 'project "Demo garden studio"\npaper "letter"'),
+                    encoding="utf-8")
+    member = load(path).member
+    assert member.units == "si" and paper_of(member, Options()) == "letter"
+    assert paper_of(load(ROOT / "examples" / "lintel-propped.beam").member, Options(paper="letter")) == "letter"
+    assert paper_of(load(ROOT / "examples" / "lintel-propped.beam").member, Options()) == "a4"

@@ -11,7 +11,7 @@ from beamlang import __version__
 from beamlang.report.pdf.markup import to_typst_markup
 from beamlang.report.pdf.sheet import Info, compile_pdf, document, iso_date
 
-PAPER_WORDS = {"a4": "a4", "letter": "letter", "us letter": "letter", "us-letter": "letter"}
+PAPER_WORDS = {"A4": "a4", "letter": "letter"}  # the `paper` line (language/build/geometry.PAPERS)
 
 
 @dataclass(frozen=True, slots=True)
@@ -32,7 +32,7 @@ def paper_of(member, options: Options) -> str:
     """The member's `paper` line wins, then the project setting, then the unit system (US: letter, SI: A4)."""
     written = dict(member.fields).get("paper")
     if written:
-        return PAPER_WORDS[written.strip().lower()]
+        return PAPER_WORDS[written]
     if options.paper:
         return options.paper
     return "letter" if member.units == "us" else "a4"
