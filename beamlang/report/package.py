@@ -1,8 +1,9 @@
-"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, <mark>.pdf, figures/*.svg and results.json,
-written atomically."""
+"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, <mark>.pdf, figures/*.svg, results.json and
+build.json (the record of what it was built from, for incremental builds and the project index), written atomically."""
 
 from __future__ import annotations
 
+import hashlib
 import json
 import os
 import shutil
@@ -12,6 +13,7 @@ from pathlib import Path
 from beamlang.pipeline import Analysis
 from beamlang.report.jsonout import member_json
 
+RECORD = "build.json"
 RESERVED = {"CON", "PRN", "AUX", "NUL", *(f"COM{i}" for i in range(1, 10)), *(f"LPT{i}" for i in range(1, 10))}
 
 
@@ -21,7 +23,44 @@ def folder_name(mark: str) -> str:
     return name + "_" if name.split(".")[0].upper() in RESERVED else name
 
 
-def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None) -> dict[str, bytes]:
+def build_key(source_text: str, options: str) -> str:
+    """What a package depends on: the input's bytes, beamlang's and the libraries' versions, the build options."""
+    from beamlang import __version__
+    from beamlang.report.provenance import versions_text
+    text = "\0".join([source_text, __version__, versions_text(), options])
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+def up_to_date(out: Path, mark: str, key: str) -> dict | None:
+    """The record of a package built from the same key with every file it lists present, else None."""
+    folder = out / folder_name(mark)
+    try:
+        rec = json.loads((folder / RECORD).read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return None
+    if rec.get("key") != key or not all((folder / f).is_file() for f in rec.get("files", ())):
+        return None
+    return rec
+
+
+def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str) -> bytes:
+    from beamlang.analysis.display import check_name
+    from beamlang.language.fmt import statement_text
+    from beamlang.language.syntax import Section
+    m = a.loaded.member
+    worst = max(a.checks, key=lambda c: (c.ratio, not c.passed), default=None)
+    sections = [statement_text(st) for _line, st in a.loaded.document.statements if isinstance(st, Section)]
+    rec = {"schema": "beamlang.build/1", "key": key, "mark": m.mark, "title": m.title, "fields": dict(m.fields),
+           "file": a.loaded.source.name, "section": "; ".join(sections) + (f" ({m.designations})"
+                                                                         if m.designations else ""),
+           "governing": None if worst is None else {"check": check_name(worst, a.units), "ratio": worst.ratio,
+                                                    "pass": worst.passed},
+           "passed": sum(c.passed for c in a.checks), "checks": len(a.checks), "paper": paper,
+           "files": sorted(files)}
+    return (json.dumps(rec, indent=2, sort_keys=True) + "\n").encode("utf-8")
+
+
+def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key: str = "") -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page and the sheets embed them);
     `sheets` are the PDF's `report.pdf.Options` (paper, fallback date), default when None."""
     from beamlang.report.figures import all_figures, figure_names
@@ -40,12 +79,14 @@ def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None) -> 
     files[f"{mark}.pdf"] = member_pdf(a.loaded.member, text, {f"figures/{k}": v for k, v in svgs.items()},
                                       sheets or Options())
     files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
+    from beamlang.report.pdf import paper_of
+    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets or Options()))
     return dict(sorted(files.items()))
 
 
-def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None) -> Path:
+def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None, key: str = "") -> Path:
     """Build everything in a temporary folder beside the target, then swap it into place."""
-    files = package_files(a, changes, sheets)
+    files = package_files(a, changes, sheets, key)
     out.mkdir(parents=True, exist_ok=True)
     target = out / folder_name(a.loaded.member.mark)
     staging = Path(tempfile.mkdtemp(prefix=f".{target.name}.", dir=out))

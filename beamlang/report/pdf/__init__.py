@@ -9,7 +9,7 @@ from dataclasses import dataclass
 
 from beamlang import __version__
 from beamlang.report.pdf.markup import to_typst_markup
-from beamlang.report.pdf.sheet import Info, compile_pdf, document, iso_date
+from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date
 
 PAPER_WORDS = {"A4": "a4", "letter": "letter"}  # the `paper` line (language/build/geometry.PAPERS)
 
@@ -49,13 +49,14 @@ def pdf_figures(svgs: dict[str, str]) -> dict[str, str]:
     return {key: svg.replace(f'font-family="{FONT}"', 'font-family="DejaVu Sans Mono"') for key, svg in svgs.items()}
 
 
-def member_body(member, markdown: str) -> str:
-    """One member's `bl-member` call: its title-block facts and its converted Markdown."""
-    return f"#bl-member({member_info(member).typst()})[\n{to_typst_markup(markdown, lambda src: src)}\n]\n"
+def member_body(member, markdown: str, paper: str, prefix: str = "") -> str:
+    """One member's `bl-member` call: its title-block facts, paper and converted Markdown (figure keys prefixed)."""
+    return bl_member(member_info(member), paper, to_typst_markup(markdown, lambda src: prefix + src))
 
 
 def member_source(member, markdown: str, options: Options = Options()) -> str:
-    return document(member_body(member, markdown), paper_of(member, options), f"{member.mark}: {member.title}",
+    paper = paper_of(member, options)
+    return document(member_body(member, markdown, paper), paper, f"{member.mark}: {member.title}",
                     pdf_date(member, options), in_set=False)
 
 

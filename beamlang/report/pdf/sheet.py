@@ -57,13 +57,25 @@ def iso_date(text: str) -> tuple[int, int, int] | None:
 
 def document(body: str, paper: str, title: str, date: tuple[int, int, int] | None, in_set: bool) -> str:
     """The whole Typst source: bindings, the template, document metadata, then `body` (bl-member calls)."""
-    width, height = PAPERS[paper]
     when = "none" if date is None else f"datetime(year: {date[0]}, month: {date[1]}, day: {date[2]})"
-    head = (f'#let bl-paper = "{"a4" if paper == "a4" else "us-letter"}"\n'
-            f"#let bl-body = (width: {width - MARGINS[0]:.1f}mm, height: {height - MARGINS[1]:.1f}mm)\n"
+    head = (f"#let bl-paper = {typst_paper(paper)}\n#let bl-body = {body_size(paper)}\n"
             f"#let bl-set = {'true' if in_set else 'false'}\n")
     meta = f"#set document(title: {string(title)}, author: (), date: {when})\n"
     return head + _template() + meta + body + LAYOUT
+
+
+def typst_paper(paper: str) -> str:
+    return '"a4"' if paper == "a4" else '"us-letter"'
+
+
+def body_size(paper: str) -> str:
+    """The text area of a sheet as a Typst dictionary (what a table or figure may fill)."""
+    width, height = PAPERS[paper]
+    return f"(width: {width - MARGINS[0]:.1f}mm, height: {height - MARGINS[1]:.1f}mm)"
+
+
+def bl_member(info: Info, paper: str, body: str) -> str:
+    return f"#bl-member({info.typst()}, {typst_paper(paper)}, {body_size(paper)})[\n{body}\n]\n"
 
 
 @lru_cache(maxsize=1)
