@@ -172,16 +172,18 @@ def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[
     input, versions and options (never with --since, whose section depends on the repository)."""
     from beamlang.report.package import build_key, folder_name, up_to_date, write_package
     from beamlang.report.pdf import Options
-    from beamlang.tools.history import fallback_date
+    from beamlang.tools.history import commits, fallback_date, revisions
     since, paper, force = settings
     date = None if dict(item.member.fields).get("date") else fallback_date(item.path)
     options = Options(paper=paper, fallback_date=date)
-    key = build_key(item.source.text, repr((item.source.name, options)))
+    key = build_key(item.source.text, repr((item.source.name, options, commits(item.path))))
     record = None if (since or force) else up_to_date(out, item.member.mark, key)
     if record is not None:
         return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
     from beamlang.pipeline import analyse_loaded
     a = analyse_loaded(item)
+    rows, changed = revisions(item, a)
+    options = Options(paper=paper, fallback_date=date, revisions=rows, changed_lines=tuple(sorted(changed)))
     folder = write_package(a, out, _changes_since(since, item, a) if since else (), options, key)
     return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks), True
 

@@ -189,3 +189,35 @@ def test_an_unchanged_member_is_not_rebuilt(tmp_path, capsys):
     assert main(["build", str(src), "-o", str(out), "--paper", "letter"]) == 0  # another input: rebuilt
     err = capsys.readouterr().err
     assert "built " in err and "wrote" in err
+
+
+@poppler
+def test_revisions_from_the_field_and_git_history_with_changed_lines_marked(tmp_path, monkeypatch):
+    def git(*args):
+        subprocess.run(["git", *args], cwd=tmp_path, check=True, capture_output=True)
+    text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
+    member = tmp_path / "m" / "l.beam"
+    member.parent.mkdir()
+    member.write_text(text.replace('project "Demo garden studio"', 'project "Demo garden studio"\nrevision "A"\n'
+                                   'by "A. Author"\ndate "2026-11-01"'), encoding="utf-8")
+    git("init", "-q")
+    git("-c", "user.email=a@example.org", "-c", "user.name=A", "add", ".")
+    git("-c", "user.email=a@example.org", "-c", "user.name=A", "commit", "-qm", "first issue")
+    member.write_text(member.read_text(encoding="utf-8").replace('revision "A"', 'revision "B"')
+                      .replace("diameter 80 mm", "diameter 70 mm"), encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    assert main(["build", "m", "-o", "out"]) == 0
+    page = _pages(tmp_path / "out" / "L-4" / "L-4.pdf")[0]
+    flat = " ".join(page.split())
+    assert "Revisions" in flat and "A 2026-11-01 A. Author first issue" in flat
+    assert "section diameter: 80 mm -> 70 mm" in flat
+    # the new ratio is the one this build reports; I falls as d^4, the self-weight only as d^2, so the deflection
+    # ratio grows by less than (80/70)^4
+    import json
+    checks = json.loads((tmp_path / "out" / "L-4" / "results.json").read_text(encoding="utf-8"))["checks"]
+    new = next(c["ratio"] for c in checks if c["kind"] == "deflection")
+    assert 0.093 < new < 0.0928 * (80 / 70) ** 4
+    assert f"deflection dead (span/500, span 1): ratio 0.093 -> {new:.3f}" in flat
+    section_line = next(i for i, line in enumerate(member.read_text().splitlines(), 1) if line.startswith("section"))
+    marked = [line for line in page.splitlines() if line.replace(" ", "").startswith("▲B")]
+    assert marked and f"{section_line}" in marked[0] and "section round diameter 70 mm" in marked[0]

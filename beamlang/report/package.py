@@ -43,7 +43,7 @@ def up_to_date(out: Path, mark: str, key: str) -> dict | None:
     return rec
 
 
-def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str) -> bytes:
+def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str, sheets) -> bytes:
     from beamlang.analysis.display import check_name
     from beamlang.language.fmt import statement_text
     from beamlang.language.syntax import Section
@@ -56,7 +56,8 @@ def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str) -> bytes
            "governing": None if worst is None else {"check": check_name(worst, a.units), "ratio": worst.ratio,
                                                     "pass": worst.passed},
            "passed": sum(c.passed for c in a.checks), "checks": len(a.checks), "paper": paper,
-           "files": sorted(files)}
+           "files": sorted(files), "changed_lines": list(sheets.changed_lines),
+           "revisions": [[r.revision, r.date, r.by, list(r.changes)] for r in sheets.revisions]}
     return (json.dumps(rec, indent=2, sort_keys=True) + "\n").encode("utf-8")
 
 
@@ -80,7 +81,7 @@ def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key
                                       sheets or Options())
     files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
     from beamlang.report.pdf import paper_of
-    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets or Options()))
+    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets or Options()), sheets or Options())
     return dict(sorted(files.items()))
 
 

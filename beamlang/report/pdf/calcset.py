@@ -12,7 +12,7 @@ import re
 from pathlib import Path
 
 from beamlang import __version__
-from beamlang.report.pdf import member_body, pdf_figures
+from beamlang.report.pdf import Options, Revision, member_body, pdf_figures
 from beamlang.report.pdf.markup import string, text
 from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date
 from beamlang.report.tex import cell, md
@@ -81,7 +81,9 @@ def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, dict[st
         markdown = (folder / f"{rec['folder']}.md").read_text(encoding="utf-8")
         for svg in sorted((folder / "figures").glob("*.svg")):
             figures[f"{rec['folder']}/figures/{svg.name}"] = svg.read_text(encoding="utf-8")
-        body.append(member_body(_Member(rec), markdown, rec["paper"], prefix=f"{rec['folder']}/"))
+        options = Options(revisions=tuple(Revision(r[0], r[1], r[2], tuple(r[3])) for r in rec["revisions"]),
+                          changed_lines=tuple(rec["changed_lines"]))
+        body.append(member_body(_Member(rec), markdown, rec["paper"], prefix=f"{rec['folder']}/", options=options))
     date = iso_date(dates[-1]) if dates else None
     return document("".join(body), paper, f"Calc set: {info.project}", date, in_set=True), pdf_figures(figures)
 

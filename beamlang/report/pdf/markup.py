@@ -22,16 +22,20 @@ def string(s: str) -> str:
     return '"' + s.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n") + '"'
 
 
-def to_typst_markup(markdown: str, figure_key) -> str:
-    """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG."""
+def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),
+                    mark: str = "") -> str:
+    """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG;
+    `before_summary` is Typst placed before the first section; table rows whose line column holds a line of
+    `changed` get a margin mark naming revision `mark`."""
     from beamlang.report.html import _markdown
     tokens = _markdown().parse(markdown)
-    return _Writer(tokens, figure_key).blocks(0, len(tokens))
+    return _Writer(tokens, figure_key, before_summary, changed, mark).blocks(0, len(tokens))
 
 
 class _Writer:
-    def __init__(self, tokens, figure_key) -> None:
+    def __init__(self, tokens, figure_key, before: str, changed: frozenset[int], mark: str) -> None:
         self.tokens, self.figure_key = tokens, figure_key
+        self.before, self.changed, self.mark = before, changed, mark
 
     def blocks(self, start: int, stop: int) -> str:
         out, i = [], start
@@ -55,7 +59,8 @@ class _Writer:
 
     def _heading(self, i: int, end: int) -> str:
         level = int(self.tokens[i].tag[1])
-        return f"\n#heading(level: {level})[{self.inline(self.tokens[i + 1])}]\n"
+        before, self.before = (self.before, "") if level == 2 else ("", self.before)
+        return f"{before}\n#heading(level: {level})[{self.inline(self.tokens[i + 1])}]\n"
 
     def _paragraph(self, i: int, end: int) -> str:
         body = self.inline(self.tokens[i + 1])
@@ -77,14 +82,19 @@ class _Writer:
 
     def _table(self, i: int, end: int) -> str:
         rows: list[list[str]] = []
-        head = 0
+        raw: list[list[str]] = []
         for j in range(i, end):
             tok = self.tokens[j]
             if tok.type == "tr_open":
                 rows.append([])
+                raw.append([])
             elif tok.type in ("th_open", "td_open"):
                 rows[-1].append("[" + self.inline(self.tokens[j + 1]) + "]")
-                head += tok.type == "th_open"
+                raw[-1].append(self.tokens[j + 1].content.strip())
+        lines = [k for k, name in enumerate(raw[0]) if name in ("line", "input line")]
+        for row, cells in zip(rows[1:], raw[1:]):
+            if self.changed and any(cells[k].isdigit() and int(cells[k]) in self.changed for k in lines):
+                row[0] = f"[#bl-changed({string(self.mark)});{row[0][1:]}"
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
