@@ -8,6 +8,7 @@ import json
 import os
 import shutil
 import tempfile
+from functools import lru_cache
 from pathlib import Path
 
 from beamlang.pipeline import Analysis
@@ -24,11 +25,24 @@ def folder_name(mark: str) -> str:
 
 
 def build_key(source_text: str, options: str) -> str:
-    """What a package depends on: the input's bytes, beamlang's and the libraries' versions, the build options."""
+    """What a package depends on: the input's bytes, beamlang's version and code, the libraries' versions, the
+    build options."""
     from beamlang import __version__
     from beamlang.report.provenance import versions_text
-    text = "\0".join([source_text, __version__, versions_text(), options])
+    text = "\0".join([source_text, __version__, code_hash(), versions_text(), options])
     return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+@lru_cache(maxsize=1)
+def code_hash() -> str:
+    """A hash of beamlang's own files (code, grammar, template, assets): an edited checkout is another tool."""
+    root = Path(__file__).resolve().parents[1]
+    digest = hashlib.sha256()
+    from beamlang.language.parse import grammar_path
+    files = {p for p in root.rglob("*") if p.is_file() and p.suffix in (".py", ".typ", ".lark", ".woff")}
+    for path in sorted(files | {Path(grammar_path()).resolve()}):
+        digest.update(path.name.encode("utf-8") + b"\0" + path.read_bytes())
+    return digest.hexdigest()
 
 
 def up_to_date(out: Path, mark: str, key: str) -> dict | None:
