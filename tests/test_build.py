@@ -34,7 +34,7 @@ def _without_key(path: Path) -> bytes:
     if path.name not in ("build.json", "index.json"):
         return path.read_bytes()
     record = json.loads(path.read_text(encoding="utf-8"))
-    assert len(record.pop("key")) == 64
+    assert len(record.pop("key")) in (0, 64)  # empty when write_package is called without one
     return json.dumps(record, indent=2, sort_keys=True).encode("utf-8")
 
 
