@@ -75,6 +75,10 @@ def _parser() -> argparse.ArgumentParser:
     build.add_argument("-o", "--out", default="out", help="output folder (default: out)")
     build.add_argument("--jobs", type=int, default=1, help="members built in parallel (default 1)")
     build.add_argument("--since", metavar="REV", help="add a 'Changes since REV' section computed by the diff")
+    build.add_argument("--paper", choices=("a4", "letter"),
+                       help="sheet size of the PDFs for members without a `paper` line (default: A4, US letter "
+                            "for US members)")
+    build.add_argument("--force", action="store_true", help="rebuild every package, even those that are current")
     build.set_defaults(run=_run_build)
     watch = sub.add_parser("watch", help="rebuild the packages of changed members on save")
     watch.add_argument("paths", nargs="+", metavar="FILES|DIRS")
@@ -157,28 +161,55 @@ def _run_build(args: argparse.Namespace) -> int:
     _report(errors)
     out = Path(args.out)
     jobs = max(1, args.jobs)
+    settings = (args.since, args.paper, args.force)
     if jobs > 1 and len(loaded) > 1:
         from concurrent.futures import ProcessPoolExecutor
         with ProcessPoolExecutor(max_workers=jobs) as pool:
-            outcomes = list(pool.map(_build_one, loaded, [out] * len(loaded), [args.since] * len(loaded)))
+            outcomes = _progress(pool.map(_build_one, loaded, [out] * len(loaded), [settings] * len(loaded)),
+                                 len(loaded))
     else:
-        outcomes = [_build_one(item, out, args.since) for item in loaded]
-    tty = sys.stderr.isatty()
-    for i, (folder, passed, total) in enumerate(outcomes, start=1):
-        prefix = f"[{i}/{len(outcomes)}] " if tty else ""
-        print(f"{prefix}built {folder} ({passed} of {total} checks pass)", file=sys.stderr)
+        outcomes = _progress((_build_one(item, out, settings) for item in loaded), len(loaded))
+    if any(Path(p).is_dir() for p in args.paths) and outcomes and not errors:
+        from beamlang.report.package import folder_name
+        from beamlang.report.pdf.calcset import write_set
+        for path in write_set(out, [folder_name(item.member.mark) for item in loaded], args.paper or "a4"):
+            print(f"wrote {path.as_posix()}", file=sys.stderr)
     if errors or not found:
         return EXIT_INPUT
-    return EXIT_OK if all(p == t for _, p, t in outcomes) else EXIT_FAIL
+    return EXIT_OK if all(p == t for _, p, t, _b in outcomes) else EXIT_FAIL
 
 
-def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int]:
-    """One member's package (runs in a worker process with --jobs)."""
+def _progress(outcomes, n: int) -> list[tuple[str, int, int, bool]]:
+    """One line per member as it is done; on a terminal each line is numbered, so the count shows the progress."""
+    done = []
+    tty = sys.stderr.isatty()
+    for i, (folder, passed, total, rebuilt) in enumerate(outcomes, start=1):
+        prefix = f"[{i}/{n}] " if tty else ""
+        verb = "built" if rebuilt else "up to date"
+        print(f"{prefix}{verb} {folder} ({passed} of {total} checks pass)", file=sys.stderr, flush=True)
+        done.append((folder, passed, total, rebuilt))
+    return done
+
+
+def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[str, int, int, bool]:
+    """One member's package (runs in a worker process with --jobs); skipped when its record shows the same
+    input, versions and options (never with --since, whose section depends on the repository)."""
+    from beamlang.report.package import build_key, folder_name, up_to_date, write_package
+    from beamlang.report.pdf import Options
+    from beamlang.tools.history import commits, fallback_date, revisions
+    since, paper, force = settings
+    date = None if dict(item.member.fields).get("date") else fallback_date(item.path)
+    options = Options(paper=paper, fallback_date=date)
+    key = build_key(item.source.text, repr((item.source.name, options, commits(item.path))))
+    record = None if (since or force) else up_to_date(out, item.member.mark, key)
+    if record is not None:
+        return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
     from beamlang.pipeline import analyse_loaded
-    from beamlang.report.package import write_package
     a = analyse_loaded(item)
-    folder = write_package(a, out, _changes_since(since, item, a) if since else ())
-    return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks)
+    rows, changed = revisions(item, a)
+    options = Options(paper=paper, fallback_date=date, revisions=rows, changed_lines=tuple(sorted(changed)))
+    folder = write_package(a, out, _changes_since(since, item, a) if since else (), options, key)
+    return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks), True
 
 
 def _changes_since(rev: str, item, a) -> list[str]:

@@ -51,3 +51,26 @@ def test_prints_to_a_sane_number_of_pages(tmp_path):
     data = pdf.read_bytes()
     pages = data.count(b"/Type /Page") - data.count(b"/Type /Pages")
     assert 5 <= pages <= 60, pages
+
+
+@pytest.mark.skipif(shutil.which("pdftotext") is None, reason="poppler-utils is not installed")
+@pytest.mark.parametrize("mark", ["P-9", "G-5", "J-12"])
+def test_printed_page_keeps_formulas_and_tables_inside_the_margins(mark, tmp_path):
+    """The print stylesheet: wide display formulas are set smaller, tables fit the page width, sections flow."""
+    import re
+    page = next(p for p in PAGES if p.parent.name == mark)
+    pdf = tmp_path / "printed.pdf"
+    _run(page, "--no-pdf-header-footer", f"--print-to-pdf={pdf}")
+    boxes = subprocess.run(["pdftotext", "-bbox", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
+    margin = 14 * 72 / 25.4  # @page margin, left and right
+    width = None
+    for m in re.finditer(r'<page width="([\d.]+)"|<word xMin="([\d.]+)" yMin="[\d.]+" xMax="([\d.]+)"[^>]*>([^<]*)<',
+                         boxes):
+        if m.group(1):
+            width = float(m.group(1))
+            continue
+        assert float(m.group(3)) <= width - margin + 1.0, f"{mark}: {m.group(4)!r} ends past the right margin"
+        assert float(m.group(2)) >= margin - 1.0, f"{mark}: {m.group(4)!r} starts left of the left margin"
+    text = subprocess.run(["pdftotext", str(pdf), "-"], capture_output=True, text=True, check=True).stdout
+    blank = sum(len(p.split()) < 40 for p in text.split("\f")[:-1])
+    assert blank <= 1, f"{mark}: {blank} nearly empty printed pages"  # no forced page per section

@@ -66,7 +66,7 @@ class Member:
 
 @dataclass(frozen=True, slots=True)
 class Field:
-    name: str  # project | job | by | checked | date | revision
+    name: str  # project | job | by | checked | date | revision | paper
     text: str
     span: Span
 

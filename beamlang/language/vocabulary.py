@@ -5,7 +5,7 @@
 
 from __future__ import annotations
 
-FIELDS = ("project", "job", "by", "checked", "date", "revision")
+FIELDS = ("project", "job", "by", "checked", "date", "revision", "paper")
 KEYWORDS = ("member", *FIELDS, "units", "span", "material", "section", "support", "hinge", "case", "point",
             "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "pattern", "limit", "check",
             "report", "note", "catalogue", "include")

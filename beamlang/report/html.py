@@ -27,7 +27,37 @@ def tex_to_mathml(tex: str, display: bool) -> str:
     out = convert(tex, display="block" if display else "inline")
     if _UNKNOWN_COMMAND.search(out):
         raise MathError(f"unknown TeX command in formula: {tex}")
+    if display and (scale := print_scale(out)) < 100:
+        out = out.replace("<math ", f'<math data-print-scale="{scale}" ', 1)
     return out
+
+
+PRINT_WIDTH_EM = 40.0  # the printed text width (A4 or letter less the @page margins) in em of the math font
+PRINT_SCALES = (90, 80, 70, 60, 50, 40, 30)
+
+
+def print_scale(mathml: str) -> int:
+    """The font size in percent at which a display formula fits the printed text width (an estimate from its
+    glyph count; a fraction is as wide as its wider part); 100 when it fits as it is."""
+    width = _width(ET.fromstring(mathml))
+    fits = [s for s in PRINT_SCALES if width * s / 100 <= PRINT_WIDTH_EM]
+    return 100 if width <= PRINT_WIDTH_EM else (fits[0] if fits else PRINT_SCALES[-1])
+
+
+def _width(node) -> float:
+    tag = node.tag.rsplit("}", 1)[-1]
+    if tag == "mfrac":
+        return max((_width(child) for child in node), default=0.0) + 0.4
+    if tag in ("msub", "msup", "msubsup"):
+        parts = [_width(child) for child in node]
+        return (parts[0] + 0.7 * sum(parts[1:])) if parts else 0.0
+    if tag in ("mi", "mn", "mtext"):
+        return 0.55 * len(node.text or "")
+    if tag == "mo":
+        return 0.55 * len(node.text or "") + 0.5
+    if tag == "mspace":
+        return 1.0
+    return sum(_width(child) for child in node)
 
 
 @lru_cache(maxsize=1)
@@ -109,11 +139,22 @@ mtd[columnalign="left"] { text-align: left; }
 strong { letter-spacing: .02em; }
 @page { margin: 16mm 14mm; }  /* the paper size follows the printer: A4 or Letter */
 @media print {
-  main { max-width: none; padding: 0; }
-  h2 { break-before: page; }
-  h2:first-of-type { break-before: auto; }
-  table { display: table; font-size: 8pt; width: 100%; table-layout: auto; word-break: break-word; }
-  tr, img, pre { break-inside: avoid; }
-  pre { white-space: pre-wrap; }
+  body { font-size: 10pt; }
+  main { max-width: none; padding: 0; line-height: 1.35; }
+  h2, h3 { break-after: avoid; }
+  math[display="block"] { overflow: visible; max-width: 100%; }
+  math[data-print-scale="90"] { font-size: 90%; } math[data-print-scale="80"] { font-size: 80%; }
+  math[data-print-scale="70"] { font-size: 70%; } math[data-print-scale="60"] { font-size: 60%; }
+  math[data-print-scale="50"] { font-size: 50%; } math[data-print-scale="40"] { font-size: 40%; }
+  math[data-print-scale="30"] { font-size: 30%; }
+  table { display: table; font-size: 7.5pt; width: 100%; max-width: 100%; table-layout: auto; }
+  th { hyphens: manual; word-break: normal; overflow-wrap: normal; }
+  td { overflow-wrap: anywhere; }
+  td math { font-size: 85%; }  /* an inline formula cannot wrap: a polynomial cell is set smaller */
+  td code { white-space: pre-wrap; overflow-wrap: anywhere; }
+  thead { display: table-header-group; }
+  tr, img, pre, math[display="block"] { break-inside: avoid; }
+  pre { white-space: pre-wrap; overflow-wrap: anywhere; }
+  img { max-height: 230mm; }
 }
 """

@@ -1,21 +1,79 @@
-"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, figures/*.svg and results.json, written atomically."""
+"""Package: Analysis -> OUT/<mark>/ with <mark>.md, <mark>.html, <mark>.pdf, figures/*.svg, results.json and
+build.json (the record of what it was built from, for incremental builds and the project index), written atomically."""
 
 from __future__ import annotations
 
+import hashlib
 import json
 import os
 import secrets
 import shutil
 import sys
 from contextlib import contextmanager
+from functools import lru_cache
 from pathlib import Path
 
 from beamlang.language.marks import RESERVED, folder_name  # noqa: F401 (the package folder's name lives there)
 from beamlang.pipeline import Analysis
 from beamlang.report.jsonout import member_json
 
-def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
-    """Every file of the package, by relative path (figures first; the page embeds them)."""
+RECORD = "build.json"
+
+
+def build_key(source_text: str, options: str) -> str:
+    """What a package depends on: the input's bytes, beamlang's version and code, the libraries' versions, the
+    build options."""
+    from beamlang import __version__
+    from beamlang.report.provenance import versions_text
+    text = "\0".join([source_text, __version__, code_hash(), versions_text(), options])
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+@lru_cache(maxsize=1)
+def code_hash() -> str:
+    """A hash of beamlang's own files (code, grammar, template, assets): an edited checkout is another tool."""
+    root = Path(__file__).resolve().parents[1]
+    digest = hashlib.sha256()
+    from beamlang.language.parse import grammar_path
+    files = {p for p in root.rglob("*") if p.is_file() and p.suffix in (".py", ".typ", ".lark", ".woff")}
+    for path in sorted(files | {Path(grammar_path()).resolve()}):
+        digest.update(path.name.encode("utf-8") + b"\0" + path.read_bytes())
+    return digest.hexdigest()
+
+
+def up_to_date(out: Path, mark: str, key: str) -> dict | None:
+    """The record of a package built from the same key with every file it lists present, else None."""
+    folder = out / folder_name(mark)
+    try:
+        rec = json.loads((folder / RECORD).read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return None
+    if rec.get("key") != key or not all((folder / f).is_file() for f in rec.get("files", ())):
+        return None
+    return rec
+
+
+def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str, sheets) -> bytes:
+    from beamlang.analysis.display import check_name
+    from beamlang.language.fmt import statement_text
+    from beamlang.language.syntax import Section
+    m = a.loaded.member
+    worst = max(a.checks, key=lambda c: (c.ratio, not c.passed), default=None)
+    sections = [statement_text(st) for _line, st in a.loaded.document.statements if isinstance(st, Section)]
+    rec = {"schema": "beamlang.build/1", "key": key, "mark": m.mark, "title": m.title, "fields": dict(m.fields),
+           "file": a.loaded.source.name, "section": "; ".join(sections) + (f" ({m.designations})"
+                                                                         if m.designations else ""),
+           "governing": None if worst is None else {"check": check_name(worst, a.units), "ratio": worst.ratio,
+                                                    "pass": worst.passed},
+           "passed": sum(c.passed for c in a.checks), "checks": len(a.checks), "paper": paper,
+           "files": sorted(files), "changed_lines": list(sheets.changed_lines),
+           "revisions": [[r.revision, r.date, r.by, list(r.changes)] for r in sheets.revisions]}
+    return (json.dumps(rec, indent=2, sort_keys=True) + "\n").encode("utf-8")
+
+
+def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key: str = "") -> dict[str, bytes]:
+    """Every file of the package, by relative path (figures first; the page and the sheets embed them);
+    `sheets` are the PDF's `report.pdf.Options` (paper, fallback date), default when None."""
     from beamlang.report.figures import all_figures, figure_names
     from beamlang.report.html import member_html
     from beamlang.report.markdown import member_markdown
@@ -28,14 +86,19 @@ def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, byt
     page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",
                        {k: v.decode("utf-8") for k, v in files.items() if k.endswith(".svg")})
     files[f"{mark}.html"] = page.encode("utf-8")
+    from beamlang.report.pdf import Options, member_pdf
+    files[f"{mark}.pdf"] = member_pdf(a.loaded.member, text, {f"figures/{k}": v for k, v in svgs.items()},
+                                      sheets or Options())
     files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
+    from beamlang.report.pdf import paper_of
+    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets or Options()), sheets or Options())
     return dict(sorted(files.items()))
 
 
-def write_package(a: Analysis, out: Path, changes: list[str] | tuple = ()) -> Path:
+def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None, key: str = "") -> Path:
     """Build everything in a hidden folder beside the target, then swap it into place (see `swap`)."""
     target = out / folder_name(a.loaded.member.mark)
-    return swap_in(package_files(a, changes), target)
+    return swap_in(package_files(a, changes, sheets, key), target)
 
 
 # The swap. Each member's folder is, at every instant, its old package or its new one:

@@ -5,10 +5,11 @@ from __future__ import annotations
 from functools import lru_cache
 from importlib.metadata import PackageNotFoundError, version
 
-# sympy writes the formulas, numpy runs the cross-check, scipy's eigh finds the natural frequency, the next three turn the Markdown and its TeX into HTML
-# and MathML, and pygments runs beamlang's lexer over the input listing (the figures are beamlang's own SVG:
-# report/svgplot.py). A package rebuilds byte for byte when these versions are the same.
-LIBRARIES = ("sympy", "numpy", "scipy", "markdown-it-py", "mdit-py-plugins", "latex2mathml", "pygments")
+# sympy writes the formulas, numpy runs the cross-check, scipy's eigh finds the natural frequency, the next three
+# turn the Markdown and its TeX into HTML and MathML, pygments runs beamlang's lexer over the input listing, and
+# typst (with the fonts in its wheel) sets the PDF sheets (the figures are beamlang's own SVG: report/svgplot.py).
+# A package rebuilds byte for byte when these versions are the same.
+LIBRARIES = ("sympy", "numpy", "scipy", "markdown-it-py", "mdit-py-plugins", "latex2mathml", "pygments", "typst")
 
 
 @lru_cache(maxsize=1)

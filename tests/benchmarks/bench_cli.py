@@ -50,7 +50,7 @@ def main() -> None:
     with tempfile.TemporaryDirectory() as tmp:
         out = Path(tmp) / "out"
         rows = [("check, one member", wall(["check", str(EXAMPLE)], runs), 1.0),
-                ("build, one member", wall(["build", str(EXAMPLE), "-o", str(out)], runs), 2.5)]
+                ("build, one member", wall(["build", str(EXAMPLE), "-o", str(out), "--force"], runs), 2.5)]
         folder = Path(tmp) / "many"
         folder.mkdir()
         generated(folder, 100)

@@ -11,7 +11,8 @@ from beamlang.language.units import is_us
 from beamlang.source import Span
 
 MIN_SPAN = Fraction(1, 1000)  # m
-FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision")
+FIELD_ORDER = ("project", "job", "by", "checked", "date", "revision", "paper")
+PAPERS = ("A4", "letter")  # the sheet sizes of the PDF
 SINGLE = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Catalogue: "catalogue"}
 _EXAMPLES = {"member": 'start the file with e.g. `member B-1 "Floor beam"`', "span": "for example `span 5.4 m`",
              "material": "for example `material steel E 200 GPa yield 350 MPa`",
@@ -80,7 +81,10 @@ def _check_block(ctx: Context, line: s.Line, st: s.Statement) -> None:
 
 
 def fields(ctx: Context) -> tuple[tuple[str, str], ...]:
-    """The title block in canonical order."""
+    """The title block in canonical order; `paper` must name a sheet size the PDF knows."""
+    for st in ctx.of(s.Field):
+        if st.name == "paper" and st.text not in PAPERS:
+            ctx.error(st.span, f'unknown paper size "{st.text}"', 'write paper "A4" or paper "letter" (US letter)')
     return tuple((f, st.text) for f in FIELD_ORDER for st in ctx.of(s.Field) if st.name == f)
 
 

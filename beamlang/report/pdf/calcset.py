@@ -1,0 +1,152 @@
+"""Calc set: the built packages of a project (their build.json records) -> index.md, index.html and calc-set.pdf.
+
+The set PDF opens with a contents sheet (every member, its section, governing check and ratio, status and its
+sheets in the set), then every member's sheets; each sheet is numbered within its member and through the set.
+It is typeset from the packages on disk, so members that an incremental build left alone are in it too."""
+
+from __future__ import annotations
+
+import hashlib
+import json
+import re
+from pathlib import Path
+
+from beamlang import __version__
+from beamlang.report.pdf import Options, Revision, member_body, pdf_figures
+from beamlang.report.pdf.markup import string, text
+from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date
+from beamlang.report.tex import cell, md
+
+SET_PDF = "calc-set.pdf"
+SET_RECORD = "index.json"
+_PAGES = re.compile(rb"/Type/Pages/Count (\d+)")
+COLUMNS = ("member", "title", "section", "governing check", "ratio", "status", "sheets in the set")
+
+
+def _records(out: Path, folders: list[str]) -> list[dict]:
+    return [json.loads((out / f / "build.json").read_text(encoding="utf-8")) | {"folder": f} for f in sorted(folders)]
+
+
+class _Member:
+    """What `member_body` needs of a member, read back from its record."""
+
+    def __init__(self, rec: dict) -> None:
+        self.mark, self.title, self.fields = rec["mark"], rec["title"], tuple(rec["fields"].items())
+
+
+def _common(records: list[dict], name: str) -> str:
+    """The members' common value of a title-block field, or a pointer to their own sheets."""
+    values = sorted({r["fields"].get(name, "") for r in records})
+    return values[0] if len(values) == 1 else "several: see each member's sheets"
+
+
+def _status(rec: dict) -> str:
+    return "no checks" if not rec["checks"] else ("PASS" if rec["passed"] == rec["checks"] else "FAIL")
+
+
+def _ratio(rec: dict) -> str:
+    return "-" if rec["governing"] is None else f"{rec['governing']['ratio']:.3f}"
+
+
+def _contents(records: list[dict]) -> str:
+    rows = []
+    for i, rec in enumerate(records, start=1):
+        gov = rec["governing"]["check"] if rec["governing"] else "-"
+        sheets = (f"context {{ let a = query(<bl-start>).at({i}).location().page(); "
+                  f"let b = query(<bl-end>).at({i}).location().page(); [#a to #b] }}")
+        rows.append(", ".join(f"[{text(v)}]" for v in (rec["mark"], rec["title"], rec["section"], gov,
+                                                      _ratio(rec), _status(rec))) + f", [#{sheets}]")
+    header = ", ".join(f"[{text(c)}]" for c in COLUMNS)
+    n = len(records)
+    summary = (f"{n} member{'s' * (n != 1)}; {sum(_status(r) == 'PASS' for r in records)} pass every check, "
+               f"{sum(_status(r) == 'FAIL' for r in records)} fail a check.")
+    return (f"#heading(level: 1)[Calc set: contents]\n\n{text(summary)} {text(_CAUTION)}\n\n"
+            f"#bl-table({len(COLUMNS)}, ({header},), (\n  " + ",\n  ".join(rows) + ",\n))\n")
+
+
+_CAUTION = ("Each member's package states its assumptions, what it does not check and its cautions; the set is to be "
+            "reviewed by a qualified licensed engineer against the governing local code.")
+
+
+def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, dict[str, str]]:
+    """The set's Typst source and its figures (keys prefixed by the member's folder)."""
+    dates = sorted(d for r in records if (d := r["fields"].get("date", "")) and iso_date(d))
+    info = Info(project=_common(records, "project"), job=_common(records, "job"), mark="Calc set",
+                title="contents", by=_common(records, "by"), checked=_common(records, "checked"),
+                date=dates[-1] if dates else "", revision="", tool=f"beamlang {__version__}")
+    body = [bl_member(info, paper, _contents(records))]
+    figures: dict[str, str] = {}
+    for rec in records:
+        folder = out / rec["folder"]
+        markdown = (folder / f"{rec['folder']}.md").read_text(encoding="utf-8")
+        for svg in sorted((folder / "figures").glob("*.svg")):
+            figures[f"{rec['folder']}/figures/{svg.name}"] = svg.read_text(encoding="utf-8")
+        options = Options(revisions=tuple(Revision(r[0], r[1], r[2], tuple(r[3])) for r in rec["revisions"]),
+                          changed_lines=tuple(rec["changed_lines"]))
+        body.append(member_body(_Member(rec), markdown, rec["paper"], prefix=f"{rec['folder']}/", options=options))
+    date = iso_date(dates[-1]) if dates else None
+    return document("".join(body), paper, f"Calc set: {info.project}", date, in_set=True), pdf_figures(figures)
+
+
+def index_markdown(records: list[dict], sheets: list[tuple[int, int]], link: str) -> str:
+    """The project index; `link` is the extension the member names link to (md or html)."""
+    lines = ["# Calc set: contents", "", f"Every member built into this folder; the sheets are those of `{SET_PDF}`.",
+             "", "| " + " | ".join(COLUMNS) + " |", "|" + "---|" * len(COLUMNS)]
+    for rec, (first, last) in zip(records, sheets):
+        gov = md(rec["governing"]["check"]) if rec["governing"] else "-"
+        name = f"[{md(rec['mark'])}]({rec['folder']}/{rec['folder']}.{link})"
+        lines.append("| " + " | ".join([name, cell(md(rec["title"])), cell(md(rec["section"])), cell(gov),
+                                        _ratio(rec), _status(rec), f"{first} to {last}"]) + " |")
+    return "\n".join(lines + ["", md(_CAUTION), ""])
+
+
+def page_count(pdf: bytes) -> int:
+    """The number of sheets of a PDF typst wrote (its one page-tree node)."""
+    found = _PAGES.findall(pdf)
+    if len(found) != 1:
+        raise ValueError("not a PDF with one page tree")
+    return int(found[0])
+
+
+def sheet_ranges(out: Path, records: list[dict], set_pdf: bytes) -> list[tuple[int, int]]:
+    """Each member's first and last sheet in the set: its own PDF's sheets follow the contents (the set repeats
+    every member's sheets on their own paper, so the counts are the same)."""
+    counts = [page_count((out / r["folder"] / f"{r['folder']}.pdf").read_bytes()) for r in records]
+    first = page_count(set_pdf) - sum(counts) + 1
+    ranges = []
+    for n in counts:
+        ranges.append((first, first + n - 1))
+        first += n
+    return ranges
+
+
+def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
+    """index.md, index.html, index.json and calc-set.pdf for the packages in `folders` (names under `out`);
+    nothing is written when the members and the paper are those of the last set (index.json's key)."""
+    from beamlang.report.html import member_html
+    records = _records(out, folders)
+    key = hashlib.sha256(json.dumps([paper, [[r["folder"], r["key"]] for r in records]]).encode()).hexdigest()
+    try:
+        if json.loads((out / SET_RECORD).read_text(encoding="utf-8"))["key"] == key and (out / SET_PDF).is_file():
+            return []
+    except (OSError, ValueError, KeyError):
+        pass
+    source, figures = set_source(out, records, paper)
+    pdf = compile_pdf(source, figures)
+    sheets = sheet_ranges(out, records, pdf)
+    index = {"key": key, "paper": paper, "sheets": page_count(pdf),
+             "members": [{"mark": r["mark"], "folder": r["folder"], "section": r["section"],
+                          "governing": r["governing"], "status": _status(r), "sheets": list(s)}
+                         for r, s in zip(records, sheets)]}
+    written = {"index.md": index_markdown(records, sheets, "md").encode("utf-8"),
+               "index.html": member_html(index_markdown(records, sheets, "html"), "Calc set: contents",
+                                         {}).encode("utf-8"),
+               SET_PDF: pdf, SET_RECORD: (json.dumps(index, indent=2, sort_keys=True) + "\n").encode("utf-8")}
+    paths = []
+    for name, data in written.items():
+        path = out / name
+        tmp = path.with_name(f".{name}.tmp")
+        tmp.write_bytes(data)
+        tmp.replace(path)
+        paths.append(path)
+    return paths

@@ -1,0 +1,136 @@
+"""Markup: calc-package Markdown -> Typst markup, token by token (markdown-it's parse, the same one the HTML uses).
+
+Every construct the package writes has a rule here; an unknown token type raises, so a new kind of Markdown
+cannot silently vanish from the PDF. Text is escaped character by character; formulas go through `math.to_typst`;
+tables, display formulas and figures call the functions of `template.typ` (`bl-table`, `bl-display`, `bl-figure`).
+"""
+
+from __future__ import annotations
+
+from beamlang.report.pdf.math import to_typst
+
+_ESCAPE = set("\\*_`#$[]<>@~=-+/'\"&.:;!?%(){}|^,")
+
+
+def text(s: str) -> str:
+    """Literal text in Typst markup (every character that could start markup escaped; newlines as spaces)."""
+    return "".join("\\" + ch if ch in _ESCAPE else ch for ch in s.replace("\n", " "))
+
+
+def string(s: str) -> str:
+    """A Typst string literal."""
+    return '"' + s.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n") + '"'
+
+
+def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),
+                    mark: str = "") -> str:
+    """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG;
+    `before_summary` is Typst placed before the first section; table rows whose line column holds a line of
+    `changed` get a margin mark naming revision `mark`."""
+    from beamlang.report.html import _markdown
+    tokens = _markdown().parse(markdown)
+    return _Writer(tokens, figure_key, before_summary, changed, mark).blocks(0, len(tokens))
+
+
+class _Writer:
+    def __init__(self, tokens, figure_key, before: str, changed: frozenset[int], mark: str) -> None:
+        self.tokens, self.figure_key = tokens, figure_key
+        self.before, self.changed, self.mark = before, changed, mark
+
+    def blocks(self, start: int, stop: int) -> str:
+        out, i = [], start
+        while i < stop:
+            tok = self.tokens[i]
+            handler = getattr(self, "_" + tok.type.removesuffix("_open"), None)
+            if handler is None:
+                raise ValueError(f"no Typst rule for Markdown token {tok.type}")
+            end = self._close(i) if tok.nesting == 1 else i
+            out.append(handler(i, end))
+            i = end + 1
+        return "".join(out)
+
+    def _close(self, i: int) -> int:
+        depth = 0
+        for j in range(i, len(self.tokens)):
+            depth += self.tokens[j].nesting
+            if depth == 0:
+                return j
+        raise ValueError("unclosed Markdown block")
+
+    def _heading(self, i: int, end: int) -> str:
+        level = int(self.tokens[i].tag[1])
+        before, self.before = (self.before, "") if level == 2 else ("", self.before)
+        return f"{before}\n#heading(level: {level})[{self.inline(self.tokens[i + 1])}]\n"
+
+    def _paragraph(self, i: int, end: int) -> str:
+        body = self.inline(self.tokens[i + 1])
+        nxt = self.tokens[end + 1] if end + 1 < len(self.tokens) else None
+        if nxt is not None and nxt.type in ("table_open", "math_block") and body.rstrip().endswith("\\:"):
+            return f"\n#bl-lead[{body}]\n"  # a caption line: kept on the sheet of what it introduces
+        return f"\n{body}\n"
+
+    def _bullet_list(self, i: int, end: int) -> str:
+        items = []
+        j = i + 1
+        while j < end:
+            close = self._close(j)
+            items.append("[" + self.blocks(j + 1, close).strip() + "]")
+            j = close + 1
+        return "\n#list(" + ", ".join(items) + ")\n"
+
+    _ordered_list = None  # not written by the package; an ordered list would raise
+
+    def _table(self, i: int, end: int) -> str:
+        rows: list[list[str]] = []
+        raw: list[list[str]] = []
+        for j in range(i, end):
+            tok = self.tokens[j]
+            if tok.type == "tr_open":
+                rows.append([])
+                raw.append([])
+            elif tok.type in ("th_open", "td_open"):
+                rows[-1].append("[" + self.inline(self.tokens[j + 1]) + "]")
+                raw[-1].append(self.tokens[j + 1].content.strip())
+        lines = [k for k, name in enumerate(raw[0]) if name in ("line", "input line")]
+        for row, cells in zip(rows[1:], raw[1:]):
+            if self.changed and any(cells[k].isdigit() and int(cells[k]) in self.changed for k in lines):
+                row[0] = f"[#bl-changed({string(self.mark)});{row[0][1:]}"
+        ncols = len(rows[0])
+        header = ", ".join(rows[0])
+        body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
+        return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n))\n" if rows[1:] else \
+            f"\n#bl-table({ncols}, ({header},), ())\n"
+
+    def _math_block(self, i: int, end: int) -> str:
+        return f"\n#bl-display($ {to_typst(self.tokens[i].content)} $)\n"
+
+    def _fence(self, i: int, end: int) -> str:
+        return f"\n#bl-listing({string(self.tokens[i].content.rstrip(chr(10)))})\n"
+
+    _code_block = _fence
+
+    def _hr(self, i: int, end: int) -> str:
+        return "\n#line(length: 100%, stroke: 0.4pt)\n"
+
+    def inline(self, tok) -> str:
+        out = []
+        for child in tok.children or []:
+            kind = child.type
+            if kind == "text":
+                out.append(text(child.content))
+            elif kind == "math_inline":
+                out.append(f"${to_typst(child.content)}$")
+            elif kind == "code_inline":
+                out.append(f"#raw({string(child.content)})")
+            elif kind in ("strong_open", "em_open"):
+                out.append("#strong[" if kind == "strong_open" else "#emph[")
+            elif kind in ("strong_close", "em_close"):
+                out.append("]")
+            elif kind in ("softbreak", "hardbreak"):
+                out.append(" " if kind == "softbreak" else " \\\n")
+            elif kind == "image":
+                out.append(f"#bl-figure({string(self.figure_key(child.attrs['src']))}, "
+                           f"{string(child.content)})")
+            else:
+                raise ValueError(f"no Typst rule for inline Markdown token {kind}")
+        return "".join(out)
