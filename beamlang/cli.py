@@ -163,8 +163,12 @@ def _run_build(args: argparse.Namespace) -> int:
     jobs = max(1, args.jobs)
     settings = (args.since, args.paper, args.force)
     if jobs > 1 and len(loaded) > 1:
+        import multiprocessing
         from concurrent.futures import ProcessPoolExecutor
-        with ProcessPoolExecutor(max_workers=jobs) as pool:
+        # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
+        # inherits their locks held, which hung builds with --jobs
+        context = multiprocessing.get_context("forkserver")
+        with ProcessPoolExecutor(max_workers=jobs, mp_context=context) as pool:
             outcomes = _progress(pool.map(_build_one, loaded, [out] * len(loaded), [settings] * len(loaded)),
                                  len(loaded))
     else:

@@ -180,7 +180,7 @@ def factor_of(unit: str) -> Factor | None:
 def _si_unit(kind: str | None) -> str:
     return {"length": "m", "force": "N", "moment": "N*m", "force per length": "N/m", "stress": "Pa",
             "density": "kg/m^3", "second moment of area": "m^4", "section modulus": "m^3",
-            "area": "m^2", "angle": "rad"}.get(kind or "", "?")
+            "area": "m^2", "angle": "rad", "frequency": "Hz"}.get(kind or "", "?")
 
 
 def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fraction:
