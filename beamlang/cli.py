@@ -198,15 +198,17 @@ def _progress(outcomes, n: int) -> list[tuple[str, int, int, bool]]:
 def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[str, int, int, bool]:
     """One member's package (runs in a worker process with --jobs); skipped when its record shows the same
     input, versions and options (never with --since, whose section depends on the repository)."""
-    from beamlang.report.package import build_key, folder_name, up_to_date, write_package
+    from beamlang.language.frontend import recorded_name
+    from beamlang.report.package import build_key, folder_name, tidy, up_to_date, write_package
     from beamlang.report.pdf import Options
     from beamlang.tools.history import commits, fallback_date, revisions
     since, paper, force = settings
     date = None if dict(item.member.fields).get("date") else fallback_date(item.path)
     options = Options(paper=paper, fallback_date=date)
-    key = build_key(item.source.text, repr((item.source.name, options, commits(item.path))))
+    key = build_key(item.source.text, repr((recorded_name(item), options, commits(item.path))))
     record = None if (since or force) else up_to_date(out, item.member.mark, key)
     if record is not None:
+        tidy(out / folder_name(item.member.mark))
         return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
     from beamlang.pipeline import analyse_loaded
     a = analyse_loaded(item)

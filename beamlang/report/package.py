@@ -13,6 +13,7 @@ from contextlib import contextmanager
 from functools import lru_cache
 from pathlib import Path
 
+from beamlang.language.frontend import recorded_name
 from beamlang.language.marks import RESERVED, folder_name  # noqa: F401 (the package folder's name lives there)
 from beamlang.pipeline import Analysis
 from beamlang.report.jsonout import member_json
@@ -61,7 +62,7 @@ def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str, sheets) 
     worst = max(a.checks, key=lambda c: (c.ratio, not c.passed), default=None)
     sections = [statement_text(st) for _line, st in a.loaded.document.statements if isinstance(st, Section)]
     rec = {"schema": "beamlang.build/1", "key": key, "mark": m.mark, "title": m.title, "fields": dict(m.fields),
-           "file": a.loaded.source.name, "section": "; ".join(sections) + (f" ({m.designations})"
+           "file": recorded_name(a.loaded), "section": "; ".join(sections) + (f" ({m.designations})"
                                                                          if m.designations else ""),
            "governing": None if worst is None else {"check": check_name(worst, a.units), "ratio": worst.ratio,
                                                     "pass": worst.passed},
@@ -196,6 +197,14 @@ def _new_folder(target: Path, kind: str) -> Path:
             return path
         except FileExistsError:
             continue
+
+
+def tidy(target: Path) -> None:
+    """A package left as it is (up to date): still remove what an earlier, killed run left beside it."""
+    if not target.parent.is_dir():
+        return
+    with _locked(target.parent):
+        _clean_leftovers(target)
 
 
 def _clean_leftovers(target: Path) -> None:
