@@ -1,16 +1,18 @@
-"""Command line: arguments -> the stage functions; exit codes 0 ok, 1 check failed, 2 input error, 3 internal error."""
+"""Command line: arguments -> the stage functions; exit codes 0 ok, 1 check failed, 2 input error, 3 internal error,
+4 the file system refused (a read-only or full disk, a path under a file, a folder where a file goes)."""
 
 from __future__ import annotations
 
 import argparse
+import errno
 import sys
 import traceback
 from pathlib import Path
 
 from beamlang import __version__
-from beamlang.errors import BeamError
+from beamlang.errors import BeamError, visible
 
-EXIT_OK, EXIT_FAIL, EXIT_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
+EXIT_OK, EXIT_FAIL, EXIT_INPUT, EXIT_INTERNAL, EXIT_FILES = 0, 1, 2, 3, 4
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -26,6 +28,11 @@ def main(argv: list[str] | None = None) -> int:
         return EXIT_INPUT
     except KeyboardInterrupt:
         return 130
+    except OSError as exc:  # the disk or the folders, not our bug and not the input's
+        if args.debug:
+            traceback.print_exc()
+        print(file_problem(exc), file=sys.stderr)
+        return EXIT_FILES
     except Exception:  # our own bug: never dress it up as the user's mistake
         if args.debug:
             traceback.print_exc()
@@ -34,6 +41,23 @@ def main(argv: list[str] | None = None) -> int:
             print(f"beamlang: internal error ({kind}); please report it with the input file "
                   "(run again with --debug to see the traceback)", file=sys.stderr)
         return EXIT_INTERNAL
+
+
+_WHY = {getattr(errno, name): why for name, why in (
+    ("ENOSPC", "no space left on the device"), ("EROFS", "the file system is read-only"),
+    ("EACCES", "permission denied"), ("EPERM", "permission denied"),
+    ("ENOTDIR", "a part of the path is a file, not a folder"), ("EISDIR", "it is a folder, not a file"),
+    ("EEXIST", "a file of that name is in the way"), ("EDQUOT", "the disk quota is used up"),
+    ("ENAMETOOLONG", "the name is too long"), ("EIO", "the disk reported an input/output error"),
+    ("ENOENT", "a folder on the way does not exist")) if hasattr(errno, name)}
+
+
+def file_problem(exc: OSError) -> str:
+    """`beamlang: cannot write out/B-3: no space left on the device (ENOSPC)`: what failed, where and why."""
+    why = _WHY.get(exc.errno, exc.strerror or str(exc))
+    code = f" ({errno.errorcode[exc.errno]})" if exc.errno in errno.errorcode else ""
+    where = f" {visible(str(exc.filename))}" if exc.filename is not None else ""
+    return f"beamlang: file-system error on{where}: {why}{code}"
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -86,7 +110,7 @@ def _parser() -> argparse.ArgumentParser:
 
 def _each(paths: list[str]):
     """Load every file, collecting input errors so that all are reported; yields the good ones."""
-    from beamlang.language.frontend import check_unique_marks, expand, load
+    from beamlang.language.frontend import expand, load, without_colliding_marks
     files = expand(paths)
     if not files:
         print("beamlang: no .beam files found in " + " ".join(paths), file=sys.stderr)
@@ -97,10 +121,9 @@ def _each(paths: list[str]):
             loaded.append(load(path))
         except BeamError as exc:
             errors.append(exc)
-    try:
-        check_unique_marks(loaded)
-    except BeamError as exc:
-        errors.append(exc)
+    loaded, collision = without_colliding_marks(loaded)
+    if collision is not None:
+        errors.append(collision)
     return loaded, errors, bool(files)
 
 
@@ -111,6 +134,7 @@ def _report(errors: list[BeamError]) -> None:
 
 def _run_fmt(args: argparse.Namespace) -> int:
     from beamlang.language.fmt import format_document
+    from beamlang.tools.files import write_text_atomically
     loaded, errors, found = _each(args.paths)
     _report(errors)
     changed = []
@@ -119,7 +143,7 @@ def _run_fmt(args: argparse.Namespace) -> int:
         if text != item.source.text:
             changed.append(item)
             if not args.check:
-                Path(item.path).write_text(text, encoding="utf-8", newline="\n")
+                write_text_atomically(item.path, text)
     for item in changed:
         verb = "would reformat" if args.check else "reformatted"
         print(f"{verb} {item.source.name}", file=sys.stderr)
@@ -160,13 +184,15 @@ def _build_one(item, out: Path, since: str | None = None) -> tuple[str, int, int
 def _changes_since(rev: str, item, a) -> list[str]:
     """The 'Changes since REV' section of a package: the diff of this member's file against REV."""
     from beamlang.tools import diffout
-    from beamlang.tools.diff import diff_members
+    from beamlang.tools.diff import Invalid, diff_members
     from beamlang.tools.gitsource import files_at
     from beamlang.report.tex import md
     name = item.path.as_posix()
     old = _side(f"{rev}:{name}") if name in files_at(rev, [name]) else None
     d = diff_members(name, old, a)
     body = diffout.markdown([d]).split("\n", 2)[2] if old else "The file did not exist at this revision.\n"
+    if isinstance(old, Invalid):
+        body = "The file had input errors at this revision; every check is shown as new.\n\n" + body
     return [f"## Changes since {md(rev)}", "", body.rstrip("\n") or "No change.", ""]
 
 
@@ -185,13 +211,14 @@ def _run_check(args: argparse.Namespace) -> int:
     analyses = [analyse_loaded(item) for item in loaded]
     if args.junit:
         from beamlang.tools.junit import junit_xml
-        Path(args.junit).write_text(junit_xml(analyses, errors), encoding="utf-8")
+        from beamlang.tools.files import write_text_atomically
+        write_text_atomically(args.junit, junit_xml(analyses, errors))
     if args.json:
         from beamlang.report.jsonout import member_json
         print(json.dumps([member_json(a) for a in analyses], indent=2))
     else:
         from beamlang.report.table import member_table
-        print("\n".join(member_table(a) for a in analyses), end="")
+        print(visible("\n".join(member_table(a) for a in analyses)), end="")
     if errors or not found:
         return EXIT_INPUT
     return EXIT_OK if all(a.passed for a in analyses) else EXIT_FAIL
@@ -229,7 +256,8 @@ def _run_size(args: argparse.Namespace) -> int:
     if args.write:
         others = tuple(name for _, name, _ in rows) + ((designation_of(item) or ""),)
         text = with_section(item, best.section, best.name, others)
-        Path(args.member).write_text(text, encoding="utf-8", newline="")
+        from beamlang.tools.files import write_text_atomically
+        write_text_atomically(args.member, text)
         print(f"wrote `{section_line(item, text)}` into {item.source.name}")
     return EXIT_OK
 
@@ -247,7 +275,7 @@ def _run_diff(args: argparse.Namespace) -> int:
         print(diffout.markdown(diffs), end="")
     else:
         colour = sys.stdout.isatty() and "NO_COLOR" not in os.environ
-        print(diffout.text(diffs, colour), end="")
+        print(diffout.text(diffs, colour) if colour else visible(diffout.text(diffs, colour)), end="")
     if args.fail_on == "regression" and any(d.regression for d in diffs):
         return EXIT_FAIL
     return EXIT_OK
@@ -281,8 +309,10 @@ def _diff_pairs(args: argparse.Namespace) -> list:
 
 
 def _side(arg: str):
-    """A file, or REV:path read through git; analysed."""
+    """A file, or REV:path read through git; analysed, or `Invalid` with its input errors (a revision under review
+    may fix them: the diff goes on). A file that cannot be read at all is still an error."""
     from beamlang.language.frontend import from_source
+    from beamlang.tools.diff import Invalid
     from beamlang.tools.gitsource import read_revision
     from beamlang.language.parse import read_source
     from beamlang.pipeline import analyse_loaded
@@ -291,7 +321,11 @@ def _side(arg: str):
         source = read_revision(rev, path)
     else:
         source = read_source(arg)
-    return analyse_loaded(from_source(source, Path(source.name)))
+    try:
+        loaded = from_source(source, Path(source.name))
+    except BeamError as exc:
+        return Invalid(exc)
+    return analyse_loaded(loaded)
 
 
 def _usage(message: str):

@@ -7,6 +7,26 @@ from dataclasses import dataclass
 from beamlang.source import Source, Span
 
 
+def visible(text: str) -> str:
+    """Text safe to print on a terminal: control and invisible characters shown as one visible character each
+    (C0 controls as their control pictures, U+2400..., others as U+FFFD), so that an escape sequence in a file
+    cannot recolour or clear the screen, and carets stay under the right column. Line feeds are kept."""
+    import unicodedata
+    out = []
+    for ch in text:
+        if ch == "\n":
+            out.append(ch)
+        elif ord(ch) < 0x20:
+            out.append(chr(0x2400 + ord(ch)))
+        elif ch == "\x7f":
+            out.append("\u2421")
+        elif unicodedata.category(ch) in ("Cc", "Cf", "Zl", "Zp", "Cs", "Co", "Cn"):
+            out.append("\ufffd")
+        else:
+            out.append(ch)
+    return "".join(out)
+
+
 @dataclass(frozen=True, slots=True)
 class Diagnostic:
     """One problem in the user's input, pointing at the text that causes it."""
@@ -16,15 +36,15 @@ class Diagnostic:
     hint: str | None = None
 
     def render(self, source: Source | None) -> str:
-        out = [f"{self.span}: error: {self.message}"]
+        out = [visible(f"{self.span}: error: {self.message}")]
         text = source.line_text(self.span.line) if source is not None else ""
         if text:
-            shown = text.replace("\t", " ")
+            shown = visible(text.replace("\t", " "))
             width = max(1, min(self.span.end_col, len(shown) + 1) - self.span.col)
             out.append(f"    {shown}")
             out.append("    " + " " * (self.span.col - 1) + "^" + "~" * (width - 1))
         if self.hint:
-            out.append(f"    hint: {self.hint}")
+            out.append(visible(f"    hint: {self.hint}"))
         return "\n".join(out)
 
 

@@ -20,6 +20,12 @@ class Material:
     density: Fraction | None  # kg/m^3
     span: Span
     shear_strength: Fraction | None = None  # Pa; given: the shear check uses it instead of yield/sqrt(3)
+    allowable_bending: Fraction | None = None  # Pa; given (timber, aluminium): the bending check's limit, no yield
+
+    @property
+    def bending_strength(self) -> Fraction | None:
+        """What bending stress is checked against: the allowable bending stress where given, else the yield."""
+        return self.allowable_bending if self.allowable_bending is not None else self.yield_strength
 
 
 @dataclass(frozen=True, slots=True)
@@ -90,6 +96,7 @@ class LineLoad:
     w2: Fraction
     origin: str  # uniform | linear | self-weight
     span: Span
+    width: Fraction | None = None  # m: written as a pressure gathered from this tributary width (`over`)
 
 
 @dataclass(frozen=True, slots=True)
@@ -133,6 +140,7 @@ class Case:
     title: str | None
     loads: tuple[Load, ...]
     span: Span
+    patterned: bool = False  # `pattern NAME`: applied span by span, the worst arrangement for each effect
 
 
 @dataclass(frozen=True, slots=True)
@@ -242,6 +250,14 @@ class Member:
             if case.name == name:
                 return case
         raise KeyError(name)
+
+    def patterned(self, target: str) -> tuple[str, ...]:
+        """The patterned cases a case or combination holds (none: it is solved as written)."""
+        for case in self.cases:
+            if case.name == target:
+                return (case.name,) if case.patterned else ()
+        combo = next((c for c in self.combinations if c.name == target), None)
+        return tuple(name for _, name in combo.terms if self.case(name).patterned) if combo else ()
 
     @property
     def targets(self) -> tuple[str, ...]:

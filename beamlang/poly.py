@@ -15,6 +15,27 @@ RATIONAL = (Fraction, int, type(Q(0)))  # exact numbers (the others are symbolic
 ZERO = Q(0)
 
 
+def to_flint(c):
+    """An exact rational as python-flint's fmpq (numerator and denominator as Python ints)."""
+    import flint
+    return flint.fmpq(int(c.numerator), int(c.denominator))
+
+
+def from_flint(c):
+    """python-flint's fmpq (or fmpz) -> the engine's exact rational."""
+    return Q(int(c.numerator), int(c.denominator))
+
+
+def to_flint_poly(p: "Poly"):
+    """An exact polynomial as python-flint's fmpq_poly."""
+    import flint
+    return flint.fmpq_poly([to_flint(c) for c in p.coeffs])
+
+
+def from_flint_poly(f) -> "Poly":
+    return Poly(_trim(from_flint(c) for c in f.coeffs()))
+
+
 def _trim(coeffs: Iterable) -> tuple:
     out = list(coeffs)
     while out and out[-1] == 0:

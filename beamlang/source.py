@@ -5,6 +5,17 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 
+def split_lines(text: str) -> list[str]:
+    """The lines of a file: split at LF only, one CR before it dropped (a CRLF file reads as its LF twin).
+
+    Not `str.splitlines`, which also breaks at a vertical tab, form feed, NEL or U+2028: a line must be what an
+    editor shows as one line."""
+    parts = text.split("\n")
+    if parts and parts[-1] == "":
+        parts.pop()
+    return [p[:-1] if p.endswith("\r") else p for p in parts]
+
+
 @dataclass(frozen=True, slots=True)
 class Span:
     """A region of one line of a source file; line and columns count from 1."""
@@ -26,7 +37,7 @@ class Source:
     text: str
 
     def line_text(self, line: int) -> str:
-        lines = self.text.splitlines()
+        lines = split_lines(self.text)
         if 1 <= line <= len(lines):
             return lines[line - 1]
         return ""

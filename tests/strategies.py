@@ -6,9 +6,11 @@ from hypothesis import strategies as st
 
 SYSTEMS = {
     "si": {"length": ("m", 1000, "mm"), "force": ("kN", "N"), "line": ("kN/m", "N/mm"), "moment": ("kN*m", "kN\u00b7m"),
-           "E": "200 GPa", "yield": "350 MPa", "density": "7850 kg/m^3", "spring": "5 kN/mm"},
+           "E": "200 GPa", "yield": "350 MPa", "density": "7850 kg/m^3", "spring": "5 kN/mm",
+           "allowable": "allowable bending 150 MPa shear 90 MPa", "pressure": "kPa", "width": "1 m 200 mm"},
     "us": {"length": ("ft", 12, "in"), "force": ("kip", "lbf"), "line": ("kip/ft", "lbf/ft"), "moment": ("kip*ft", "kip*in"),
-           "E": "29000 ksi", "yield": "50 ksi", "density": "490 lb/ft^3", "spring": "30 kip/in"},
+           "E": "29000 ksi", "yield": "50 ksi", "density": "490 lb/ft^3", "spring": "30 kip/in",
+           "allowable": "allowable bending 1.2 ksi shear 0.18 ksi", "pressure": "psf", "width": "16 in"},
 }
 SECTIONS = {
     "si": ["section rectangle width 100 mm depth 200 mm", "section I-shape depth 250 mm flange 150 mm x 12 mm web 8 mm",
@@ -34,6 +36,8 @@ def positions(draw, span: int, sub: int, unit: str, fine: str) -> tuple[str, int
     k = draw(st.integers(0, span * sub))
     if form == "abs" and k % sub == 0:
         return f"{k // sub} {unit}", k
+    if form == "abs" and k > sub:  # a length in parts: `3 ft 4 in`, `2 m 250 mm`
+        return f"{k // sub} {unit} {k % sub} {fine}", k
     return f"{k} {fine}", k
 
 
@@ -47,7 +51,8 @@ def members(draw) -> str:
     gap = lambda: draw(st.sampled_from([" ", "  ", "\t"]))  # noqa: E731
     lines = [f'member M-{draw(st.integers(1, 99))}{gap()}"Generated member"',
              f"span{gap()}{span} {unit}",
-             f"material steel E {u['E']}{gap()}yield {u['yield']} density {u['density']}",
+             f"material steel E {u['E']}{gap()}"
+             + draw(st.sampled_from([f"yield {u['yield']}", u["allowable"]])) + f" density {u['density']}",
              'project "Generated"  # a comment']
     inside = st.integers(1, span * sub - 1).filter(lambda k: 2 * k != span * sub)  # not an end, not span/2
     sections = draw(st.lists(st.sampled_from(SECTIONS[system]), min_size=1, max_size=3))
@@ -77,6 +82,8 @@ def members(draw) -> str:
         for _ in range(draw(st.integers(1, 4))):
             body.append("  " + draw(loads(pos, u, free)))
         lines.append("\n".join(body))
+    if len(names) > 1 and draw(st.booleans()):
+        lines.append(f"pattern {names[1]}")
     if len(names) > 1:
         lines.append("combine total = " + " + ".join(f"{draw(st.sampled_from(['', '1.2 ', '1.6 ']))}{n}" for n in names))
     lines.append(f"limit deflection {names[0]} span/{draw(st.sampled_from([180, 240, 360]))}")
@@ -88,7 +95,7 @@ def members(draw) -> str:
 @st.composite
 def loads(draw, pos, u, free=None) -> str:
     """A load line; a couple goes to a `free` position (never on a hinge)."""
-    kind = draw(st.sampled_from(["point", "uniform", "partial", "linear", "moment", "self"]))
+    kind = draw(st.sampled_from(["point", "uniform", "partial", "linear", "moment", "self", "area"]))
     direction = draw(st.sampled_from(["down", "up"]))
     number = draw(st.sampled_from(["1", "2.5", "0.75", "12", "1e1"]))
     if kind == "point":
@@ -101,6 +108,8 @@ def loads(draw, pos, u, free=None) -> str:
     line = draw(st.sampled_from(u["line"]))
     if kind == "uniform":
         return f"uniform {number} {line} {direction}"
+    if kind == "area":  # a pressure gathered over a tributary width
+        return f"uniform {number} {u['pressure']} over {u['width']} {direction}"
     a, b = pos(), pos()
     if a[1] == b[1]:
         return f"uniform {number} {line} {direction}"

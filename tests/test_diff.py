@@ -62,7 +62,7 @@ def test_fail_on_regression_gates(repo, capsys):
 def test_markdown_and_json_formats(repo, capsys):
     _, md = run(capsys, "diff", "--rev", "HEAD~1", "beams", "--format", "markdown")
     assert md.startswith("### beams/b3.beam: changed\n\n| status | check | ratio before | ratio after |")
-    assert "### beams/ca1.beam: changed (no change to the design)" in md
+    assert "### beams/ca1.beam: unchanged" in md
     _, js = run(capsys, "diff", "--rev", "HEAD~1", "--format", "json")
     data = json.loads(js)
     assert data["schema"] == "beamlang.diff/1"
@@ -76,7 +76,81 @@ def test_working_tree_changes_added_and_removed_files(repo, capsys):
     shutil.copy(EXAMPLES / "lintel-propped.beam", repo / "beams" / "l4.beam")
     _, out = run(capsys, "diff", "--rev", "HEAD")
     assert "beams/ca1.beam: removed" in out and "beams/l4.beam: added" in out
-    assert "beams/b3.beam: changed (no change to the design)" in out
+    assert "beams/b3.beam: unchanged" in out.splitlines()
+
+
+def test_an_untouched_file_is_unchanged(repo, capsys):
+    code, out = run(capsys, "diff", "--rev", "HEAD", "--format", "json")
+    assert code == 0
+    statuses = {m["name"]: m["status"] for m in json.loads(out)["members"]}
+    assert statuses == {"beams/b3.beam": "unchanged", "beams/ca1.beam": "unchanged"}
+    assert run(capsys, "diff", "--rev", "HEAD")[1] == "beams/b3.beam: unchanged\nbeams/ca1.beam: unchanged\n"
+
+
+@pytest.mark.parametrize("argv", [["diff", "--", "--output=PWNED:beams/b3.beam", "beams/b3.beam"],
+                                  ["diff", "--rev=--output=PWNED", "beams"],
+                                  ["build", "beams", "-o", "out", "--since=--output=PWNED"]])
+def test_a_revision_is_never_a_git_option(argv, repo, capsys):
+    assert main(argv) == 2
+    err = capsys.readouterr().err
+    assert "error: '--output=PWNED' is not a revision" in err
+    assert not (repo / "PWNED").exists()
+
+
+def test_git_is_always_told_where_its_options_end(repo, monkeypatch):
+    import beamlang.tools.gitsource as gitsource
+    calls = []
+    real = gitsource.subprocess.run
+    monkeypatch.setattr(gitsource.subprocess, "run", lambda argv, **kw: calls.append(argv) or real(argv, **kw))
+    gitsource.files_at("HEAD", ["beams"])
+    gitsource.read_revision("HEAD", "beams/b3.beam")
+    for argv in calls:
+        if argv[1] in ("show", "ls-tree"):
+            assert "--end-of-options" in argv and argv.index("--end-of-options") < argv.index(
+                next(a for a in argv if a.startswith("HEAD")))
+
+
+@pytest.fixture
+def repo_fixing_an_error(repo):
+    """HEAD~1 has a member with an input error that HEAD fixes."""
+    b3 = repo / "beams" / "b3.beam"
+    good = b3.read_text(encoding="utf-8")
+    b3.write_text(good.replace("span 5.4 m", "span 5.4"), encoding="utf-8")
+    git(repo, "commit", "-qam", "broken")
+    b3.write_text(good, encoding="utf-8")
+    git(repo, "commit", "-qam", "fixed")
+    return repo
+
+
+def test_an_old_side_with_input_errors_is_reported_and_the_diff_goes_on(repo_fixing_an_error, capsys):
+    git(repo_fixing_an_error, "rm", "-q", "beams/ca1.beam")
+    code, out = run(capsys, "diff", "--rev", "HEAD~1", "--format", "json")
+    assert code == 0
+    members = {m["name"]: m for m in json.loads(out)["members"]}
+    assert members["beams/b3.beam"]["status"] == "invalid before"
+    assert members["beams/b3.beam"]["input_errors"] == ["HEAD~1:beams/b3.beam:12:6: this number needs its unit"]
+    assert members["beams/b3.beam"]["checks"] and all(c["pass_before"] is None
+                                                      for c in members["beams/b3.beam"]["checks"])
+    assert members["beams/ca1.beam"]["status"] == "removed"  # the other member is still compared
+    text = run(capsys, "diff", "--rev", "HEAD~1")[1]
+    assert "beams/b3.beam: invalid before\n  input error HEAD~1:beams/b3.beam:12:6: this number needs its unit\n" in text
+
+
+def test_a_new_side_with_input_errors_is_a_regression(repo, capsys):
+    b3 = repo / "beams" / "b3.beam"
+    b3.write_text(b3.read_text(encoding="utf-8").replace("span 5.4 m", "span 5.4"), encoding="utf-8")
+    code, out = run(capsys, "diff", "--rev", "HEAD", "--fail-on", "regression")
+    assert code == 1
+    assert "beams/b3.beam: invalid now\n" in out and "beams/ca1.beam: unchanged" in out
+
+
+def test_build_since_an_invalid_revision_still_builds(repo_fixing_an_error, capsys):
+    assert main(["build", "beams", "-o", "out", "--since", "HEAD~1"]) == 1  # the heavier load fails a check
+    text = (repo_fixing_an_error / "out" / "B-3" / "B-3.md").read_text(encoding="utf-8")
+    section = text.split("## Changes since HEAD\\~1\n", 1)[1].split("\n## ", 1)[0]
+    assert section.startswith("\nThe file had input errors at this revision; every check is shown as new.")
+    assert "this number needs its unit" in section
+    assert (repo_fixing_an_error / "out" / "CA-1" / "CA-1.md").is_file()
 
 
 def test_reformat_only_commit_is_no_design_change(repo, capsys):

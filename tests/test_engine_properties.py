@@ -12,6 +12,7 @@ from beamlang.model import LineLoad, MomentLoad, PointLoad
 from beamlang.engine.roots import roots_in
 from beamlang.poly import Poly
 from beamlang.engine.statics import resultant
+from beamlang.engine.fem import MIN_ELEMENT, fe_nodes
 from engine_helpers import analyse_text, member_text, result
 from strategies import members
 
@@ -54,8 +55,13 @@ def test_equilibrium_continuity_and_supports_are_exact(text):
 @SETTINGS
 @given(members())
 def test_finite_elements_agree(text):
+    # the float solve agrees to 1e-9 of the largest value; an element shorter than 1/500 of the member (a
+    # section change 1 mm from a support, say) costs it about a digit, even with its refinement
     a = analyse_text(text)
-    assert all(r.cross_check < 1e-9 for r in a.results)
+    member = a.loaded.member
+    nodes = fe_nodes(member, ())
+    short = min(right - left for left, right in zip(nodes, nodes[1:])) < member.length * MIN_ELEMENT
+    assert all(r.cross_check < (1e-8 if short else 1e-9) for r in a.results)
 
 
 def test_finite_elements_stay_accurate_beside_a_very_short_element():

@@ -71,8 +71,8 @@ def test_file_too_large(tmp_path, monkeypatch, capsys):
     (tmp_path / "big.beam").write_text("# padding\n" * 120_000, encoding="utf-8")
     code, _, err = run(["check", "big.beam"], capsys)
     assert code == 2
-    assert err == ("big.beam:1:1: error: file too large for a member (1200000 bytes, 120001 lines)\n"
-                   "    # padding\n    ^\n    hint: the limits are 1000000 bytes and 20000 lines\n")
+    assert err == ("big.beam:1:1: error: file too large for a member (more than 1000000 bytes)\n"
+                   "    hint: the limits are 1000000 bytes and 20000 lines\n")
 
 
 def test_line_too_long(tmp_path, monkeypatch, capsys):

@@ -92,18 +92,27 @@ def _stress(member: Member, check, r: TargetResult) -> list[Check]:
     st = r.stress
     fy = st.yield_strength
     x = st.bending_at.x if st.bending_at else None
+    against = "the allowable bending stress given with the material" if st.allowable else "the yield strength"
     out = [Check("bending stress", check.target, st.bending, fy, "Pa", st.bending <= fy, x,
-                 "sigma = M c / I against the yield strength" + _where(member, st.bending_at), check.span,
-                 at=st.bending_at, stretch=st.bending_stretch, strength="yield")]
+                 "sigma = M c / I against " + against + _where(member, st.bending_at), check.span,
+                 at=st.bending_at, stretch=st.bending_stretch, strength="allowable" if st.allowable else "yield")]
     if st.shear is not None:
         given = st.shear_strength is not None
-        allowed, basis = ((st.shear_strength, "tau = V Q / (I t) against the shear strength given with the material")
+        allowed, basis = ((st.shear_strength, "tau = V Q / (I t) against the "
+                           + ("allowable shear stress" if _allowable(member, st) else "shear strength")
+                           + " given with the material")
                           if given else
                           (st.shear_fy / SQRT3, "tau = V Q / (I t) against fy/sqrt(3) (von Mises)"))
         out.append(Check("shear stress", check.target, st.shear, allowed, "Pa", st.shear_ok,
                          st.shear_at.x if st.shear_at else None, basis + _where(member, st.shear_at), check.span,
                          at=st.shear_at, stretch=st.shear_stretch, strength="shear" if given else "von Mises"))
     return out
+
+
+def _allowable(member: Member, st) -> bool:
+    """The stretch where shear governs gives allowable stresses (its `shear` is an allowable shear stress)."""
+    k = st.shear_stretch if st.shear_stretch is not None else 0
+    return member.stretches[k].material.allowable_bending is not None
 
 
 def _where(member: Member, at) -> str:

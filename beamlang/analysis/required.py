@@ -1,4 +1,4 @@
-"""Required section: a member's checks -> the least I meeting every deflection limit and the least S for yield."""
+"""Required section: a member's checks -> the least I meeting every deflection limit and the least S for the bending limit."""
 
 from __future__ import annotations
 
@@ -37,7 +37,7 @@ def required_section(member: Member, checks: tuple[Check, ...]) -> Required:
     I = member.section.I * I_check.actual / I_check.allowed if I_check else None
     S = _section_modulus(member) * S_check.actual / S_check.allowed if S_check else None
     weight = any(ld.origin == "self-weight" for case in member.cases for ld in case.loads if hasattr(ld, "origin"))
-    note = ("I_req = I x (largest deflection ratio), S_req = S x (largest bending-stress ratio) = M_max / fy"
+    note = ("I_req = I x (largest deflection ratio), S_req = S x (largest bending-stress ratio) = M_max / (fy or the allowable bending stress)"
             + ("; the self-weight of the present section is kept (a lighter section needs slightly less, a "
                "heavier one slightly more)" if weight else ""))
     return Required(I, S, I_check, S_check, note)

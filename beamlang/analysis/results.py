@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from bisect import bisect_left, bisect_right
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import TYPE_CHECKING
@@ -11,6 +12,7 @@ from beamlang.engine.solve import Solution, Target
 from beamlang.engine.statics import region_bounds
 
 if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
+    from beamlang.analysis.patterned import PatternResult
     from beamlang.engine.moving import Critical, Envelope
 
 SIGN_CONVENTION = ("x from the left end; deflection, loads and reaction forces positive up; bending moment "
@@ -36,19 +38,22 @@ class Stress:
 
     bending: Fraction | None  # Pa, M c / I at the largest |M| (of the governing stretch)
     shear: Fraction | None  # Pa, V Q / (I t) at the largest |V| (of the governing stretch)
-    yield_strength: Fraction | None  # of the stretch where bending governs
+    yield_strength: Fraction | None  # the bending limit of the stretch where bending governs: fy, or see `allowable`
     bending_at: Located | None = None  # the moment that gives `bending`
     shear_at: Located | None = None
     shear_yield: Fraction | None = None  # of the stretch where shear governs
     shear_strength: Fraction | None = None  # that stretch's material's own shear strength, where given
     bending_stretch: int | None = None  # index of the stretch where bending governs (its section and material)
     shear_stretch: int | None = None  # index of the stretch where shear governs
+    allowable: bool = False  # `yield_strength` is the allowable bending stress given with the material, not fy
 
     @property
     def elastic(self) -> bool | None:
+        """Within fy (and the shear capacity); within allowable stresses it is elastic too, above them unknown."""
         if self.yield_strength is None or self.bending is None:
             return None
-        return self.bending <= self.yield_strength and self.shear_ok
+        within = self.bending <= self.yield_strength and self.shear_ok
+        return None if self.allowable and not within else within
 
     @property
     def shear_ok(self) -> bool:
@@ -89,6 +94,7 @@ class TargetResult:
     places: tuple[tuple[str, tuple["Critical", ...]], ...] = ()  # result field -> every tied place and position
     reaches: tuple = ()  # moving targets: per support, its force's largest and smallest over the positions
     moment_reaches: tuple = ()  # the same for the support moments
+    pattern: "PatternResult | None" = None  # targets with patterned cases: the envelopes and each extreme's arrangement
 
     def position(self, field: str) -> "Critical | None":
         return dict(self.positions).get(field)
@@ -101,12 +107,16 @@ class TargetResult:
 def evaluate(solution: Solution) -> tuple[TargetResult, ...]:
     """Every case and combination of a solved member."""
     fe: dict = {}  # case name -> its finite-element solution, summed for the combinations
-    return tuple(_target(solution, t, fe) for t in solution.targets)
+    parts: dict = {}  # patterned case -> its parts, solved once for the case and its combinations
+    return tuple(_target(solution, t, fe, parts) for t in solution.targets)
 
 
-def _target(sol: Solution, t: Target, fe: dict) -> TargetResult:
+def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> TargetResult:
     if sol.member.moving(t.name):
         return _moving_target(sol, t)
+    if sol.member.patterned(t.name):
+        from beamlang.analysis.patterned import patterned_target
+        return patterned_target(sol, t, parts)
     m, c = sol.member, t.curves
     L = m.length
     defl = candidates(c.v, c.theta, Fraction(0), L)
@@ -194,14 +204,17 @@ def regions(sol: Solution, defl: list[Candidate]) -> tuple[Region, ...]:
     bounds = region_bounds(m)
     out = []
     spans = 0
+    order = sorted(range(len(defl)), key=lambda i: defl[i].x)  # candidates by x; each region keeps their order
+    at = [defl[i].x for i in order]
     for lo, hi in zip(bounds, bounds[1:]):
-        inside = any(x <= lo for x in xs) and any(x >= hi for x in xs)
+        inside = bool(xs) and xs[0] <= lo and xs[-1] >= hi
         kind = "span" if inside else ("cantilever" if len(xs) == 1 and m.supports[0].kind == "fixed" else "overhang")
         basis = hi - lo if inside else 2 * (hi - lo)
         spans += inside
         name = (f"span {spans}" if inside else kind if kind == "cantilever" else
                 f"{'left' if lo == 0 else 'right'} overhang")
-        out.append(Region(lo, hi, kind, basis, largest_abs([d for d in defl if lo <= d.x <= hi]), name))
+        within = sorted(order[bisect_left(at, lo):bisect_right(at, hi)])
+        out.append(Region(lo, hi, kind, basis, largest_abs([defl[i] for i in within]), name))
     return tuple(out)
 
 
@@ -211,7 +224,7 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
     m = sol.member
     bending = shearing = None  # (ratio key, stress, located, fy, stretch index[, shear strength])
     for k, st in enumerate(m.stretches):
-        sec, fy, fv = st.section, st.material.yield_strength, st.material.shear_strength
+        sec, fy, fv = st.section, st.material.bending_strength, st.material.shear_strength
         inside = lambda c: _in_stretch(sol, c, st)  # noqa: E731
         ms = [c for c in moment if inside(c)]
         at = max((l for l in (largest(ms, 1), largest(ms, -1)) if l is not None), key=lambda l: abs(l.value),
@@ -226,12 +239,13 @@ def _stress(sol: Solution, moment: list[Candidate], shear: list[Candidate]) -> S
             key = _shear_key(tau, fy, fv)
             if shearing is None or key > shearing[0]:
                 shearing = (key, tau, v_at, fy, k, fv)
-    fy0 = m.stretches[0].material.yield_strength
+    fy0 = m.stretches[0].material.bending_strength
+    governing = m.stretches[bending[4] if bending else 0].material
     return Stress(bending[1] if bending else None, shearing[1] if shearing else None,
                   bending[3] if bending else fy0, bending[2] if bending else None,
                   shearing[2] if shearing else None, shearing[3] if shearing else None,
                   shearing[5] if shearing else None, bending[4] if bending else None,
-                  shearing[4] if shearing else None)
+                  shearing[4] if shearing else None, governing.allowable_bending is not None)
 
 
 def _ratio(stress: Fraction, fy: Fraction | None) -> Fraction:

@@ -6,11 +6,21 @@ from bisect import bisect_left
 from fractions import Fraction
 
 import numpy as np
+from threadpoolctl import ThreadpoolController
 
 from beamlang.engine.statics import intensity
 from beamlang.model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 
 MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would ruin the float solve
+_BLAS: list[ThreadpoolController] = []  # made on first use: it scans the loaded libraries once
+
+
+def _one_thread():
+    """BLAS limited to one thread for the small solves: waking its worker threads costs far more than the
+    solve itself on a busy machine (measured 27-150 ms a solve against well under 1 ms)."""
+    if not _BLAS:
+        _BLAS.append(ThreadpoolController())
+    return _BLAS[0].limit(limits=1, user_api="blas")
 
 
 def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
@@ -74,7 +84,8 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
     u = np.zeros(count)
     u[fixed] = moved[fixed].astype(np.float64)
     rhs = F[free] - K[np.ix_(free, fixed)] @ moved[fixed]
-    u[free] = _solve_refined(K[np.ix_(free, free)], rhs)
+    with _one_thread():
+        u[free] = _solve_refined(K[np.ix_(free, free)], rhs)
     return u[v_dof], u[right]
 
 

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from beamlang.exact import Q, fraction
-from beamlang.poly import Poly
+from beamlang.poly import Poly, from_flint_poly, to_flint, to_flint_poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
 
@@ -42,7 +42,24 @@ def square_free(p: Poly) -> Poly:
     return _monic(p.divmod(g)[0]) if g.degree > 0 else _monic(p)
 
 
-def _sturm(p: Poly) -> list[Poly]:
+def _sturm(p: Poly) -> list:
+    """The Sturm sequence p, p', then minus each remainder, every term after p scaled to leading
+    coefficient +-1, as python-flint polynomials (FLINT's exact rational polynomials, in C). The same
+    polynomials as `_own_sturm` (a remainder is unique; tests/test_flint.py compares them); the divisions
+    in Python were most of the isolation's time."""
+    f = to_flint_poly(p)
+    d = f.derivative()
+    seq = [f, d / abs(d.leading_coefficient())]
+    while seq[-1].degree() > 0:
+        r = seq[-2] % seq[-1]
+        if r.is_zero():
+            break
+        seq.append(-r / abs(r.leading_coefficient()))
+    return seq
+
+
+def _own_sturm(p: Poly) -> list[Poly]:
+    """The reference Sturm sequence in Python (tests compare `_sturm` with it)."""
     seq = [p, _monic(p.derivative())]
     while seq[-1].degree > 0:
         r = seq[-2].divmod(seq[-1])[1]
@@ -93,14 +110,16 @@ def _square_free_sturm(p: Poly) -> tuple[Poly, list[Poly]]:
     if p.degree <= 1:
         return p, [p]
     seq = _sturm(p)
-    if seq[-1].degree == 0:
+    if seq[-1].degree() == 0:
         return p, seq
-    q = _monic(p.divmod(_monic(seq[-1]))[0])
+    q = _monic(p.divmod(_monic(from_flint_poly(seq[-1])))[0])
     return q, (_sturm(q) if q.degree > 1 else [q])
 
 
-def _changes(seq: list[Poly], x: Fraction) -> int:
-    signs = [v for v in (q(x) for q in seq) if v != 0]
+def _changes(seq: list, x: Fraction) -> int:
+    """Sign changes of the (flint) Sturm sequence at x, evaluated exactly."""
+    at = to_flint(x)
+    signs = [v for v in (q(at) for q in seq) if v != 0]
     return sum(1 for u, v in zip(signs, signs[1:]) if (u < 0) != (v < 0))
 
 

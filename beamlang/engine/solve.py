@@ -2,15 +2,18 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from fractions import Fraction
 
 from beamlang.errors import BeamError, Diagnostic
 from beamlang.exact import Q
-from beamlang.model import Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
+from beamlang.model import Load, LineLoad, Member, MomentLoad, MovingLoad, PointLoad, Settlement
 from beamlang.poly import Piecewise, Poly
 from beamlang.stability import Mechanism, Restraint, components, equilibrium_column, keep
+from beamlang.engine.banded import solve_banded
 from beamlang.engine.statics import breakpoints, moment_left, resultant, shear_and_moment
+
+BANDED_FROM = 6  # redundants from which a load is solved in banded stiffness form (linear in the segments)
 
 
 @dataclass(frozen=True, slots=True)
@@ -34,20 +37,46 @@ class Curves:
 
 @dataclass(frozen=True, slots=True)
 class Primary:
-    """The released, statically determinate beam and the compatibility system of the redundants."""
+    """The released, statically determinate beam and the compatibility system of the redundants.
+
+    The unit curves and the flexibility matrix are made on first use: with many redundants the loads are
+    solved in banded form (`banded.py`) and only the calc package's method section asks for them."""
 
     kind: str  # "cantilever" (fixed at one support), "simple" (two point supports) or "hinged"
     kept: tuple[Restraint, ...]  # reaction components of the primary beam
     redundants: tuple[Restraint, ...]
-    flexibility: tuple[tuple[Fraction, ...], ...]  # A in A X = -D0, spring terms 1/k on the diagonal
-    units: tuple["Curves", ...]  # primary response to a unit value of each redundant
     statics: tuple[tuple[Fraction, ...], ...]  # inverse of the kept components' equilibrium matrix
     kinematics: tuple[tuple[Fraction, ...], ...]  # inverse of their support conditions in (c1, c2, jumps)
+    basis: tuple = field(default=(), compare=False, repr=False)  # (member, xs, EI) for the lazy parts
+    _made: dict = field(default_factory=dict, compare=False, repr=False)
 
     @property
     def supports(self) -> tuple[int, ...]:
         """The supports of the primary beam, each once."""
         return tuple(dict.fromkeys(r.support for r in self.kept))
+
+    @property
+    def units(self) -> tuple["Curves", ...]:
+        """The primary response to a unit value of each redundant."""
+        if "units" not in self._made:
+            member, xs, EI = self.basis
+            self._made["units"] = tuple(_on_primary(member, xs, EI, self, [_unit(member, r)]) for r in self.redundants)
+        return self._made["units"]
+
+    @property
+    def flexibility(self) -> tuple[tuple[Fraction, ...], ...]:
+        """A in A X = -D0: the displacement at restraint i under a unit redundant j, 1/k on a spring's diagonal."""
+        if "A" not in self._made:
+            member = self.basis[0]
+            A = []
+            for i, r in enumerate(self.redundants):
+                row = [_displacement(member, r, u) for u in self.units]
+                k = member.supports[r.support].stiffness
+                if r.kind == "force" and k:
+                    row[i] += 1 / k
+                A.append(tuple(row))
+            self._made["A"] = tuple(A)
+        return self._made["A"]
 
 
 @dataclass(frozen=True, slots=True)
@@ -112,8 +141,41 @@ def stiffness(member: Member, xs) -> tuple[Fraction, ...]:
 
 
 def load_solution(solution: Solution, load: Load) -> LoadSolution:
-    """One load alone on the member: its own elastic curve, for showing the superposition."""
-    return _solve_loads(solution.member, solution.xs, solution.EI, solution.primary, (load,))
+    """One load alone on the member: its own elastic curve, for showing the superposition.
+
+    Solved on the breakpoints this load needs (ends, supports, hinges, stretch ends and its own positions)
+    and carried over to the member's grid: every piece is a polynomial in global x, so the piece of a
+    shared segment is that of the wider segment holding it, the same exact curve. A case of n loads then
+    costs n solves on a few segments each instead of n solves on the whole grid."""
+    member, xs = solution.member, solution.xs
+    own = _own_breakpoints(member, load)
+    if len(own) == len(xs):
+        return _solve_loads(member, xs, solution.EI, solution.primary, (load,))
+    alone = _solve_loads(member, own, stiffness(member, own), solution.primary, (load,))
+    return LoadSolution(alone.loads, _on_grid(alone.primary, xs), alone.displacements, alone.redundants,
+                        _on_grid(alone.curves, xs))
+
+
+def _own_breakpoints(member: Member, load: Load) -> tuple[Fraction, ...]:
+    """The breakpoints of the member without its loads, plus those of this load (all on the shared grid)."""
+    xs = {Q(0), member.length}
+    xs.update(sp.x for sp in member.supports)
+    xs.update(h.x for h in member.hinges)
+    xs.update(st.x1 for st in member.stretches)
+    xs.update((load.x1, load.x2) if isinstance(load, LineLoad) else (load.x,))
+    return tuple(sorted(xs))
+
+
+def _on_grid(curves: Curves, xs) -> Curves:
+    """Curves on wider segments -> the same curves on the finer grid xs (which holds every wider breakpoint)."""
+    def finer(c: Piecewise) -> Piecewise:
+        pieces, j = [], 0
+        for a in xs[:-1]:
+            while c.xs[j + 1] <= a:
+                j += 1
+            pieces.append(c.pieces[j])
+        return Piecewise(tuple(xs), tuple(pieces))
+    return Curves(finer(curves.V), finer(curves.M), finer(curves.theta), finer(curves.v), curves.reactions)
 
 
 def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
@@ -176,16 +238,7 @@ def _primary(member: Member, xs, EI) -> Primary:
     columns = [equilibrium_column(sps, hinges, r) for r in kept]
     statics = _inverse([[col[i] for col in columns] for i in range(len(kept))])
     kinematics = _inverse([_condition(sps[r.support].x, r.kind, hinges) for r in kept])
-    skeleton = Primary(kind, kept, redundants, (), (), statics, kinematics)
-    units = tuple(_on_primary(member, xs, EI, skeleton, [_unit(member, r)]) for r in redundants)
-    A = []
-    for i, r in enumerate(redundants):
-        row = [_displacement(member, r, u) for u in units]
-        k = member.supports[r.support].stiffness
-        if r.kind == "force" and k:
-            row[i] += 1 / k
-        A.append(tuple(row))
-    return Primary(kind, kept, redundants, tuple(A), units, statics, kinematics)
+    return Primary(kind, kept, redundants, statics, kinematics, (member, xs, EI))
 
 
 def _condition(x, kind: str, hinges) -> list:
@@ -218,6 +271,8 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 
 
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
+    if len(primary.redundants) >= BANDED_FROM:
+        return _banded(member, xs, EI, primary, loads)
     base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
     moved = prescribed(member, loads)
@@ -236,6 +291,16 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
     total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions))
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
+
+
+def _banded(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
+    """The same exact solution from the banded stiffness form; the redundants are read off its reactions
+    and D0 off the primary beam under the loads (one integration), for the package's compatibility text."""
+    (V, M, theta, v), reactions = solve_banded(member, xs, EI, loads, prescribed(member, loads))
+    base = _on_primary(member, xs, EI, primary, list(loads))
+    D0 = tuple(_displacement(member, r, base) for r in primary.redundants)
+    X = tuple(reactions[r.support][0 if r.kind == "force" else 1] for r in primary.redundants)
+    return LoadSolution(tuple(loads), base, D0, X, Curves(V, M, theta, v, reactions))
 
 
 def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> Curves:

@@ -6,7 +6,7 @@ from beamlang.language import syntax as s
 from beamlang.language.build import FIELD_ORDER
 from beamlang.language.sections import SHAPE_DIMENSIONS
 
-MATERIAL_ORDER = ("E", "yield", "shear", "density")
+MATERIAL_ORDER = ("E", "yield", "allowable bending", "shear", "density")
 INDENT = "  "
 
 
@@ -57,13 +57,13 @@ def _group_key(st: s.Statement) -> str:
 
 _KEY = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
         s.Section: "section", s.Support: "support", s.Hinge: "hinge", s.Case: "case", s.Combine: "combine",
-        s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note",
+        s.Pattern: "pattern", s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note",
         s.Catalogue: "catalogue"}
 _GROUP_ORDER = ("title", "geometry", "support", "case", "rest", "note", "orphan")
 _MEMBERS = {
     "title": ("member",) + tuple("field:" + f for f in FIELD_ORDER),
     "geometry": ("units", "span", "material", "section", "catalogue"),
-    "support": ("support", "hinge"), "case": ("case",), "rest": ("combine", "limit", "slope", "check", "report"),
+    "support": ("support", "hinge"), "case": ("case",), "rest": ("pattern", "combine", "limit", "slope", "check", "report"),
     "note": ("note",), "orphan": ("orphan",),
 }
 
@@ -74,7 +74,7 @@ def statement_text(st: s.Statement) -> str:
 
 
 def _q(q: s.Quantity) -> str:
-    return f"{q.number} {q.unit}"
+    return str(q)
 
 
 def _quote(text: str) -> str:
@@ -94,7 +94,11 @@ def _support(st: s.Support) -> str:
 
 def _uniform(st: s.Uniform) -> str:
     where = f" from {st.start} to {st.end}" if st.start is not None else ""
-    return f"uniform {_q(st.intensity)} {st.direction.text}{where}"
+    return f"uniform {_q(st.intensity)}{_over(st.width)} {st.direction.text}{where}"
+
+
+def _over(width: s.Quantity | None) -> str:
+    return f" over {_q(width)}" if width is not None else ""
 
 
 def _limit(st: s.Limit) -> str:
@@ -131,7 +135,7 @@ _TEXT = {
     s.Case: lambda st: f"case {st.name.text}" + (f" {_quote(st.title)}" if st.title is not None else ""),
     s.Point: lambda st: f"point {_q(st.force)} {st.direction.text} at {st.at}",
     s.Uniform: _uniform,
-    s.Linear: lambda st: (f"linear {_q(st.start_intensity)} to {_q(st.end_intensity)} {st.direction.text} "
+    s.Linear: lambda st: (f"linear {_q(st.start_intensity)} to {_q(st.end_intensity)}{_over(st.width)} {st.direction.text} "
                           f"from {st.start} to {st.end}"),
     s.Moment: lambda st: f"moment {_q(st.moment)} {st.direction.text} at {st.at}",
     s.SelfWeight: lambda st: "self-weight",
@@ -140,6 +144,7 @@ _TEXT = {
                           + (f" spaced {' and '.join(_q(q) for q in st.spacings)}" if st.spacings else "")
                           + (f" from {st.start} to {st.end}" if st.start is not None else "")),
     s.Combine: _combine,
+    s.Pattern: lambda st: f"pattern {st.case.text}",
     s.Limit: _limit,
     s.SlopeLimit: _slope,
     s.StressCheck: lambda st: f"check stress {st.target.text}",

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import difflib
+import os
 from functools import lru_cache
 from pathlib import Path
 
@@ -10,8 +11,9 @@ from lark import Lark, Token, Transformer, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
 
 from beamlang.language import syntax as s
-from beamlang.errors import BeamError, Collector
-from beamlang.source import Source, Span
+from beamlang.errors import BeamError, Collector, Diagnostic
+from beamlang.language.characters import first_problem
+from beamlang.source import Source, Span, split_lines
 from beamlang.language.vocabulary import KEYWORDS, SHAPES, SUPPORT_KINDS
 
 TERMINAL_WORDS = {
@@ -48,6 +50,15 @@ MAX_LINE_LENGTH = 2_000
 
 def parse(source: Source) -> s.Document:
     """Parse a whole file; every bad line is reported, not only the first."""
+    doc, problems = parse_recovering(source)
+    if problems:
+        raise BeamError(problems, source)
+    return doc
+
+
+def parse_recovering(source: Source) -> tuple[s.Document, tuple[Diagnostic, ...]]:
+    """(the lines that parse, the problems of those that do not): one statement a line, so a bad line is left
+    out and parsing goes on at the next. A file over the size limits raises at once."""
     errors = Collector(source)
     size, count = len(source.text.encode("utf-8")), source.text.count("\n") + 1
     if size > MAX_BYTES or count > MAX_LINES:
@@ -55,7 +66,11 @@ def parse(source: Source) -> s.Document:
                      f"the limits are {MAX_BYTES} bytes and {MAX_LINES} lines")
         errors.raise_if_any()
     lines = []
-    for number, text in enumerate(source.text.splitlines(), start=1):
+    for number, text in enumerate(split_lines(source.text), start=1):
+        bad = first_problem(text)
+        if bad is not None:
+            errors.error(Span(source.name, number, bad.col, bad.col + bad.width), bad.message, bad.hint)
+            continue
         if len(text) > MAX_LINE_LENGTH:
             errors.error(Span(source.name, number, MAX_LINE_LENGTH + 1, len(text) + 1),
                          f"line too long ({len(text)} characters)", f"one fact per line, at most {MAX_LINE_LENGTH} characters")
@@ -63,8 +78,7 @@ def parse(source: Source) -> s.Document:
         line = _parse_line(source, number, text, errors)
         if line is not None:
             lines.append(line)
-    errors.raise_if_any()
-    return s.Document(source, tuple(lines))
+    return s.Document(source, tuple(lines)), tuple(errors.items)
 
 
 def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.Line | None:
@@ -98,6 +112,9 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     if word.startswith("-") and "NUMBER" in expected | {"NUMBER"} and word[1:2].isdigit():
         return span, "numbers are written without a sign", ("lengths, sizes and positions are positive; loads take a "
                                                              "direction word: `down`/`up`, `clockwise`/`counterclockwise`")
+    joined = _moving_without_and(text, col, word, expected)
+    if joined is not None:
+        return span, *joined
     if "FORCE_DIR" in expected:
         keyword = text.split()[0] if text.split() else ""
         example = _DIRECTION_EXAMPLES.get(keyword, _DIRECTION_EXAMPLES["point"])
@@ -127,6 +144,15 @@ def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tu
     shown = f"'{word}'" if word else "end of line"
     misspelt = _misspelt_keyword(text[: col - 1], expected)
     return span, f"unexpected {shown}", misspelt or _expected(expected)
+
+
+def _moving_without_and(text: str, col: int, word: str, expected: set[str]) -> tuple[str, str] | None:
+    """`moving 20 kN 20 kN ...`: a second force (or spacing) of a moving group written without `and`."""
+    if text.split()[:1] != ["moving"] or not word[:1].isdigit() or "AND" not in expected:
+        return None
+    what = "spacings" if "spaced" in text[: col - 1].split() else "forces"
+    fixed = text[: col - 1].rstrip() + " and " + text[col - 1:]
+    return f"the {what} of a moving group are joined by `and`", f"write `{fixed.strip()}`"
 
 
 def _misspelt_keyword(before: str, expected: set[str]) -> str | None:
@@ -199,9 +225,10 @@ def _expected(expected: set[str]) -> str | None:
 
 
 def _unquote(text: str) -> str:
+    """Quoted text -> its characters: `\\"` is a quote, `\\\\` a backslash (`characters` refuses other escapes)."""
     body, out, i = text[1:-1], [], 0
     while i < len(body):
-        if body[i] == "\\" and i + 1 < len(body):
+        if body[i] == "\\" and i + 1 < len(body) and body[i + 1] in ('"', "\\"):
             i += 1
         out.append(body[i])
         i += 1
@@ -237,8 +264,9 @@ class _Build(Transformer):
         comment = next((str(i) for i in items if isinstance(i, Token) and i.type == "COMMENT"), None)
         return statement, comment
 
-    def quantity(self, number: Token, unit: Token) -> s.Quantity:
-        return s.Quantity(str(number), str(unit), self._span(number, unit), self._span(unit))
+    def quantity(self, number: Token, unit: Token, *more: Token) -> s.Quantity:
+        parts = tuple(s.Quantity(str(n), str(u), self._span(n, u), self._span(u)) for n, u in zip(more[::2], more[1::2]))
+        return s.Quantity(str(number), str(unit), self._span(number, more[-1] if more else unit), self._span(unit), parts)
 
     def at_length(self, q: s.Quantity) -> s.Position:
         return s.Position("length", q, None, q.span)
@@ -264,6 +292,12 @@ class _Build(Transformer):
     def property(self, name: Token, value: s.Quantity, second: s.Quantity | None = None) -> s.Property:
         end = second.span if second else value.span
         return s.Property(self._name(name), value, second, self._span(name, end))
+
+    def allowable_property(self, name: Token, value: s.Quantity) -> s.Property:
+        """`allowable bending 1.2 ksi`: one property named by both words."""
+        start = self._find("allowable", before=name.column)
+        return s.Property(s.Name(f"allowable {name}", self._span(start, name)), value, None,
+                          self._span(start, value.span))
 
     def member(self, mark: Token, title: Token) -> s.Member:
         return s.Member(self._name(mark), _unquote(str(title)), self._stmt_span())
@@ -306,13 +340,22 @@ class _Build(Transformer):
     def point(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Point:
         return s.Point(q, self._name(direction), at, self._stmt_span())
 
-    def uniform(self, q: s.Quantity, direction: Token, start: s.Position | None = None,
-                end: s.Position | None = None) -> s.Uniform:
-        return s.Uniform(q, self._name(direction), start, end, self._stmt_span())
+    def uniform(self, q: s.Quantity, *rest) -> s.Uniform:
+        width = rest[0][1] if rest and isinstance(rest[0], tuple) else None
+        direction, *where = rest[1:] if width is not None else rest
+        start, end = where if where else (None, None)
+        return s.Uniform(q, self._name(direction), start, end, self._stmt_span(), width)
 
-    def linear(self, q1: s.Quantity, q2: s.Quantity, direction: Token, start: s.Position,
-               end: s.Position) -> s.Linear:
-        return s.Linear(q1, q2, self._name(direction), start, end, self._stmt_span())
+    def linear(self, q1: s.Quantity, q2: s.Quantity, *rest) -> s.Linear:
+        width = rest[0][1] if isinstance(rest[0], tuple) else None
+        direction, start, end = rest[1:] if width is not None else rest
+        return s.Linear(q1, q2, self._name(direction), start, end, self._stmt_span(), width)
+
+    def tributary(self, width: s.Quantity) -> tuple[str, s.Quantity]:
+        return "over", width
+
+    def pattern(self, case: Token) -> s.Pattern:
+        return s.Pattern(self._name(case), self._stmt_span())
 
     def moment(self, q: s.Quantity, direction: Token, at: s.Position) -> s.Moment:
         return s.Moment(q, self._name(direction), at, self._stmt_span())
@@ -373,13 +416,18 @@ def read_source(path: str | Path, shown_as: str | None = None) -> Source:
     """Read a file as UTF-8 text; a missing or undecodable file is a user error."""
     name = shown_as or str(path)
     try:
-        data = Path(path).read_bytes()
+        data = _read_limited(Path(path))
     except FileNotFoundError:
         raise BeamError([_file_diag(name, "no such file")]) from None
     except IsADirectoryError:
         raise BeamError([_file_diag(name, "is a folder, not a .beam file")]) from None
+    except _NotRegular as exc:
+        raise BeamError([_file_diag(name, f"is not a regular file ({exc}); a member is a .beam file")]) from None
     except OSError as exc:
         raise BeamError([_file_diag(name, f"cannot read file ({exc.strerror})")]) from None
+    if len(data) > MAX_BYTES:
+        raise BeamError([_diag(Span(name, 1, 1, 2), f"file too large for a member (more than {MAX_BYTES} bytes)",
+                               f"the limits are {MAX_BYTES} bytes and {MAX_LINES} lines")]) from None
     try:
         text = data.decode("utf-8")
     except UnicodeDecodeError as exc:
@@ -388,6 +436,26 @@ def read_source(path: str | Path, shown_as: str | None = None) -> Source:
         raise BeamError([_diag(Span(name, line, col, col + 1), "file is not UTF-8 text",
                                "save the file as UTF-8")]) from None
     return Source(name, text.removeprefix("\ufeff"))
+
+
+class _NotRegular(OSError):
+    pass
+
+
+def _read_limited(path: Path) -> bytes:
+    """At most MAX_BYTES + 1 bytes of a regular file; a device, pipe or socket is refused before it is opened
+    (a pipe with no writer would wait for ever, /dev/zero never ends)."""
+    import stat
+    kind = path.stat().st_mode
+    if stat.S_ISDIR(kind):
+        raise IsADirectoryError(str(path))
+    if not stat.S_ISREG(kind):
+        raise _NotRegular("a pipe" if stat.S_ISFIFO(kind) else "a socket" if stat.S_ISSOCK(kind) else "a device")
+    fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
+    with os.fdopen(fd, "rb") as handle:
+        if not stat.S_ISREG(os.fstat(handle.fileno()).st_mode):  # replaced between the two looks
+            raise _NotRegular("not a file")
+        return handle.read(MAX_BYTES + 1)
 
 
 def _file_diag(name: str, message: str):

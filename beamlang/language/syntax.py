@@ -15,15 +15,17 @@ class Name:
 
 @dataclass(frozen=True, slots=True)
 class Quantity:
-    """A number and its unit exactly as the author wrote them."""
+    """A number and its unit exactly as the author wrote them; a length may go on in parts (`22 ft 6 in`),
+    each a quantity of its own in `parts`."""
 
     number: str
     unit: str
     span: Span
     unit_span: Span
+    parts: tuple["Quantity", ...] = ()  # the further parts of a length written in parts, in order
 
     def __str__(self) -> str:
-        return f"{self.number} {self.unit}"
+        return " ".join([f"{self.number} {self.unit}", *(str(p) for p in self.parts)])
 
 
 @dataclass(frozen=True, slots=True)
@@ -145,6 +147,7 @@ class Uniform:
     start: Position | None
     end: Position | None
     span: Span
+    width: Quantity | None = None  # `over 16 in`: the intensity is a pressure gathered from this width
 
 
 @dataclass(frozen=True, slots=True)
@@ -155,6 +158,7 @@ class Linear:
     start: Position
     end: Position
     span: Span
+    width: Quantity | None = None  # `over 16 in`: the intensities are pressures gathered from this width
 
 
 @dataclass(frozen=True, slots=True)
@@ -207,6 +211,14 @@ class Combine:
 
 
 @dataclass(frozen=True, slots=True)
+class Pattern:
+    """`pattern CASE`: the case's loads are applied span by span in the worst arrangement for each effect."""
+
+    case: Name
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class Limit:
     target: Name
     divisor: str | None  # span/N
@@ -251,7 +263,7 @@ class Note:
 
 Statement = (
     Member | Field | Units | SpanLength | Material | Section | Support | Hinge | Case | Point | Uniform
-    | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Limit | SlopeLimit | StressCheck | Report
+    | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Pattern | Limit | SlopeLimit | StressCheck | Report
     | Note | Catalogue
 )
 LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement, Moving)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import difflib
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from fractions import Fraction
 from functools import lru_cache
 
@@ -58,9 +58,95 @@ class UnitProblem(Exception):
 
 @lru_cache(maxsize=1)
 def registry():
-    """The one pint registry of the process, with exact Fraction arithmetic."""
+    """The one pint registry of the process, with exact Fraction arithmetic (see `make_registry`)."""
+    return make_registry()
+
+
+def make_registry():
+    """A pint registry, read from this install's own cache when it can be (it takes about 1.2 s to build
+    from pint's definition files, 0.2 s from the cache).
+
+    The cache folder belongs to one install and version of beamlang and pint (`cache_folder`), is filled in
+    a hidden folder and renamed into place whole, and is only ever an accelerator: whatever goes wrong with
+    it (cut short by a kill, left by a removed install, a file in its place, no permission) the registry is
+    built without it."""
     import pint
-    return pint.UnitRegistry(non_int_type=Fraction, cache_folder=":auto:")
+    folder = cache_folder()
+    if folder is not None:
+        try:
+            return _checked(_from_cache(folder))
+        except Exception:  # noqa: BLE001 (any failure of the cache means: do without it)
+            _discard(folder)
+    return pint.UnitRegistry(non_int_type=Fraction, cache_folder=None)
+
+
+def cache_folder():
+    """`<user cache>/beamlang/units-<beamlang>-<pint>-<install digest>`, or None when BEAMLANG_CACHE is `off`.
+
+    BEAMLANG_CACHE names another parent folder; by default the platform's user cache folder."""
+    import hashlib
+    import os
+    import sys
+    from pathlib import Path
+
+    import pint
+
+    from beamlang import __version__
+    chosen = os.environ.get("BEAMLANG_CACHE", "")
+    if chosen.lower() == "off":
+        return None
+    if chosen:
+        root = Path(chosen)
+    elif sys.platform == "win32":
+        root = Path(os.environ.get("LOCALAPPDATA") or Path.home() / "AppData" / "Local") / "beamlang"
+    elif sys.platform == "darwin":
+        root = Path.home() / "Library" / "Caches" / "beamlang"
+    else:
+        root = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache") / "beamlang"
+    install = "\n".join((os.path.realpath(pint.__file__), os.path.realpath(__file__), sys.version))
+    digest = hashlib.sha256(install.encode("utf-8")).hexdigest()[:16]
+    return root / f"units-{__version__}-pint-{pint.__version__}-{digest}"
+
+
+def _from_cache(folder):
+    """The registry read from the cache folder; a missing folder is filled first in a hidden folder beside it
+    and renamed into place in one step (so it is whole or absent, never cut short)."""
+    import os
+    import shutil
+    import tempfile
+
+    import pint
+    if folder.is_dir():
+        return pint.UnitRegistry(non_int_type=Fraction, cache_folder=folder)
+    folder.parent.mkdir(parents=True, exist_ok=True)
+    staging = tempfile.mkdtemp(prefix=f".{folder.name}.", dir=folder.parent)
+    try:
+        ureg = _checked(pint.UnitRegistry(non_int_type=Fraction, cache_folder=staging))
+        try:
+            os.rename(staging, folder)
+        except OSError:  # another process was first: its folder is as good
+            pass
+    finally:
+        shutil.rmtree(staging, ignore_errors=True)
+    return ureg
+
+
+def _checked(ureg):
+    """A registry that converts a kilonewton metre exactly, or an error (a damaged cache can load half)."""
+    if ureg.Quantity(Fraction(1), "kN*m").to("N*m").magnitude != 1000:
+        raise ValueError("the unit registry does not convert kN*m")
+    return ureg
+
+
+def _discard(folder) -> None:
+    import shutil
+    try:
+        if folder.is_symlink() or folder.is_file():
+            folder.unlink()
+        else:
+            shutil.rmtree(folder)
+    except OSError:
+        pass
 
 
 @lru_cache(maxsize=1)
@@ -97,7 +183,10 @@ def _si_unit(kind: str | None) -> str:
 
 
 def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fraction:
-    """Convert a written quantity to exact SI, checking that it is the expected kind."""
+    """Convert a written quantity to exact SI, checking that it is the expected kind; a length written in
+    parts (`22 ft 6 in`) is the exact sum of its parts."""
+    if q.parts:
+        return _in_parts(q, kind, what)
     f = factor_of(q.unit)
     if f is None:
         close = difflib.get_close_matches(q.unit, COMMON_UNITS, n=1, cutoff=0.5)
@@ -105,16 +194,47 @@ def to_si(q: Quantity, kind: str, what: str, hint: str | None = None) -> Fractio
         raise UnitProblem(Diagnostic(q.unit_span, f"unknown unit '{q.unit}'", extra))
     if f.kind != kind:
         got = _article(f.kind) if f.kind else "not a unit this language uses"
+        if POUND_MASS.search(q.unit) and kind != "density":
+            got = "in lb, the pound of mass (this language uses it for densities, e.g. \"35 lb/ft^3\")"
         label = {"moment": "a force times a length", "section modulus": "a length cubed"}.get(kind) or _article(kind)
         message = f"{what} must be {label} (e.g. \"10 {EXAMPLE_UNIT[kind]}\"); got \"{q}\", which is {got}"
         if POUND_MASS.search(q.unit) and kind != "density":
-            hint = "lb is a pound of mass; a pound-force is lbf (lbf/ft, or plf, for a line load)"
+            hint = f"a pound-force is lbf: write \"{q.number} {POUND_MASS.sub('lbf', q.unit)}\""
         raise UnitProblem(Diagnostic(q.span, message, hint))
     value = exact_number(q.number, q.span) * f.factor
     if not in_range(value):
         raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(value)} {f.si_unit}, surely a typo",
                                      f"values {ACCEPTED} {f.si_unit} are accepted"))
     return value
+
+
+def in_parts(q: Quantity) -> bool:
+    """True when a quantity written in parts goes from larger units to smaller, each part less than one of the
+    unit before it (`22 ft 6 in`, `2 m 250 mm`): a length in parts, not two quantities side by side."""
+    units = [factor_of(part.unit) for part in (q, *q.parts)]
+    if any(f is None or f.kind != "length" for f in units):
+        return False
+    try:
+        values = [exact_number(part.number, part.span) * f.factor for part, f in zip(q.parts, units[1:])]
+    except UnitProblem:
+        return False
+    return all(big.factor > small.factor and v < big.factor for big, small, v in zip(units, units[1:], values))
+
+
+def _in_parts(q: Quantity, kind: str, what: str) -> Fraction:
+    if kind != "length":
+        raise UnitProblem(Diagnostic(q.parts[0].span, f"only a length may be written in parts; {what} takes one "
+                                     "number and one unit", f"write it as one quantity, e.g. \"10 {EXAMPLE_UNIT[kind]}\""))
+    first = Quantity(q.number, q.unit, replace(q.span, end_col=q.unit_span.end_col), q.unit_span)
+    total = sum((to_si(part, "length", what) for part in (first, *q.parts)), Q(0))
+    if not in_parts(q):
+        raise UnitProblem(Diagnostic(q.span, f"{what} of {q}: a length in parts goes from the larger unit to the "
+                                     "smaller, each part less than one of the unit before it",
+                                     "write e.g. `22 ft 6 in` or `2 m 250 mm`, or one number and one unit"))
+    if not in_range(total):
+        raise UnitProblem(Diagnostic(q.span, f"{what} of {q} is {_magnitude(total)} m, surely a typo",
+                                     f"values {ACCEPTED} m are accepted"))
+    return total
 
 
 LOWEST, HIGHEST = Fraction(1, 10**12), Fraction(10**12)  # in SI base units: anything outside is a typo

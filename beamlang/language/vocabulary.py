@@ -7,16 +7,17 @@ from __future__ import annotations
 
 FIELDS = ("project", "job", "by", "checked", "date", "revision")
 KEYWORDS = ("member", *FIELDS, "units", "span", "material", "section", "support", "hinge", "case", "point",
-            "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "limit", "check",
+            "uniform", "linear", "moment", "self-weight", "settlement", "moving", "combine", "pattern", "limit", "check",
             "report", "note", "catalogue")
 SHAPES = ("properties", "rectangle", "round", "tube", "box", "I-shape")
 SUPPORT_KINDS = ("fixed", "pin", "roller", "spring")
 FORCE_DIRECTIONS = ("down", "up")
 TURN_DIRECTIONS = ("clockwise", "counterclockwise")
 SYSTEMS = ("si", "us")
-CONNECTIVES = ("at", "from", "to", "and", "spaced", "deflection", "slope", "supports", "stress", "x", "span")
+CONNECTIVES = ("at", "from", "to", "and", "spaced", "over", "deflection", "slope", "supports", "stress", "x", "span",
+               "allowable")
 LOADS = ("point", "uniform", "linear", "moment", "self-weight", "settlement", "moving")
-TARGETED = ("combine", "limit", "check")  # statements that name cases or combinations
+TARGETED = ("combine", "pattern", "limit", "check")  # statements that name cases or combinations
 
 # keyword -> (the statement's form, what it means): the editor server's hover and completion text
 FORMS: dict[str, tuple[str, str]] = {
@@ -24,8 +25,10 @@ FORMS: dict[str, tuple[str, str]] = {
     **{f: (f'{f} "text"', "a title-block field, taken from the file, never from the clock") for f in FIELDS},
     "units": ("units si | units us", "the report units; default from the unit of the span"),
     "span": ("span LENGTH", "the total length of the member"),
-    "material": ("material [NAME] E STRESS [yield STRESS] [shear STRESS] [density DENSITY] [from POS to POS]",
-                 "elastic modulus (required); yield and shear strength and density (optional)"),
+    "material": ("material [NAME] E STRESS [yield STRESS | allowable bending STRESS] [shear STRESS] "
+                 "[density DENSITY] [from POS to POS]",
+                 "elastic modulus (required); a metal's yield strength, or the allowable (design) bending stress "
+                 "of timber or aluminium with its allowable shear; shear strength and density (optional)"),
     "section": ('section ["designation"] SHAPE DIMENSIONS [from POS to POS]',
                 "the cross-section: properties, rectangle, round, tube, box or I-shape"),
     "support": ("support fixed|pin|roller at POS  or  support spring STIFFNESS at POS",
@@ -33,14 +36,19 @@ FORMS: dict[str, tuple[str, str]] = {
     "hinge": ("hinge at POS", "an internal moment release: zero moment there, the slope may jump"),
     "case": ('case NAME ["title"]', "a load case; its loads follow on the indented lines below"),
     "point": ("point FORCE down|up at POS", "a concentrated force"),
-    "uniform": ("uniform W down|up [from POS to POS]", "a uniform line load, the whole member unless a range is given"),
-    "linear": ("linear W1 to W2 down|up from POS to POS", "a linearly varying line load"),
+    "uniform": ("uniform W [over WIDTH] down|up [from POS to POS]",
+                "a uniform line load, the whole member unless a range is given; with `over`, W is a pressure "
+                "gathered from the tributary width WIDTH"),
+    "linear": ("linear W1 to W2 [over WIDTH] down|up from POS to POS",
+               "a linearly varying line load; with `over`, pressures gathered from the tributary width WIDTH"),
     "moment": ("moment M clockwise|counterclockwise at POS", "a concentrated moment"),
     "self-weight": ("self-weight", "density x area x standard gravity (9.80665 m/s^2), down"),
     "settlement": ("settlement D down|up at POS", "a prescribed movement of the support at POS in this case"),
     "moving": ("moving F [and F ...] down|up [spaced S [and S ...]] [from POS to POS]",
                "a group of forces at fixed spacings travelling along the member"),
     "combine": ("combine NAME = [F] CASE + [F] CASE ...", "a factored sum of cases"),
+    "pattern": ("pattern CASE", "pattern loading: the case applied span by span (each span and overhang loaded "
+                "or not) in the worst arrangement for each effect"),
     "limit": ("limit deflection TARGET span/N | LENGTH  or  limit slope [TARGET] at supports ANGLE",
               "a deflection limit on a case or combination, or a slope limit at the bearings"),
     "check": ("check stress TARGET", "the elastic bending and shear stress check of a case or combination"),

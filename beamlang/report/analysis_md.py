@@ -7,9 +7,11 @@ from beamlang.analysis.display import (CHECK_QUANTITY, at, check_name, convert, 
 from beamlang.language import syntax
 from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
+from beamlang.report.checks_md import stress_units
 from beamlang.report.moving_md import moving_section
+from beamlang.report.pattern_md import pattern_section
 from beamlang.report.superposition_md import compatibility, each_load, loads_table, superposed, x_range
-from beamlang.report.tex import cell, md, num, plain, poly
+from beamlang.report.tex import cell, md, num, plain, poly, quantity
 
 
 def summary(a: Analysis) -> list[str]:
@@ -62,14 +64,21 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         lines += loads_table(a, t) + each_load(a, t) + compatibility(a, t)
     else:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
-        lines += [f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
-                  "(exact, by linearity).", ""]
+        lines += ([f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "
+                   "(exact, by linearity).", ""] if r.pattern is None else
+                  [f"{md(name)} = {terms}, with {', '.join(md(c) for c in r.pattern.cases)} patterned: the other "
+                   "cases, factored, are on every span; each patterned case enters, factored, through the "
+                   "envelope of its arrangements below.", ""])
     if r.envelope is not None:
         lines += moving_section(a, t, r) + [
             f"![{md(name)}: influence lines at the governing points and envelopes of M and v]({moving_figure})", ""]
         if figure is None:  # the moving group alone: no static curves to draw
             return lines
         return lines + [f"![{md(name)}: the static loads alone, V, M, slope and deflection]({figure})", ""]
+    if r.pattern is not None:  # the envelope over every arrangement replaces the one curve and its searches
+        lines += pattern_section(a, r) + _reactions(a, r)
+        return lines + _points(a, r) + [
+            f"![{md(name)}: loads and reactions, envelopes of V, M, slope and deflection with its limits]({figure})", ""]
     lines += superposed(a, t) + _hinges(a, t) + _reactions(a, r) + _moment_search(a, r)
     lines += _deflection_search(a, t, r)
     lines += _points(a, r) + [f"![{md(name)}: loads and reactions, V, M, slope and deflection with its limits]({figure})", ""]
@@ -242,18 +251,25 @@ def required(a: Analysis) -> list[str]:
                         "No deflection limit or stress check asks for one.", ""]
     lines += ["With the loads fixed, every deflection of this member is proportional to 1/I and the moments do "
               "not depend on I, so the least second moment of area meeting every deflection limit, and the least "
-              "elastic section modulus keeping the bending stress within yield, follow exactly from the ratios:", ""]
+              "elastic section modulus keeping the bending stress within its limit, follow exactly from the ratios:", ""]
     if req.I is not None:
-        c = req.I_check
-        lines += [f"$$I_{{req}} = I \\cdot \\frac{{\\delta}}{{\\delta_{{allow}}}} = {num(convert(m.section.I, small + '^4'))} "
-                  f"\\times {num(c.ratio, 6)} = {num(convert(req.I, small + '^4'))}$$", "",
-                  f"in {small}^4, governed by the deflection check on {md(c.target)} (input line {c.span.line}).", ""]
+        c, i4 = req.I_check, small + "^4"
+        lines += [f"$$I_{{req}} = I \\cdot \\frac{{\\delta}}{{\\delta_{{allow}}}} = {quantity(convert(m.section.I, i4), i4)} "
+                  f"\\times {num(c.ratio, 6)} = {quantity(convert(req.I, i4), i4)}$$", "",
+                  f"governed by the deflection check on {md(c.target)} (input line {c.span.line}).", ""]
     if req.S is not None:
-        c = req.S_check
+        c, s3 = req.S_check, small + "^3"
         S = m.section.S if m.section.S is not None else m.section.I / m.section.c
-        lines += [f"$$S_{{req}} = \\frac{{M_{{max}}}}{{f_y}} = S \\cdot \\frac{{\\sigma}}{{f_y}} = "
-                  f"{num(convert(S, small + '^3'))} \\times {num(c.ratio, 6)} = {num(convert(req.S, small + '^3'))}$$", "",
-                  f"in {small}^3, governed by the bending stress on {md(c.target)} (input line {c.span.line}).", ""]
+        allowed = "F_b" if c.strength == "allowable" else "f_y"
+        w = stress_units(a.units)
+        big_m = abs(c.at.value) if c.at is not None else c.actual * S
+        lines += [f"$$S_{{req}} = \\frac{{|M|_{{max}}}}{{{allowed}}} = \\frac{{{quantity(convert(big_m, w['moment']), w['moment'])}}}"
+                  f"{{{quantity(convert(c.allowed, w['stress']), w['stress'])}}} = {quantity(convert(req.S, s3), s3)}$$", "",
+                  f"$$S_{{req}} = S \\cdot \\frac{{\\sigma}}{{{allowed}}} = "
+                  f"{quantity(convert(S, s3), s3)} \\times {num(c.ratio, 6)} = {quantity(convert(req.S, s3), s3)}$$", "",
+                  f"governed by the bending stress on {md(c.target)} (input line {c.span.line}); "
+                  + ("F_b is the allowable bending stress given with the material." if c.strength == "allowable"
+                     else "f_y is the yield strength of the material."), ""]
     note = req.note.split("; ", 1)
     return lines + ([f"Note: {note[1]}.", ""] if len(note) > 1 else [])
 

@@ -37,7 +37,9 @@ def checks_detail(a: Analysis) -> list[str]:
         if st.bending is None:
             continue
         shear = show(st.shear, u, "stress") if st.shear is not None else "not computed (section given by properties)"
-        state = {True: "elastic", False: "NOT elastic: superposition is not valid", None: "no yield strength given"}[st.elastic]
+        state = {True: "within the allowable stresses: elastic" if st.allowable else "elastic", False: "NOT elastic: superposition is not valid",
+                 None: "above the allowable stresses, and no yield strength is given to say whether it stays elastic"
+                 if st.allowable else "no yield strength given"}[st.elastic]
         lines.append(f"- {md(r.name)}: bending stress {show(st.bending, u, 'stress')}, shear stress {shear}: {state}.")
     return lines + [""]
 
@@ -61,8 +63,12 @@ def basis(a: Analysis, c: Check) -> str:
         return f"slope at {support_at(m, c.x, u)}, limit given by the user"
     mat = m.stretches[c.stretch].material if c.stretch is not None else m.stretches[0].material
     where = f" (material line {mat.span.line})"
+    if c.kind == "bending stress" and c.strength == "allowable":
+        return "sigma = M c / I against the allowable bending stress Fb given with the material" + where
     if c.kind == "bending stress":
         return "sigma = M c / I against the yield strength fy" + where
+    if c.strength == "shear" and mat.allowable_bending is not None:
+        return "tau = V Q / (I t) against the allowable shear stress Fv given with the material" + where
     if c.strength == "shear":
         return "tau = V Q / (I t) against the shear strength fv given with the material" + where
     return "tau = V Q / (I t) against fy/sqrt(3) (von Mises)" + where
@@ -96,6 +102,12 @@ def _deflection(a: Analysis, c: Check) -> list[str]:
     u, m = a.units, a.loaded.member
     d, L = u["deflection"], u["length"]
     moving = " over every position of the moving group" if m.moving(c.target) else ""
+    pattern = a.result(c.target).pattern
+    if pattern is not None:  # the envelope over every arrangement, and the one that gives this deflection
+        up = c.at is not None and c.at.value > 0
+        how = pattern.arrangement(f"largest deflection in {c.place}" if c.place else
+                                  f"largest deflection {'up' if up else 'down'}")
+        moving = " over every arrangement of the patterned loads" + (f" ({md(how)})" if how else "")
     where = f"at x = {show(c.x, u, 'length')}" if c.x is not None else "(no deflection)"
     if not c.place:
         return [f"The allowed deflection is the value given on the limit line: $\\delta_{{allow}} = "
@@ -142,6 +154,13 @@ def _governing(a: Analysis, c: Check, what: str) -> str:
     q = "moment" if what == "moment" else "force"
     if c.at is None:
         return f"no {what} in {md(c.target)}"
+    pattern = a.result(c.target).pattern
+    if pattern is not None:  # the envelope over every arrangement, and the one that gives this value
+        extreme = ("largest shear" if what != "moment" else
+                   "largest sagging moment" if c.at.value > 0 else "largest hogging moment")
+        how = next((h for e, h, x, v, _ in pattern.arrangements if e == extreme and x == c.at.x and v == c.at.value),
+                   None)
+        moving = ", over every arrangement of the patterned loads" + (f" ({md(how)})" if how else "")
     sign = ""
     if what == "moment":
         sign = " (sagging)" if c.at.value > 0 else " (hogging)"
@@ -184,6 +203,10 @@ def _bending(a: Analysis, c: Check) -> list[str]:
                   f"$$\\sigma = \\frac{{M}}{{S}} = \\frac{{{quantity(convert(big_m, mo), mo)}}}"
                   f"{{{quantity(convert(sec.S, s + '^3'), s + '^3')}}} = {quantity(convert(c.actual, f), f)}$$", ""]
     name = md(mat.name or "the material")
+    if c.strength == "allowable":
+        return lines + [f"The allowable bending stress Fb is the value given with {name} (material line "
+                        f"{mat.span.line}), used as written: no adjustment factor is applied to it here:", "",
+                        f"$$\\sigma_{{allow}} = F_b = {quantity(convert(c.allowed, f), f)}$$", ""]
     lines += [f"The allowed bending stress is the yield strength fy of {name} (material line {mat.span.line}):", "",
               f"$$\\sigma_{{allow}} = f_y = {quantity(convert(c.allowed, f), f)}$$", ""]
     return lines
@@ -204,6 +227,10 @@ def _shear(a: Analysis, c: Check) -> list[str]:
              f"{quantity(convert(sec.Q, s + '^3'), s + '^3')}}}{{{quantity(convert(sec.I, s + '^4'), s + '^4')} "
              f"\\times {quantity(convert(sec.t, s), s)}}} = {quantity(convert(c.actual, f), f)}$$", ""]
     name = md(mat.name or "the material")
+    if c.strength == "shear" and mat.allowable_bending is not None:
+        return lines + [f"The allowable shear stress Fv is the value given with {name} (material line "
+                        f"{mat.span.line}), used as written: no adjustment factor is applied to it here:", "",
+                        f"$$\\tau_{{allow}} = F_v = {quantity(convert(c.allowed, f), f)}$$", ""]
     if c.strength == "shear":
         return lines + [f"The allowed shear stress is the shear strength fv given with {name} (material line "
                         f"{mat.span.line}):", "", f"$$\\tau_{{allow}} = f_v = {quantity(convert(c.allowed, f), f)}$$", ""]

@@ -19,9 +19,11 @@ from beamlang.report.drawing import (
     mark_extreme,
     sample,
 )
+from beamlang.report.load_labels import LoadLabels
 from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
 
+PATTERNED = {"force": "V", "moment": "M", "slope": "theta", "deflection": "v"}  # figure quantity -> envelope curve
 POINTS_PER_LEVEL = 30.0  # height of one unit of the loads panel (a level is 0.9): labels keep their room
 
 
@@ -42,13 +44,15 @@ def target_figure(a: Analysis, name: str) -> str:
         curves = [(curve, quantity, label, None) for curve, quantity, label, _ in curves]
     for curve, quantity, label, marks in curves:
         ax = fig.panel(100.0, LABEL_ROOM)
-        xs, ys = sample(curve, u[quantity])
-        px = [float(convert(x, u["length"])) for x in xs]
-        ax.band(px, ys, 0, CURVE, 0.12)
-        ax.line(px, ys, color=CURVE, width=1.2)
+        drawn = [curve] if r.pattern is None else [r.pattern.curve(PATTERNED[quantity], s) for s in (1, -1)]
+        for each in drawn:  # a patterned target: its upper and lower envelope over every arrangement
+            xs, ys = sample(each, u[quantity])
+            px = [float(convert(x, u["length"])) for x in xs]
+            ax.band(px, ys, 0, CURVE, 0.12)
+            ax.line(px, ys, color=CURVE, width=1.2)
         ax.hline(0, width=0.6)
         mark_changes_and_hinges(ax, m, u)
-        ax.ylabel = f"{label} ({u[quantity]})"
+        ax.ylabel = f"{label} ({u[quantity]})" + (" envelope" if r.pattern is not None else "")
         if quantity == "deflection" and r.envelope is None:
             limit_lines(ax, m, r, u)
         for loc in marks or []:
@@ -70,35 +74,35 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     for sp in m.supports:
         _support(ax, float(convert(sp.x, u["length"])), sp.kind, L)
     factors = {case: f for f, case in _terms(a, name)}
+    style = LoadLabels(a, factors, u)
     levels = {1: 0, -1: 0}  # line loads drawn so far above the member (downward loads) and below it (upward)
-    drawn = []
-    marks = tuple(float(convert(ld.x, u["length"])) for case in m.cases if case.name in factors
-                  for ld in case.loads if isinstance(ld, (PointLoad, MomentLoad)))
-    for case in m.cases:
-        if case.name not in factors:
-            continue
-        pieces: dict[int, list] = {}  # line loads of one statement (self-weight per stretch): one level, one label
-        for load in case.loads:
-            if isinstance(load, LineLoad):
-                pieces.setdefault(load.span.line, []).append(load)
-        for load in case.loads:
-            if isinstance(load, LineLoad) and len(pieces[load.span.line]) > 1:
-                group = pieces[load.span.line]
-                if load is group[0]:
-                    _pieces(ax, group, factors[case.name], u, levels, L, marks)
-                continue
-            _load(ax, load, factors[case.name], u, levels, L, marks=marks)
-            drawn.append(load)
+    loads = [(case.name, ld) for case in m.cases if case.name in factors for ld in case.loads]
+    marks = tuple(float(convert(ld.x, u["length"])) for _, ld in loads if isinstance(ld, (PointLoad, MomentLoad)))
+    pieces: dict[int, list] = {}  # line loads of one statement (self-weight per stretch): one level, one label
+    for _, load in loads:
+        if isinstance(load, LineLoad):
+            pieces.setdefault(load.span.line, []).append(load)
+    for case, load in loads:  # line loads first: the point loads' arrows start above all of them
+        if isinstance(load, LineLoad) and len(pieces[load.span.line]) > 1:
+            if load is pieces[load.span.line][0]:
+                _pieces(ax, pieces[load.span.line], factors[case], u, levels, L, marks, style.text(case, load))
+        elif isinstance(load, LineLoad):
+            _load(ax, load, factors[case], u, levels, L, marks=marks, text=style.text(case, load))
+    top = max(1.1, _base(1, levels[1]) + 0.1)  # where the downward point loads' arrows start
+    points = [(c, ld) for c, ld in loads if isinstance(ld, (PointLoad, MomentLoad, Settlement))]
+    stack = _point_stacks(ax, points, style, u, L, top)
+    drawn = [ld for _, ld in loads if not (isinstance(ld, LineLoad) and len(pieces[ld.span.line]) > 1)]
     low = _lowest(drawn, levels)
     r = a.result(name)
     if r.envelope is None:  # a moving group's reactions depend on where it stands: see its table
         _reactions(ax, m, r, u, L, low)
         low += 0.55
-    ax.ylim = (min(-1.7, -(low + 0.2)), max(1.6, 1.0 + 0.9 * levels[1]))
+    ax.ylim = (min(-1.7, -(low + 0.2)), max(1.6, 1.0 + 0.9 * levels[1], stack + 0.15))
     ax.height = max(100.0, POINTS_PER_LEVEL * (ax.ylim[1] - ax.ylim[0]))  # more levels: a taller panel, same scale
     ax.yticks = False
     title = f"{name}: loads, supports" + (" and reactions" if r.envelope is None else "")
-    title += "" if len(factors) == 1 else " (factored)"
+    if style.factored:
+        title += " (factored: " + " + ".join(f"{number(f)} {c}" for c, f in factors.items()) + ")"
     if a.solution.member.moving(name):
         title += "; the moving group is not drawn (see its table)"
     if m.stepped:
@@ -106,6 +110,41 @@ def _draw_member(ax, a: Analysis, name: str, u: dict, L: float) -> None:
     if m.hinges:
         title += "; open circles: hinges"
     ax.title = (title, 8.0)
+
+
+def _point_stacks(ax, items: list, style: LoadLabels, u: dict, L: float, top: float) -> float:
+    """Point loads, moments and settlements. Those that stand together (a dead and a live load at the tip) are
+    drawn at their places and labelled one above the other, each label on a line of its own; returns the
+    highest label's top."""
+    highest = top
+    at = lambda ld: float(convert(ld.x, u["length"]))  # noqa: E731
+    groups: list[list] = []
+    for case, ld in sorted(((c, ld) for c, ld in items if not isinstance(ld, Settlement)), key=lambda i: at(i[1])):
+        if groups and at(ld) - at(groups[-1][-1][1]) < 0.12 * L:
+            groups[-1].append((case, ld))
+        else:
+            groups.append([(case, ld)])
+    for group in groups:
+        y = top + 0.1
+        for case, ld in group:
+            x = at(ld)
+            if isinstance(ld, PointLoad) and ld.force > 0:
+                ax.arrow((x, -1.1), (x, -0.05), LOAD, 1.2)
+                ax.text(x, -1.2, style.text(case, ld), 7.0, LOAD, _anchor(x, L), "top")
+                continue
+            if isinstance(ld, PointLoad):
+                ax.arrow((x, top), (x, 0.05), LOAD, 1.2)
+            else:  # a moment: its mark on the member, a dotted leader up to its label in the stack
+                ax.dot(x, 0, 9.0, None, LOAD)
+                ax.line([x, x], [0.2, y], color=LOAD, width=0.5, dash="dotted")
+            text = style.text(case, ld)
+            ax.text(x, y, text, 7.0 if isinstance(ld, PointLoad) else 6.0, LOAD, _anchor(x, L), "bottom")
+            y += 0.1 + 0.045 * (7.0 if isinstance(ld, PointLoad) else 6.0) * (1 + text.count("\n"))
+        highest = max(highest, y)
+    for case, ld in items:
+        if isinstance(ld, Settlement):
+            _load(ax, ld, style.factors[case], u, {1: 0, -1: 0}, L)
+    return highest
 
 
 def _draw_stretches(ax, m, u: dict, L: float) -> None:
@@ -150,7 +189,8 @@ def _reactions(ax, m, r, u: dict, L: float, low: float) -> None:
         ax.text(xr, -(low + 0.1), text, 6.0, REACTION, _anchor(xr, L), "top")
 
 
-def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int], L: float, marks: tuple) -> None:
+def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int], L: float, marks: tuple,
+            text: str) -> None:
     """A line load given per stretch (self-weight of a stepped member): drawn at one level, labelled once."""
     sign = _side(group[0], factor)
     base = _base(sign, levels[sign])
@@ -160,9 +200,10 @@ def _pieces(ax, group: list, factor: Fraction, u: dict, levels: dict[int, int], 
     unit = u["force"] + "/" + u["length"]
     values = sorted({abs(piece.w1 * factor) for piece in group})
     x1, x2 = float(convert(group[0].x1, u["length"])), float(convert(group[-1].x2, u["length"]))
+    prefix = text[: text.index("self-weight")] if "self-weight" in text else ""
     ax.text(_label_x(x1, x2, marks, L), (base + 0.85) * sign,
-            f"{group[0].origin}, {number(convert(values[0], unit))} to {number(convert(values[-1], unit))} {unit}",
-            6.0, LOAD, "middle", "bottom" if sign > 0 else "top")
+            f"{prefix}{group[0].origin}, {number(convert(values[0], unit))} to {number(convert(values[-1], unit))} "
+            f"{unit}", 6.0, LOAD, "middle", "bottom" if sign > 0 else "top")
 
 
 def _terms(a: Analysis, name: str) -> list[tuple[Fraction, str]]:
@@ -223,7 +264,7 @@ def _label_x(x1: float, x2: float, marks: tuple, L: float) -> float:
 
 
 def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float, label: bool = True,
-          marks: tuple = ()) -> None:
+          marks: tuple = (), text: str | None = None) -> None:
     """Draw one load; line loads stack outwards from the member (downward ones above it, upward ones below)
     so that none hides another; `levels` counts the levels taken on each side, `marks` are the x of the
     point loads and moments, which line-load labels keep clear of."""
@@ -256,12 +297,26 @@ def _load(ax, load, factor: Fraction, u: dict, levels: dict[int, int], L: float,
         levels[sign] += 1
         ax.polygon([x1, x1, x2, x2], [base * sign, (base + h1 * 0.8) * sign, (base + h2 * 0.8) * sign, base * sign],
                    LOAD, 0.15, edge=LOAD, width=0.8)
+        _line_arrows(ax, x1, x2, base, base + h1 * 0.8, base + h2 * 0.8, sign, L)
         h1, h2 = base + h1 * 0.8 - 0.1, base + h2 * 0.8 - 0.1
-        unit = u["force"] + "/" + u["length"]
-        text = number(convert(abs(w1), unit)) if w1 == w2 else f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}"
+        if text is None:
+            unit = u["force"] + "/" + u["length"]
+            text = (number(convert(abs(w1), unit)) if w1 == w2 else
+                    f"{number(convert(abs(w1), unit))} to {number(convert(abs(w2), unit))}") + f" {unit}"
         if label:
-            ax.text(_label_x(x1, x2, marks, L), (0.15 + max(h1, h2)) * sign, f"{text} {unit}", 6.0, LOAD, "middle",
+            ax.text(_label_x(x1, x2, marks, L), (0.15 + max(h1, h2)) * sign, text, 6.0, LOAD, "middle",
                     "bottom" if sign > 0 else "top")
+
+
+def _line_arrows(ax, x1: float, x2: float, base: float, top1: float, top2: float, sign: int, L: float) -> None:
+    """Arrows inside a line load's outline, from its outer edge to the edge near the member, pointing the way
+    the load acts: about every L/16, at least one at each end, where the outline is tall enough to hold one."""
+    n = max(1, round((x2 - x1) / (L / 16)))
+    for i in range(n + 1):
+        x = x1 + (x2 - x1) * (0.04 + 0.92 * i / n) if n else (x1 + x2) / 2
+        outer = top1 + (top2 - top1) * (x - x1) / (x2 - x1 or 1)
+        if outer - base >= 0.3:
+            ax.arrow((x, outer * sign), (x, base * sign), LOAD, 0.6)
 
 
 def sign_convention_figure() -> str:
@@ -301,11 +356,17 @@ def envelope_figure(a: Analysis) -> str:
         for i, name in enumerate(names):
             xs, ys = sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
+            pattern = a.result(name).pattern
             if name in drawn:
                 top, bottom = _moving_band(drawn[name], attr, u, quantity, [float(p) for p in xs])
                 series.append((name, top, bottom))
-            else:
+            elif pattern is None:
                 series.append((name, ys, ys))
+            else:
+                for s, side in ((1, "upper"), (-1, "lower")):  # the patterned target's envelopes at the same x
+                    curve = pattern.curve(attr, s)
+                    ys = [float(convert(curve.at(p), u[quantity])) for p in xs]
+                    series.append((f"{name} ({side})", ys, ys))
         ax.band(x, [max(col) for col in zip(*(top for _, top, _ in series))],
                 [min(col) for col in zip(*(bottom for _, _, bottom in series))], "#888888", 0.15)
         for i, (name, top, bottom) in enumerate(series):

@@ -7,6 +7,7 @@ from fractions import Fraction
 
 from beamlang.analysis.results import SIGN_CONVENTION, TargetResult
 from beamlang.analysis.working import reported
+from beamlang.language.frontend import recorded_name
 from beamlang.pipeline import Analysis
 
 SCHEMA = "beamlang.results/1"
@@ -18,7 +19,7 @@ def member_json(a: Analysis) -> dict:
         "schema": SCHEMA,
         "member": m.mark,
         "title": m.title,
-        "file": a.loaded.source.name,
+        "file": recorded_name(a.loaded),
         "input_sha256": hashlib.sha256(a.loaded.source.text.encode("utf-8")).hexdigest(),
         "sign_convention": SIGN_CONVENTION,
         "stretches": [{"from_m": float(st.x1), "to_m": float(st.x2), "EI_Nm2": float(st.EI),
@@ -81,6 +82,13 @@ def _target(r: TargetResult) -> dict:
             entry.update({"envelope": True, "max_force_N": float(f.largest), "min_force_N": float(f.smallest)})
             if mo.largest or mo.smallest:  # a support that resists moment
                 entry.update({"max_moment_Nm": float(mo.largest), "min_moment_Nm": float(mo.smallest)})
+    if r.pattern is not None:  # the values above are extremes over every arrangement of the patterned cases
+        out["pattern"] = {
+            "cases": list(r.pattern.cases),
+            "parts": [{"case": case, "region": region} for case, region in r.pattern.parts],
+            "arrangements": 2 ** len(r.pattern.parts),
+            "governing": [{"extreme": e, "loaded": how, "x_m": _f(x), "value_SI": float(v)}
+                          for e, how, x, v, _ in r.pattern.arrangements]}
     return out
 
 
@@ -115,7 +123,9 @@ def _static(r: TargetResult) -> dict:
         "shear": {"max_abs": _at(r.shear_max, "value_N")},
         "points": [{"x_m": float(x), "deflection_m": float(v), "slope_rad": float(t)} for x, v, t in r.points],
         "stress": {"bending_Pa": _f(r.stress.bending), "shear_Pa": _f(r.stress.shear),
-                   "yield_Pa": _f(r.stress.yield_strength), "shear_strength_Pa": _f(r.stress.shear_strength),
+                   "yield_Pa": None if r.stress.allowable else _f(r.stress.yield_strength),
+                   "allowable_bending_Pa": _f(r.stress.yield_strength) if r.stress.allowable else None,
+                   "shear_strength_Pa": _f(r.stress.shear_strength),
                    "elastic": r.stress.elastic},
         "cross_check": {"max_rel_diff": reported(r.cross_check)},  # a bound: at most this, at least 1e-12
     }

@@ -44,8 +44,8 @@ def moving_section(a: Analysis, t, r) -> list[str]:
              "interior critical points, where ∂f/∂x = ∂f/∂p = 0 is solved through the resultant in x with its "
              "real roots isolated exactly. "
              f"The plane was cut into {env.cells} cells; of their {4 * env.cells} interiors (one per response), "
-             f"{env.interiors} could hold a value beyond those already found (a float bound with a safety margin "
-             "decides) and were solved exactly.",
+             f"{env.interiors} could hold both a value beyond those already found and a critical point (float "
+             "bounds with a safety margin, on the response and on ∂f/∂x and ∂f/∂p, decide) and were solved exactly.",
              "",
              "Every value below is an envelope over the group's positions: the extreme of that response over "
              "every position, reached with the group where its row says (first force at, direction of travel). "

@@ -4,21 +4,15 @@ from __future__ import annotations
 
 import json
 import os
+import secrets
 import shutil
-import tempfile
+import sys
+from contextlib import contextmanager
 from pathlib import Path
 
+from beamlang.language.marks import RESERVED, folder_name  # noqa: F401 (the package folder's name lives there)
 from beamlang.pipeline import Analysis
 from beamlang.report.jsonout import member_json
-
-RESERVED = {"CON", "PRN", "AUX", "NUL", *(f"COM{i}" for i in range(1, 10)), *(f"LPT{i}" for i in range(1, 10))}
-
-
-def folder_name(mark: str) -> str:
-    """A mark as a folder name that is safe on every common file system."""
-    name = "".join(ch if ch.isalnum() or ch in "-_." else "_" for ch in mark).strip(".") or "member"
-    return name + "_" if name.split(".")[0].upper() in RESERVED else name
-
 
 def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page embeds them)."""
@@ -39,32 +33,144 @@ def package_files(a: Analysis, changes: list[str] | tuple = ()) -> dict[str, byt
 
 
 def write_package(a: Analysis, out: Path, changes: list[str] | tuple = ()) -> Path:
-    """Build everything in a temporary folder beside the target, then swap it into place."""
-    files = package_files(a, changes)
-    out.mkdir(parents=True, exist_ok=True)
+    """Build everything in a hidden folder beside the target, then swap it into place (see `swap`)."""
     target = out / folder_name(a.loaded.member.mark)
-    staging = Path(tempfile.mkdtemp(prefix=f".{target.name}.", dir=out))
+    return swap_in(package_files(a, changes), target)
+
+
+# The swap. Each member's folder is, at every instant, its old package or its new one:
+# - the new package is written into a hidden folder `.NAME.beamlang-new-TOKEN` beside the target (created with
+#   the user's umask, like any folder the user makes);
+# - on Linux one renameat2(RENAME_EXCHANGE) puts it in place and the old one where it was, atomically; the
+#   hidden folder, now holding the old package, is removed;
+# - where the file system cannot exchange (another OS, some network file systems) the old package is renamed
+#   to `.NAME.beamlang-old-TOKEN` and the new one into place; a kill between those two renames leaves no
+#   folder, and the next build puts the old one back before it starts;
+# - builds into one output folder take turns by an advisory lock on that folder (flock), held from before the
+#   hidden folder is made until the old package is removed, so concurrent builds and `--jobs` workers never
+#   see each other's hidden folders; whatever hidden folders an earlier, killed run left are removed (or put
+#   back) under that lock by the next build of the same folder name.
+LEFTOVER = ".beamlang-"
+
+
+def swap_in(files: dict[str, bytes], target: Path) -> Path:
+    out = target.parent
     try:
-        for rel, data in files.items():
-            path = staging / rel
-            path.parent.mkdir(parents=True, exist_ok=True)
-            path.write_bytes(data)
-        _swap(staging, target)
-    except BaseException:
-        shutil.rmtree(staging, ignore_errors=True)
-        raise
+        out.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise OSError(exc.errno, exc.strerror, str(out)) from exc
+    try:
+        with _locked(out):
+            _clean_leftovers(target)
+            staging = _new_folder(target, "new")
+            try:
+                for rel, data in files.items():
+                    path = staging / rel
+                    path.parent.mkdir(parents=True, exist_ok=True)
+                    path.write_bytes(data)
+                _step("written")
+                _swap(staging, target)
+            finally:
+                _remove(staging)  # the unfinished new package, or after the swap the old one
+    except OSError as exc:
+        if exc.filename == str(target):
+            raise
+        raise OSError(exc.errno, exc.strerror, str(target)) from exc
     return target
 
 
+def _step(name: str) -> None:
+    """A point between the swap's steps (`written`, `aside`, `swapped`); tests kill the process here."""
+
+
 def _swap(staging: Path, target: Path) -> None:
-    if target.is_symlink() or target.is_file():
+    if target.is_symlink() or (target.exists() and not target.is_dir()):
         target.unlink()  # a link is replaced, never followed
-    if target.exists():
-        old = target.with_name(f".{target.name}.old")
-        if old.exists():
-            shutil.rmtree(old)
-        os.replace(target, old)
-        os.replace(staging, target)
-        shutil.rmtree(old)
-    else:
-        os.replace(staging, target)
+    if not target.exists():
+        os.rename(staging, target)
+    elif not _exchange(staging, target):
+        old = _new_name(target, "old")
+        os.rename(target, old)
+        _step("aside")
+        try:
+            os.rename(staging, target)
+        except BaseException:
+            os.rename(old, target)
+            raise
+        os.rename(old, staging)  # removed with the staging folder
+    _step("swapped")
+
+
+def _exchange(a: Path, b: Path) -> bool:
+    """Swap two folders in one step (Linux renameat2 RENAME_EXCHANGE); False where that cannot be done."""
+    if not sys.platform.startswith("linux"):
+        return False
+    import ctypes
+    import errno
+    try:
+        libc = ctypes.CDLL(None, use_errno=True)
+        renameat2 = libc.renameat2
+    except (OSError, AttributeError):
+        return False
+    at_fdcwd, rename_exchange = -100, 2
+    if renameat2(at_fdcwd, os.fsencode(a), at_fdcwd, os.fsencode(b), rename_exchange) == 0:
+        return True
+    code = ctypes.get_errno()
+    if code in (errno.EINVAL, errno.ENOSYS, getattr(errno, "ENOTSUP", errno.EINVAL), errno.EOPNOTSUPP):
+        return False
+    raise OSError(code, os.strerror(code), str(b))
+
+
+def _new_name(target: Path, kind: str) -> Path:
+    return target.with_name(f".{target.name}{LEFTOVER}{kind}-{secrets.token_hex(4)}")
+
+
+def _new_folder(target: Path, kind: str) -> Path:
+    while True:
+        path = _new_name(target, kind)
+        try:
+            os.mkdir(path, 0o777)  # the umask applies
+            return path
+        except FileExistsError:
+            continue
+
+
+def _clean_leftovers(target: Path) -> None:
+    """Hidden folders of an earlier run that was killed: an old package put aside with no package in its place
+    goes back; everything else is removed (links unlinked, never followed)."""
+    prefix = f".{target.name}{LEFTOVER}"
+    try:
+        names = sorted(os.listdir(target.parent))
+    except OSError:
+        return
+    leftovers = [target.parent / n for n in names if n.startswith(prefix)]
+    if not (target.exists() or target.is_symlink()):
+        aside = [p for p in leftovers if p.name.startswith(prefix + "old-") and p.is_dir() and not p.is_symlink()]
+        if aside:
+            os.rename(aside[0], target)
+            leftovers.remove(aside[0])
+    for path in leftovers:
+        _remove(path)
+
+
+def _remove(path: Path) -> None:
+    if path.is_symlink() or (path.exists() and not path.is_dir()):
+        path.unlink()
+    elif path.exists():
+        shutil.rmtree(path)
+
+
+@contextmanager
+def _locked(folder: Path):
+    """An advisory lock on the output folder itself (no lock file is left behind); none where there is no flock."""
+    try:
+        import fcntl
+    except ImportError:
+        yield
+        return
+    fd = os.open(folder, os.O_RDONLY)
+    try:
+        fcntl.flock(fd, fcntl.LOCK_EX)
+        yield
+    finally:
+        os.close(fd)  # closing releases the lock

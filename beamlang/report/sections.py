@@ -10,7 +10,7 @@ from beamlang import __version__
 from beamlang.analysis.display import convert, number
 from beamlang.language import syntax as s
 from beamlang.language.sections import FORMULAS
-from beamlang.language.units import SHORTHANDS, factor_of
+from beamlang.language.units import SHORTHANDS, factor_of, to_si
 from beamlang.pipeline import Analysis
 from beamlang.report.provenance import versions_text
 from beamlang.report.tex import cell, md, num, plain, quantity
@@ -69,8 +69,8 @@ def inputs(a: Analysis) -> list[str]:
     for line, st in a.loaded.document.statements:
         for k, q in enumerate(_quantities(st)):
             f = factor_of(q.unit)
-            units.add(q.unit)
-            si = number(Fraction(q.number) * f.factor, 10)
+            units.update(part.unit for part in (q, *q.parts))
+            si = number(to_si(q, "length", "a length") if q.parts else Fraction(q.number) * f.factor, 10)
             written = f"`{cell(statement_text(st))}`" if k == 0 else "″"  # the statement once, then ditto marks
             rows.append(f"| {line.number if k == 0 else ''} | {written} | {cell(str(q))} | {si} {f.si_unit} |")
     out = ["## Inputs", "", "Each number as written in the file and its exact value in SI base units.", "",
@@ -126,8 +126,10 @@ def section_properties(a: Analysis) -> list[str]:
         lines += [f"Material: {md(mat.name or 'unnamed')}, E = {number(convert(mat.E, stress), 6)} {stress}"
                   + (f", yield strength fy = {number(convert(mat.yield_strength, stress), 6)} {stress}"
                      if mat.yield_strength else "")
-                  + (f", shear strength fv = {number(convert(mat.shear_strength, stress), 6)} {stress}"
-                     if mat.shear_strength else "")
+                  + (f", allowable bending stress Fb = {number(convert(mat.allowable_bending, stress), 6)} {stress}"
+                     if mat.allowable_bending else "")
+                  + (f", {'allowable shear stress Fv' if mat.allowable_bending else 'shear strength fv'} = "
+                     f"{number(convert(mat.shear_strength, stress), 6)} {stress}" if mat.shear_strength else "")
                   + (f", density = {number(convert(mat.density, a.units['density']), 6)} {a.units['density']}"
                      if mat.density else "")
                   + f" (input line {mat.span.line}).", ""]
@@ -263,13 +265,16 @@ CAUTIONS = [
     "the deflection relative to the supports).",
     "The shear check is made at the neutral axis against the shear strength given with the material (`shear`), or "
     "else against fy/sqrt(3) (von Mises), which suits steel but overstates the shear strength of timber and other "
-    "non-metallic materials: give theirs. Bending and shear are not combined.",
+    "non-metallic materials: give theirs (a material given by `allowable bending` always gives its `shear`). "
+    "Bending and shear are not combined.",
     "This calculation must be reviewed and accepted by a qualified, licensed engineer before it is relied on.",
 ]
 
 
 def cautions(a: Analysis) -> list[str]:
-    cautions = CAUTIONS[:3] + _moving_cautions(a) + CAUTIONS[3:] + _unchecked_shear(a)
+    from beamlang.report.pattern_md import pattern_cautions
+    cautions = (CAUTIONS[:3] + _moving_cautions(a) + CAUTIONS[3:-1] + _allowables(a) + _unchecked_shear(a)
+                + pattern_cautions(a) + CAUTIONS[-1:])
     lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in cautions]
     notes = a.loaded.member.notes
     if notes:
@@ -289,6 +294,18 @@ def _moving_cautions(a: Analysis) -> list[str]:
             "repeated passes of the group is not checked (see above)."]
 
 
+def _allowables(a: Analysis) -> list[str]:
+    """A material given by allowable stresses: they are used as written, its code's adjustments are not applied."""
+    lines = sorted({st.material.span.line for st in a.loaded.member.stretches if st.material.allowable_bending})
+    if not lines:
+        return []
+    where = ", ".join(str(n) for n in lines)
+    return [f"The allowable bending and shear stresses of the material (input line{'s' if len(lines) > 1 else ''} "
+            f"{where}) are used exactly as written. The adjustment factors of the governing timber or aluminium "
+            "code (load duration, moisture and temperature service, size, repetitive member, lateral stability, "
+            "welding and the like) are not applied here: they are the engineer's to apply to the values given."]
+
+
 def _unchecked_shear(a: Analysis) -> list[str]:
     """A stress check with a section given by its properties: its shear stress is not checked, say so."""
     m = a.loaded.member
@@ -305,6 +322,8 @@ def _unchecked_shear(a: Analysis) -> list[str]:
 
 def traceability(a: Analysis) -> list[str]:
     import hashlib
+
+    from beamlang.language.frontend import recorded_name
     src = a.loaded.source
     digest = hashlib.sha256(src.text.encode("utf-8")).hexdigest()
     width = len(str(len(src.text.splitlines())))
@@ -312,7 +331,7 @@ def traceability(a: Analysis) -> list[str]:
     longest = max((len(run) for run in re.findall(r"`+", src.text)), default=0)
     fence = "`" * max(3, longest + 1)  # the file's own backticks cannot close the block
     return ["## Traceability", "",
-            f"Input file {md(src.name)}, SHA-256 `{digest}`, built by beamlang {__version__} "
+            f"Input file {md(recorded_name(a.loaded))}, SHA-256 `{digest}`, built by beamlang {__version__} "
             f"with {versions_text()}. Nothing in this package depends on the clock; rebuilding the same input "
             "with the same versions gives the same bytes.", "",
             "### Appendix: the input file, line by line", "", fence + "text", *listing, fence, ""]

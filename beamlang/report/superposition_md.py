@@ -12,6 +12,7 @@ from beamlang.report.sections import vector
 from beamlang.report.selfweight import self_weight_lines
 from beamlang.report.formula_md import formula_lines
 from beamlang.report.tex import cell, plain, poly
+from beamlang.report.tributary import tributary_lines
 
 
 def loads_table(a: Analysis, t) -> list[str]:
@@ -24,7 +25,7 @@ def loads_table(a: Analysis, t) -> list[str]:
             for ld in t.loads]
     units = "SI" if w["length"] == "m" else f"{w['force']}, {_dot(w['moment'])}, {w['line load']}, {w['length']}"
     return ["### Loads", "", f"| line | load as written | in {units} (signs: up and counterclockwise positive) |",
-            "|---|---|---|", *rows, ""] + self_weight_lines(a, t)
+            "|---|---|---|", *rows, ""] + tributary_lines(a, t) + self_weight_lines(a, t)
 
 
 def _load_value(ld, w: dict[str, str]) -> str:

@@ -255,8 +255,9 @@ class _Frame:
 def _panel(body: list[str], p: Panel, box, xr, yt, ylabels, yexp, xt, xlabels, k: int) -> None:
     f = _Frame(*box, *xr, *p.y_range())
     clipped, free = [], []  # lines and areas stay inside the frame; markers, arrows and text may leave it
+    placed: list[tuple[float, float, float, float]] = []  # the boxes of the panel's texts so far (pt)
     for item in p.items:
-        text, inside = _item(item, f)
+        text, inside = _item(item, f, placed)
         (clipped if inside else free).append(text)
     if p.axis:
         body += [_seg(f.px(t), f.top, f.px(t), f.top + f.h, GRID, 0.8, ' stroke-opacity="0.3"') for t in xt]
@@ -270,8 +271,8 @@ def _panel(body: list[str], p: Panel, box, xr, yt, ylabels, yexp, xt, xlabels, k
     body += free
 
 
-def _item(item: tuple, f: _Frame) -> tuple[str, bool]:
-    """One drawn item as SVG, and whether it is clipped to the frame."""
+def _item(item: tuple, f: _Frame, placed: list) -> tuple[str, bool]:
+    """One drawn item as SVG, and whether it is clipped to the frame; a text keeps clear of `placed`."""
     kind, px, py = item[0], f.px, f.py
     if kind == "line":
         _, xs, ys, color, width, dash, opacity = item
@@ -303,7 +304,44 @@ def _item(item: tuple, f: _Frame) -> tuple[str, bool]:
     if kind == "arrow":
         return _arrow(item, px, py), False
     _, xv, yv, s, size, color, anchor, baseline, dx, dy = item  # text
-    return _text(px(xv) + dx, py(yv) - dy, s, size, color, anchor, baseline), False
+    x, y = px(xv) + dx, py(yv) - dy
+    y += _clear(_box(x, y, s, size, anchor, baseline), placed, f, -1 if baseline == "bottom" or dy > 0 else 1)
+    return _text(x, y, s, size, color, anchor, baseline), False
+
+
+PAD = 1.0  # pt kept between two labels
+
+
+def _box(x: float, y: float, s: str, size: float, anchor: str, baseline: str) -> tuple[float, float, float, float]:
+    """(left, top, right, bottom) of a label on the page, from the estimated width and the line height."""
+    w, n = text_width(s, size), len(s.split("\n"))
+    left = x - {"start": 0.0, "middle": w / 2, "end": w}[anchor]
+    first = _first_baseline(y, size, n, baseline)
+    return left, first - 0.76 * size, left + w, first + 1.2 * size * (n - 1) + 0.24 * size
+
+
+def _clear(box: tuple[float, float, float, float], placed: list, f: _Frame, way: int) -> float:
+    """How far (pt, down positive) a label must move, first `way` (-1 up, 1 down), to overlap no label placed
+    before it in its panel; the other way if the first leaves the frame. The label's box is then placed."""
+    def moved(direction: int) -> float:
+        shift = 0.0
+        for _ in range(4 * len(placed) + 1):
+            l, t, r, b = box[0], box[1] + shift, box[2], box[3] + shift
+            hit = next((o for o in placed if l < o[2] + PAD and o[0] < r + PAD and t < o[3] + PAD and o[1] < b + PAD),
+                       None)
+            if hit is None:
+                return shift
+            shift += (hit[1] - PAD - b) if direction < 0 else (hit[3] + PAD - t)
+        return shift
+
+    shift = moved(way)
+    inside = f.top <= box[1] and box[3] <= f.top + f.h
+    if shift and inside and not (f.top <= box[1] + shift and box[3] + shift <= f.top + f.h):
+        other = moved(-way)
+        if f.top <= box[1] + other and box[3] + other <= f.top + f.h:
+            shift = other
+    placed.append((box[0], box[1] + shift, box[2], box[3] + shift))
+    return shift
 
 
 def _axes(f: _Frame, p: Panel, xt, yt, ylabels, yexp, xlabels) -> list[str]:
@@ -374,18 +412,23 @@ def _arrow(item: tuple, px, py) -> str:
                     f'stroke="{color}" stroke-width="{_n(width)}"/>\n')
 
 
+def _first_baseline(y: float, size: float, n: int, baseline: str) -> float:
+    """The baseline of a block's first line when its bottom, top, middle or first baseline is at y."""
+    step = 1.2 * size
+    if baseline == "bottom":
+        return y - 0.24 * size - step * (n - 1)
+    if baseline == "top":
+        return y + 0.76 * size
+    if baseline == "middle":
+        return y + 0.36 * size - step * (n - 1) / 2
+    return y
+
+
 def _text(x: float, y: float, s: str, size: float, color: str, anchor: str, baseline: str = "baseline") -> str:
     """Text at a point; lines below one another; `baseline` puts the block's bottom, top or middle at y."""
     lines = s.split("\n")
     step = 1.2 * size
-    if baseline == "bottom":
-        first = y - 0.24 * size - step * (len(lines) - 1)
-    elif baseline == "top":
-        first = y + 0.76 * size
-    elif baseline == "middle":
-        first = y + 0.36 * size - step * (len(lines) - 1) / 2
-    else:
-        first = y
+    first = _first_baseline(y, size, len(lines), baseline)
     fill = "" if color == "black" else f' fill="{color}"'
     anchor_attr = "" if anchor == "start" else f' text-anchor="{anchor}"'
     if len(lines) == 1:

@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
+from beamlang.errors import BeamError
 from beamlang.language import syntax as s
 from beamlang.language.fmt import statement_text
 from beamlang.model import essence
@@ -72,22 +73,40 @@ class StatusChange:
 
 
 @dataclass(frozen=True, slots=True)
+class Invalid:
+    """One side of a diff whose file has input errors: reported, and the diff goes on."""
+
+    error: BeamError
+
+    def messages(self) -> tuple[str, ...]:
+        return tuple(f"{d.span}: {d.message}" for d in self.error.diagnostics)
+
+
+@dataclass(frozen=True, slots=True)
 class MemberDiff:
     name: str  # path or mark shown to the reader
-    status: str  # "changed" | "added" | "removed"
+    status: str  # "changed" | "unchanged" | "added" | "removed" | "invalid before" | "invalid now" | "invalid"
     units: dict  # report units of the newer version, for text output
     design_changed: bool
     inputs: tuple[InputChange, ...]
     statuses: tuple[StatusChange, ...]  # flagged ones first
     deltas: tuple[Delta, ...]
+    input_errors: tuple[str, ...] = ()  # of an invalid side
 
     @property
     def regression(self) -> bool:
-        return any(c.worse for c in self.statuses)
+        """A check fails or got worse, or the newer version cannot be checked at all."""
+        return any(c.worse for c in self.statuses) or self.status in ("invalid now", "invalid")
 
 
-def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshold: float = THRESHOLD) -> MemberDiff:
-    """Compare two analyses of one member (either may be missing: added or removed files)."""
+def diff_members(name: str, old: Analysis | Invalid | None, new: Analysis | Invalid | None,
+                 threshold: float = THRESHOLD) -> MemberDiff:
+    """Compare two analyses of one member (either may be missing: added or removed files; or invalid: its input
+    errors are listed and the other side's checks shown as for an added or removed file)."""
+    if isinstance(old, Invalid) or isinstance(new, Invalid):
+        return _with_invalid(name, old, new)
+    if old is not None and new is not None and old.loaded.source.text == new.loaded.source.text:
+        return MemberDiff(name, "unchanged", new.units, False, (), (), ())
     if old is None or new is None:
         only = new or old
         statuses = tuple(_status(_key(c), None if new else c, c if new else None) for c in only.checks)
@@ -98,6 +117,18 @@ def diff_members(name: str, old: Analysis | None, new: Analysis | None, threshol
     units = new.units
     deltas = tuple(d for d in _deltas(old, new, units) if _shows_a_change(d, units)) if design else ()
     return MemberDiff(name, "changed", units, design, inputs, statuses, deltas)
+
+
+def _with_invalid(name: str, old, new) -> MemberDiff:
+    errors = tuple(m for side in (old, new) if isinstance(side, Invalid) for m in side.messages())
+    good = next((side for side in (new, old) if side is not None and not isinstance(side, Invalid)), None)
+    if good is None:
+        status = "invalid" if isinstance(new, Invalid) and isinstance(old, Invalid) else (
+            "invalid now" if isinstance(new, Invalid) else "invalid before")
+        return MemberDiff(name, status, {}, True, (), (), (), errors)
+    statuses = tuple(_status(_key(c), None if good is new else c, c if good is new else None) for c in good.checks)
+    return MemberDiff(name, "invalid before" if good is new else "invalid now", good.units, True, (), statuses, (),
+                      errors)
 
 
 def _shows_a_change(d: Delta, units: dict[str, str]) -> bool:
@@ -164,6 +195,8 @@ def _index(doc: s.Document) -> dict[tuple, s.Statement]:
             key = ("check", st.target.text)
         elif isinstance(st, s.Report):
             key = ("report", str(st.at))
+        elif isinstance(st, s.Pattern):
+            key = ("pattern", st.case.text)
         else:
             key = ("note", st.text)
         index[key] = st
@@ -190,6 +223,8 @@ def _label(key: tuple) -> str:
         return f"{kind}, stretch {key[1] + 1}"
     if kind == "slope limit":
         return f"slope limit on {key[1]}"
+    if kind == "pattern":
+        return f"pattern loading of {key[1]}"
     return kind
 
 

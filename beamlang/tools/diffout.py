@@ -28,7 +28,8 @@ def text(diffs: list[MemberDiff], colour: bool = False) -> str:
     red, green, bold, off = ("\033[31m", "\033[32m", "\033[1m", "\033[0m") if colour else ("", "", "", "")
     lines: list[str] = []
     for d in diffs:
-        lines.append(f"{bold}{d.name}{off}: {d.status}" + ("" if d.design_changed else " (no change to the design)"))
+        lines.append(f"{bold}{d.name}{off}: {d.status}" + _no_design_change(d))
+        lines.extend(f"  input error {m}" for m in d.input_errors)
         for c in d.statuses:
             paint = red if c.worse else green
             ratios = f"{_ratio(c.old_ratio)} -> {_ratio(c.new_ratio)}"
@@ -43,6 +44,10 @@ def text(diffs: list[MemberDiff], colour: bool = False) -> str:
             lines.append(f"  result   {dl.target}: {dl.quantity} {_shown(dl.old, dl.unit, d.units)} -> "
                          f"{_shown(dl.new, dl.unit, d.units)}{_pct(dl.percent)}{where}")
     return "\n".join(lines) + ("\n" if lines else "no .beam files to compare\n")
+
+
+def _no_design_change(d: MemberDiff) -> str:
+    return " (no change to the design)" if d.status == "changed" and not d.design_changed else ""
 
 
 def _ratio(r: float | None) -> str:
@@ -60,7 +65,9 @@ def _change(old: str | None, new: str | None) -> str:
 def markdown(diffs: list[MemberDiff]) -> str:
     out: list[str] = []
     for d in diffs:
-        out += [f"### {d.name}: {d.status}" + ("" if d.design_changed else " (no change to the design)"), ""]
+        out += [f"### {d.name}: {d.status}" + _no_design_change(d), ""]
+        if d.input_errors:
+            out += [f"- input error {_cell(m)}" for m in d.input_errors] + [""]
         if d.statuses:
             out += ["| status | check | ratio before | ratio after |", "|---|---|---|---|"]
             out += [f"| {'**' + c.label + '**' if c.worse else c.label} | {c.check} | {_ratio(c.old_ratio)} | "
@@ -85,6 +92,7 @@ def _cell(text: str | None) -> str:
 def as_json(diffs: list[MemberDiff]) -> str:
     data = {"schema": SCHEMA, "members": [{
         "name": d.name, "status": d.status, "design_changed": d.design_changed, "regression": d.regression,
+        "input_errors": list(d.input_errors),
         "checks": [{"check": c.check, "change": c.label, "ratio_before": c.old_ratio, "ratio_after": c.new_ratio,
                     "pass_before": c.old_pass, "pass_after": c.new_pass, "worse": c.worse} for c in d.statuses],
         "inputs": [{"change": c.kind, "what": c.what, "before": c.old, "after": c.new, "line": c.line} for c in d.inputs],

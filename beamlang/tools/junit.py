@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 import xml.etree.ElementTree as ET
 
 from beamlang.analysis.display import CHECK_QUANTITY, show
@@ -39,5 +40,18 @@ def junit_xml(analyses: list[Analysis], errors: list[BeamError]) -> str:
         totals["errors"] += 1
     for key, value in totals.items():
         root.set(key, str(value))
+    for element in root.iter():
+        element.text = _xml_legal(element.text)
+        for key, value in element.attrib.items():
+            element.set(key, _xml_legal(value))
     ET.indent(root)
     return '<?xml version="1.0" encoding="utf-8"?>\n' + ET.tostring(root, encoding="unicode") + "\n"
+
+
+_ILLEGAL = re.compile("[^\t\n\r\u0020-\ud7ff\ue000-\ufffd\U00010000-\U0010ffff]")
+
+
+def _xml_legal(text: str | None) -> str | None:
+    """XML 1.0 allows no C0 control but tab, LF and CR, no surrogate and neither U+FFFE nor U+FFFF: each is
+    written as U+FFFD, so that one odd character cannot make the whole file unreadable to a CI server."""
+    return _ILLEGAL.sub("\ufffd", text) if text else text

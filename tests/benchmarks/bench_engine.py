@@ -54,6 +54,18 @@ def large() -> str:
     return member_text("36 m", sup, loads, extra=["combine c = a + b", "limit deflection c span/360", "check stress c"])
 
 
+def patterned() -> str:
+    """6 spans, 3 patterned cases (dead fixed): the pattern envelope of every case and of 2 combinations."""
+    sup = ["pin at 0 m"] + [f"roller at {4 * k} m" for k in range(1, 7)]
+    cases = {"dead": ["uniform 2 kN/m down"], "live": ["uniform 5 kN/m down", "point 8 kN down at 10 m"],
+             "snow": ["uniform 1.5 kN/m down from 2 m to 22 m"],
+             "plant": [f"point {3 + k} kN down at {1.3 + 3.7 * k:.1f} m" for k in range(6)]}
+    return member_text("24 m", sup, cases, extra=[
+        "pattern live", "pattern snow", "pattern plant", "combine service = dead + live + snow + plant",
+        "combine strength = 1.2 dead + 1.6 live + 0.5 snow + 1.6 plant", "limit deflection service span/360",
+        "check stress strength"])
+
+
 def engine(member) -> None:
     run_checks(member, evaluate(solve(member)))
 
@@ -95,11 +107,14 @@ def main() -> None:
     p = timed(lambda: front(SIMPLE), 5)
     big = front(large())
     d = timed(lambda: engine(big), 1)
+    pat = front(patterned())
+    e = timed(lambda: engine(pat), 3)
     s = timed(sympy_simple, 3)
     rows = [("(a) simply supported, 3 loads, 100 points", a, "< 10 ms"),
             ("(b) 4-span continuous, 20 loads, 3 cases, 2 combinations", b, "< 100 ms"),
             ("(c) 100 members (half (a), half (b))", c, ""),
             ("(d) 200 loads over 10 supports, 2 cases, 1 combination", d, "a few seconds"),
+            ("(e) pattern envelope: 6 spans, 3 patterned cases, 2 combinations", e, ""),
             ("front end (parse + build) of (a), 110 lines, for reference", p, ""),
             ("sympy beam module on (a): reactions + 100 deflections", s, "")]
     print(f"{'case':58} {'median':>12} {'best':>12}  target")

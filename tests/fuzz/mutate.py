@@ -1,5 +1,7 @@
 """Mutation fuzzing: damage the examples (delete, duplicate, swap tokens, flip units and directions,
-insert random bytes and Unicode) and check that beamlang answers with a result or a clean error.
+insert random bytes and Unicode, control characters, other line ends, look-alike digits, spaces and letters)
+and check that beamlang answers with a result or a clean error, prints no control character raw and writes
+JUnit XML that parses.
 
 Run any number: python tests/fuzz/mutate.py 10000 [SEED] [--build]   (prints a summary; exit 1 on a crash).
 With --build, every input that checks is also built into a calc package (figures, Markdown, HTML), about
@@ -11,6 +13,8 @@ import random
 import re
 import sys
 import time
+import unicodedata
+import xml.etree.ElementTree as ET
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -20,6 +24,13 @@ ERROR_LINE = re.compile(r"^(?P<file>[^:\n]+):(?P<line>\d+):(?P<col>\d+): error: 
 UNITS = ["m", "mm", "ft", "in", "kN", "kip", "lbf", "kN/m", "kip/ft", "kN*m", "GPa", "ksi", "mm^4", "kg/m^3", "s", "furlong"]
 WORDS = ["down", "up", "clockwise", "counterclockwise", "span", "at", "from", "to", "case", "fixed", "pin", "-", "/", "+", "="]
 JUNK = ["\x00", "\t", "  ", "é", "µ", "·", "\u202e", "\ufeff", "#", '"', "\\", "1e99", "-1", "0", "999999999999", "x"]
+# Control characters, other line ends and look-alikes of what the grammar reads: none may crash, hide a statement
+# or reach the terminal raw.
+CONTROL = ["\x0b", "\x0c", "\r", "\x1c", "\x1d", "\x1e", "\x85", "\u2028", "\u2029", "\x1b[2J", "\x1b]0;x\x07",
+           "\x7f", "\x9b", "\x08", "\u200b", "\u200d", "\u2066", "\ufffe", "\U0010ffff", "\ue000"]
+FOREIGN = ["\u00a0", "\u2007", "\u202f", "\u3000", "\uff15", "\u0664", "\u0966", "\U0001d7d3", "\uff4d", "\u2212",
+           "\u00bd", "\u00b2", "\u2074", "\uff0e", "\u066b", "\u2044", "\u0430", "\u03bc", "\u00b5", "\u212b",
+           "\\c", "\\n", '\\"', "\\\\", "\U0001f600", "\u0301"]
 
 
 def mutate(text: str, rng: random.Random) -> str:
@@ -28,7 +39,8 @@ def mutate(text: str, rng: random.Random) -> str:
         if not lines:
             lines = ["\n"]
         i = rng.randrange(len(lines))
-        op = rng.choice(["delete", "duplicate", "swap", "unit", "word", "junk", "number", "indent", "truncate"])
+        op = rng.choice(["delete", "duplicate", "swap", "unit", "word", "junk", "number", "indent", "truncate",
+                         "control", "foreign"])
         tokens = lines[i].split(" ")
         if op == "delete":
             del lines[i]
@@ -46,6 +58,9 @@ def mutate(text: str, rng: random.Random) -> str:
         elif op == "junk":
             k = rng.randrange(len(lines[i]) + 1)
             lines[i] = lines[i][:k] + rng.choice(JUNK) + lines[i][k:]
+        elif op in ("control", "foreign"):
+            k = rng.randrange(len(lines[i]) + 1)
+            lines[i] = lines[i][:k] + rng.choice(CONTROL if op == "control" else FOREIGN) + lines[i][k:]
         elif op == "number":
             lines[i] = re.sub(r"\d+(\.\d+)?", rng.choice(["0", "1e30", "0.000001", "7", "12.5", "1e-30"]), lines[i], count=1)
         elif op == "indent":
@@ -62,8 +77,8 @@ def check_one(text: str, workdir: Path, build: bool = False) -> str | None:
     from beamlang.cli import main
     path = workdir / "fuzz.beam"
     path.write_text(text, encoding="utf-8", errors="surrogatepass")
-    n_lines = max(1, len(text.splitlines()))
-    commands = [["fmt", "--check", "fuzz.beam"], ["check", "fuzz.beam"]]
+    n_lines = text.count("\n") + 1  # lines end at LF only
+    commands = [["fmt", "--check", "fuzz.beam"], ["check", "fuzz.beam", "--junit", "fuzz.xml"]]
     for argv in commands:
         err, out = io.StringIO(), io.StringIO()
         with contextlib.redirect_stderr(err), contextlib.redirect_stdout(out):
@@ -71,6 +86,14 @@ def check_one(text: str, workdir: Path, build: bool = False) -> str | None:
         stderr = err.getvalue()
         if code == 3 or "Traceback" in stderr or "internal error" in stderr:
             return f"{argv[0]}: internal error: {stderr[:500]}"
+        raw = [ch for ch in stderr + out.getvalue() if ch != "\n" and unicodedata.category(ch) in ("Cc", "Cf")]
+        if raw:
+            return f"{argv[0]}: a control character reached the terminal raw: {raw[0]!r}"
+        if argv[0] == "check":
+            try:
+                ET.parse(workdir / "fuzz.xml")
+            except ET.ParseError as exc:
+                return f"check --junit wrote XML that does not parse: {exc}"
         if code == 2:
             found = list(ERROR_LINE.finditer(stderr))
             if not found:

@@ -21,7 +21,7 @@ from fractions import Fraction
 
 from beamlang.engine.extrema import candidates, derivative_of
 from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _value
-from beamlang.engine.moving.bounds import _Best, _bound, _line_bound
+from beamlang.engine.moving.bounds import _Best, _bound, _line_bound, _no_critical_point
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -165,6 +165,8 @@ def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -
     for q, f, offsets, cell, pa, pb, rev in inner:
         mid = (xs[cell.s] + xs[cell.s + 1]) / 2
         if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), mid) for n in (1, 4)):
+            continue
+        if _no_critical_point(f, xs, offsets, cell, pa, pb):
             continue
         searched += 1
         for c in _cell_interior(f, xs, offsets, cell, pa, pb, rev):

@@ -8,12 +8,13 @@ order their errors are collected in.
 from __future__ import annotations
 
 from beamlang import model as m
+from beamlang.errors import Diagnostic
 from beamlang.language import syntax as s
 from beamlang.language.build import checks, combinations, geometry, loads, sections, supports
 from beamlang.language.build.context import Context
 from beamlang.language.build.geometry import FIELD_ORDER
 
-__all__ = ["FIELD_ORDER", "build"]
+__all__ = ["FIELD_ORDER", "build", "problems"]
 
 
 def build(doc: s.Document) -> m.Member:
@@ -23,6 +24,14 @@ def build(doc: s.Document) -> m.Member:
     ctx.errors.raise_if_any()
     assert member is not None
     return member
+
+
+def problems(doc: s.Document) -> tuple[Diagnostic, ...]:
+    """The problems of a file some of whose lines failed to parse (they are missing from `doc`): those of the
+    lines present, not those the missing lines may cause (`Context.whole`)."""
+    ctx = Context(doc, partial=True)
+    _member(ctx)
+    return tuple(ctx.errors.items)
 
 
 def _member(ctx: Context) -> m.Member | None:
@@ -37,12 +46,13 @@ def _member(ctx: Context) -> m.Member | None:
     supports.no_couple_at_hinges(ctx, cases, hinges)
     names = loads.names(ctx, cases)
     combos = combinations.combinations(ctx, names)
+    cases = combinations.patterned(ctx, cases, names)
     targets = combinations.targets(ctx, names)
     limits = checks.deflection_limits(ctx, targets)
     slopes = checks.slope_limits(ctx, targets, bearings)
     stress = checks.stress_checks(ctx, targets, stretches)
     reports = checks.report_points(ctx)
-    if ctx.errors.items or not stretches or ctx.length is None:
+    if ctx.failed or ctx.partial or not stretches or ctx.length is None:
         return None
     member = head.single["member"]
     return m.Member(member.mark.text, member.title, geometry.fields(ctx), geometry.units(head), ctx.length,

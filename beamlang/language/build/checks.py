@@ -11,7 +11,7 @@ def _target(ctx: Context, name: s.Name, targets: set[str]) -> bool:
     """True when a limit or check names a known case or combination; else the error is reported."""
     if name.text in targets:
         return True
-    ctx.error(name.span, f"unknown case or combination '{name.text}'",
+    ctx.whole(name.span, f"unknown case or combination '{name.text}'",
               ctx.suggest(name.text, sorted(targets), "cases and combinations"))
     return False
 
@@ -46,21 +46,22 @@ def slope_limits(ctx: Context, targets: set[str], supports: tuple[m.Support, ...
         if ok and value is not None:
             out.append(m.SlopeLimit(st.target.text if st.target else None, value, st.span))
     if out and supports and all(sp.kind == "fixed" for sp in supports):
-        ctx.error(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
+        ctx.whole(out[0].span, "a slope limit at supports needs a pin, roller or spring support",
                   "a fixed support holds the slope at zero; the limit is for bearings")
     return tuple(out)
 
 
 def stress_checks(ctx: Context, targets: set[str], stretches: tuple[m.Stretch, ...]) -> tuple[m.StressCheck, ...]:
-    """`check stress` lines: every stretch needs a yield strength and a depth (c or S)."""
+    """`check stress` lines: every stretch needs a yield strength (or allowable stresses) and a depth (c or S)."""
     out = []
-    no_yield = next((sp.material for sp in stretches if sp.material.yield_strength is None), None)
+    no_yield = next((sp.material for sp in stretches if sp.material.bending_strength is None), None)
     no_depth = next((sp.section for sp in stretches if sp.section.c is None and sp.section.S is None), None)
     for st in ctx.of(s.StressCheck):
         ok = _target(ctx, st.target, targets)
         if no_yield is not None:
-            ctx.error(st.span, "a stress check needs the material's yield strength",
-                      f"add e.g. `yield 350 MPa` to the material line (line {no_yield.span.line})")
+            ctx.error(st.span, "a stress check needs the material's yield strength or allowable stresses",
+                      f"add e.g. `yield 350 MPa` (steel) or `allowable bending 1.2 ksi shear 0.18 ksi` (timber) "
+                      f"to the material line (line {no_yield.span.line})")
             ok = False
         if no_depth is not None:
             ctx.error(st.span, "a stress check needs the section depth, c or S",

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
 from fractions import Fraction
 
 from beamlang import model as m
@@ -45,7 +46,7 @@ def _terms(ctx: Context, st: s.Combine, cases: set[str]) -> tuple[list[tuple[Fra
                       f"load factors {ACCEPTED} are accepted")
             ok = False
         if term.case.text not in cases:
-            ctx.error(term.case.span, f"unknown case '{term.case.text}'",
+            ctx.whole(term.case.span, f"unknown case '{term.case.text}'",
                       ctx.suggest(term.case.text, sorted(cases), "cases"))
             ok = False
         elif any(t[1] == term.case.text for t in terms):
@@ -56,6 +57,32 @@ def _terms(ctx: Context, st: s.Combine, cases: set[str]) -> tuple[list[tuple[Fra
             ok = False
         terms.append((factor, term.case.text))
     return terms, ok
+
+
+def patterned(ctx: Context, cases: tuple[m.Case, ...], names: set[str]) -> tuple[m.Case, ...]:
+    """The cases with each `pattern NAME` line applied: the named case marked as patterned."""
+    chosen: dict[str, s.Pattern] = {}
+    by_name = {c.name: c for c in cases}
+    for st in ctx.of(s.Pattern):
+        name = st.case.text
+        if name not in names:
+            ctx.error(st.case.span, f"unknown case '{name}'", ctx.suggest(name, sorted(names), "cases"))
+        elif name in chosen:
+            ctx.error(st.span, f"case '{name}' is already patterned on line {chosen[name].span.line}")
+        elif name in ctx.moving_cases:
+            ctx.error(st.case.span, f"case '{name}' holds a moving load, which is not patterned",
+                      "a moving load already takes its worst position; pattern only static cases")
+        elif any(isinstance(ld, m.Settlement) for ld in by_name[name].loads):
+            ctx.error(st.case.span, f"case '{name}' holds a settlement, which cannot be applied span by span",
+                      "put the settlement in a case of its own and pattern the loads")
+        else:
+            chosen[name] = st
+    for combo in ctx.of(s.Combine):
+        held = [t.case.text for t in combo.terms]
+        if any(n in chosen for n in held) and any(n in ctx.moving_cases for n in held):
+            ctx.error(combo.span, f"combination '{combo.name.text}' holds a patterned case and a moving load",
+                      "the two envelopes are not combined; combine the moving case with the fixed cases only")
+    return tuple(replace(c, patterned=True) if c.name in chosen else c for c in cases)
 
 
 def targets(ctx: Context, cases: set[str]) -> set[str]:

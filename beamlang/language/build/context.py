@@ -23,7 +23,7 @@ FAMILY: dict[type, str] = {
     s.Support: "supports", s.Hinge: "supports",
     s.Case: "loads", s.Point: "loads", s.Uniform: "loads", s.Linear: "loads", s.Moment: "loads",
     s.SelfWeight: "loads", s.Settlement: "loads", s.Moving: "loads",
-    s.Combine: "combinations",
+    s.Combine: "combinations", s.Pattern: "combinations",
     s.Limit: "checks", s.SlopeLimit: "checks", s.StressCheck: "checks", s.Report: "checks",
 }
 
@@ -32,8 +32,10 @@ class Context:
     """What every statement family shares: the document, the collector, the member's facts found so far
     (span length, stretches, support positions, cases with a moving load) and the conversions that report."""
 
-    def __init__(self, doc: s.Document):
+    def __init__(self, doc: s.Document, partial: bool = False):
         self.doc = doc
+        self.partial = partial  # some lines of the file failed to parse and are missing from `doc`
+        self.held = False  # a problem of the whole member was held back (`whole`)
         self.errors = Collector(doc.source)
         self.length: Fraction | None = None  # set by geometry
         self.stretches: tuple[m.Stretch, ...] = ()  # set by sections
@@ -51,6 +53,18 @@ class Context:
 
     def error(self, span: Span, message: str, hint: str | None = None) -> None:
         self.errors.error(span, message, hint)
+
+    def whole(self, span: Span, message: str, hint: str | None = None) -> None:
+        """A problem of the member as a whole (a missing line, an unknown name, an unstable member) that a line
+        which failed to parse may cause: held back while one does, where it would only mislead."""
+        if not self.partial:
+            self.error(span, message, hint)
+        self.held = True
+
+    @property
+    def failed(self) -> bool:
+        """A problem was found (reported or held back): the member cannot be built."""
+        return bool(self.errors.items) or self.held
 
     def si(self, q: s.Quantity, kind: str, what: str, hint: str | None = None) -> Fraction | None:
         """A written quantity in exact SI, or None with its problem reported."""

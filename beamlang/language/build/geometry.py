@@ -27,7 +27,7 @@ class Head:
 
 
 def empty(ctx: Context) -> None:
-    ctx.error(Span(ctx.doc.source.name, 1, 1, 2), "empty file: there is no member to check",
+    ctx.whole(Span(ctx.doc.source.name, 1, 1, 2), "empty file: there is no member to check",
               "a member needs `member`, `span`, `material`, `section`, `support` and `case` lines")
 
 
@@ -40,7 +40,7 @@ def head(ctx: Context) -> Head:
     for key, found in (("member", "member" in single), ("span", "span" in single),
                        ("material", ctx.of(s.Material)), ("section", ctx.of(s.Section))):
         if not found:
-            ctx.error(member_span, f"this member has no `{key}` line", _EXAMPLES[key])
+            ctx.whole(member_span, f"this member has no `{key}` line", _EXAMPLES[key])
     if "span" in single:
         ctx.length = _span_length(ctx, single["span"])
     return Head(single, member_span)

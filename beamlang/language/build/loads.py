@@ -10,7 +10,7 @@ from beamlang import model as m
 from beamlang.language import syntax as s
 from beamlang.language.build import moving, sections
 from beamlang.language.build.context import Context, sign
-from beamlang.language.units import factor_of
+from beamlang.language.units import factor_of, to_si
 from beamlang.source import Span
 
 LoadHandler = Callable[[Context, Any], list[m.Load]]
@@ -28,7 +28,7 @@ def cases(ctx: Context, member_span: Span) -> tuple[m.Case, ...]:
             current = (st, [])
         elif isinstance(st, s.LOADS) and line.indented:
             if current is None:
-                ctx.error(st.span, "this load belongs to no case", "put a `case` line above it")
+                ctx.whole(st.span, "this load belongs to no case", "put a `case` line above it")
                 continue
             current[1].extend(load(ctx, st))
         elif current and not line.indented:
@@ -37,14 +37,14 @@ def cases(ctx: Context, member_span: Span) -> tuple[m.Case, ...]:
     if current:
         out.append(_close_case(ctx, *current))
     if not out and not ctx.of(s.Case):
-        ctx.error(member_span, "this member has no load cases", "add e.g. `case dead` with its loads indented below it")
+        ctx.whole(member_span, "this member has no load cases", "add e.g. `case dead` with its loads indented below it")
     ctx.moving_cases = {c.name for c in out if any(isinstance(ld, m.MovingLoad) for ld in c.loads)}
     return tuple(out)
 
 
 def _close_case(ctx: Context, st: s.Case, loads: list[m.Load]) -> m.Case:
     for extra in [ld for ld in loads if isinstance(ld, m.MovingLoad)][1:]:
-        ctx.error(extra.span, "a case holds at most one moving load",
+        ctx.whole(extra.span, "a case holds at most one moving load",
                   "put the forces that travel together in one `moving` line, or the second "
                   "group in a case of its own")
     return m.Case(st.name.text, st.title, tuple(loads), st.span)
@@ -58,7 +58,7 @@ def names(ctx: Context, cases: tuple[m.Case, ...]) -> set[str]:
             ctx.error(c.span, f"a second case named '{c.name}'",
                       f"the first is on line {seen[c.name].span.line}; case names must differ")
         elif not c.loads and not _has_load_lines(ctx, c):
-            ctx.error(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
+            ctx.whole(c.span, f"case '{c.name}' has no loads", "indent its loads under it, or remove it")
         seen.setdefault(c.name, c)
     return set(seen)
 
@@ -92,18 +92,40 @@ def moment(ctx: Context, st: s.Moment) -> list[m.Load]:
 
 
 def uniform(ctx: Context, st: s.Uniform) -> list[m.Load]:
-    w = ctx.si(st.intensity, "force per length", "a uniform load",
-               _hint_for(st.intensity, "force", "for a single force, did you mean `point`?"))
+    w = _intensity(ctx, st.intensity, st.width, _width(ctx, st.width), "a uniform load",
+                   _hint_for(st.intensity, "force", "for a single force, did you mean `point`?"))
     x1 = Fraction(0) if st.start is None else ctx.position(st.start, "load start")
     x2 = ctx.length if st.end is None else ctx.position(st.end, "load end")
     return _line_load(ctx, st, x1, x2, w, w, "uniform")
 
 
 def linear(ctx: Context, st: s.Linear) -> list[m.Load]:
-    w1 = ctx.si(st.start_intensity, "force per length", "a linear load")
-    w2 = ctx.si(st.end_intensity, "force per length", "a linear load")
+    b = _width(ctx, st.width)
+    w1 = _intensity(ctx, st.start_intensity, st.width, b, "a linear load")
+    w2 = _intensity(ctx, st.end_intensity, st.width, b, "a linear load")
     x1, x2 = ctx.position(st.start, "load start"), ctx.position(st.end, "load end")
     return _line_load(ctx, st, x1, x2, w1, w2, "linear")
+
+
+def _width(ctx: Context, width: s.Quantity | None) -> Fraction | None:
+    return None if width is None else ctx.positive(width, "length", "a tributary width")
+
+
+def _intensity(ctx: Context, q: s.Quantity, width: s.Quantity | None, b: Fraction | None, what: str,
+               hint: str | None = None) -> Fraction | None:
+    """A load per length: as written, or a pressure times the tributary width it is gathered from (`over`)."""
+    if width is None:
+        area = _hint_for(q, "stress", "for an area load, give the tributary width it is gathered from with "
+                                      f"`over`, e.g. `uniform {q} over 16 in down`")
+        return ctx.si(q, "force per length", what, hint or area)
+    f = factor_of(q.unit)
+    if f is not None and f.kind != "stress":
+        got = f"which is a {f.kind}" if f.kind else "which is not a unit this language uses"
+        ctx.error(q.span, f"with `over`, {what} is a pressure (e.g. \"40 psf\" or \"2 kPa\"); got \"{q}\", {got}",
+                  _hint_for(q, "force per length", "a load per length needs no `over`; leave the width out"))
+        return None
+    p = ctx.si(q, "stress", f"{what} with `over`")
+    return None if p is None or b is None else p * b
 
 
 def _line_load(ctx: Context, st: s.Uniform | s.Linear, x1: Fraction | None, x2: Fraction | None,
@@ -116,7 +138,8 @@ def _line_load(ctx: Context, st: s.Uniform | s.Linear, x1: Fraction | None, x2: 
                   "write `from` the left position `to` the right one")
         return []
     k = sign(st.direction.text)
-    return [m.LineLoad(x1, x2, k * w1, k * w2, origin, st.span)]
+    width = None if st.width is None else to_si(st.width, "length", "a tributary width")  # sound: checked above
+    return [m.LineLoad(x1, x2, k * w1, k * w2, origin, st.span, width)]
 
 
 def settlement(ctx: Context, st: s.Settlement) -> list[m.Load]:
@@ -125,7 +148,7 @@ def settlement(ctx: Context, st: s.Settlement) -> list[m.Load]:
     if d is None or x is None:
         return []
     if x not in ctx.support_positions:
-        ctx.error(st.at.span, "a settlement must be at a support",
+        ctx.whole(st.at.span, "a settlement must be at a support",
                   "write the position of the support that moves, e.g. `settlement 5 mm down at 4.5 m`")
         return []
     return [m.Settlement(x, sign(st.direction.text) * d, st.span)]

@@ -2,15 +2,20 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
 from fractions import Fraction
 
 from beamlang import model as m
 from beamlang.language import syntax as s
 from beamlang.language.build.context import Context, sign
+from beamlang.language.units import in_parts
 
 
 def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
     """The forces (signed), their offsets from the first, and the travel (the whole member unless given)."""
+    joined = _without_and(ctx, st)
+    if joined:
+        return []
     forces = [ctx.positive(q, "force", "a moving force") for q in st.forces]
     gaps = [ctx.positive(q, "length", "a spacing") for q in st.spacings]
     if len(gaps) != len(forces) - 1:
@@ -29,6 +34,21 @@ def moving_load(ctx: Context, st: s.Moving) -> list[m.Load]:
         offsets.append(offsets[-1] + gap)
     k = sign(st.direction.text)
     return [m.MovingLoad(tuple(k * f for f in forces), tuple(offsets), lo, hi, st.span)]
+
+
+def _without_and(ctx: Context, st: s.Moving) -> bool:
+    """`moving 20 kN 20 kN ...` or `spaced 3 m 1.5 m`: a second force or spacing written without `and` (a
+    spacing in proper parts, `spaced 3 ft 6 in`, is one length); reported, True."""
+    for what, items in (("forces", st.forces), ("spacings", st.spacings)):
+        for q in items:
+            if q.parts and (what == "forces" or not in_parts(q)):
+                second = q.parts[0]
+                text = ctx.doc.source.line_text(second.span.line)
+                fixed = text[: second.span.col - 1].rstrip() + " and " + text[second.span.col - 1:]
+                ctx.error(replace(second.span, end_col=second.span.col + len(second.number)),
+                          f"the {what} of a moving group are joined by `and`", f"write `{fixed.strip()}`")
+                return True
+    return False
 
 
 def _spacing_count(ctx: Context, st: s.Moving, forces: int, gaps: int) -> None:

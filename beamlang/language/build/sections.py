@@ -12,8 +12,10 @@ from beamlang.language.build.context import Context
 from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
 from beamlang.language.units import STANDARD_GRAVITY
 
-MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "shear": "stress", "density": "density"}
+MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "allowable bending": "stress", "shear": "stress",
+                       "density": "density"}
 _DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "shear": "the shear strength",
+             "allowable bending": "the allowable bending stress",
              "density": "the density",
              "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S",
              "Q": "the first moment of area Q", "t": "the shear width t"}
@@ -40,7 +42,7 @@ def stretches(ctx: Context) -> tuple[m.Stretch, ...]:
 
 
 def _merge(ctx: Context, mats: Placed, secs: Placed) -> tuple[m.Stretch, ...]:
-    if not mats or not secs or ctx.errors.items:
+    if not mats or not secs or ctx.failed:
         return ()
     bounds = sorted({x for x1, x2, _ in mats + secs for x in (x1, x2)})
     out = []
@@ -98,7 +100,7 @@ def _gaps_and_overlaps(ctx: Context, placed: list[tuple[Fraction, Fraction, obje
     at = Fraction(0)
     for x1, x2, _, st in placed:
         if x1 > at:
-            ctx.error(st.stretch.span, f"no {key} covers {plain(at)} m to {plain(x1)} m",
+            ctx.whole(st.stretch.span, f"no {key} covers {plain(at)} m to {plain(x1)} m",
                       f"every part of the member needs a {key}: the stretches must meet end to end")
         elif x1 < at:
             ctx.error(st.stretch.span, f"this {key} overlaps another from {plain(x1)} m to "
@@ -106,7 +108,7 @@ def _gaps_and_overlaps(ctx: Context, placed: list[tuple[Fraction, Fraction, obje
         at = max(at, x2)
     if at < ctx.length:
         last = placed[-1][3]
-        ctx.error(last.stretch.span if last.stretch else last.span,
+        ctx.whole(last.stretch.span if last.stretch else last.span,
                   f"no {key} covers {plain(at)} m to {plain(ctx.length)} m (the end of the member)",
                   f"every part of the member needs a {key}: the last stretch must end at the span")
 
@@ -116,10 +118,27 @@ def material(ctx: Context, st: s.Material) -> m.Material | None:
     values = _properties(ctx, st.properties, MATERIAL_PROPERTIES, "material property", "material properties")
     if "E" not in values and not any(p.name.text == "E" for p in st.properties):
         ctx.error(st.span, "the material has no elastic modulus E", "for example `E 200 GPa`")
+    _strength_basis(ctx, st)
     if any(v is None for v in values.values()) or "E" not in values:
         return None
     return m.Material(st.name.text if st.name else None, values["E"], values.get("yield"),
-                      values.get("density"), st.span, values.get("shear"))
+                      values.get("density"), st.span, values.get("shear"), values.get("allowable bending"))
+
+
+def _strength_basis(ctx: Context, st: s.Material) -> None:
+    """A material's strength is a yield strength (a metal) or allowable stresses (bending with its shear), not both."""
+    given = {p.name.text: p for p in st.properties}
+    allowable = given.get("allowable bending")
+    if allowable is None:
+        return
+    if "yield" in given:
+        later = max(allowable, given["yield"], key=lambda p: p.span.col)
+        ctx.error(later.name.span, "a material gives its yield strength or its allowable bending stress, not both",
+                  "`yield` is a metal's yield strength (shear then fy/sqrt(3) unless `shear` is given); "
+                  "`allowable bending` and `shear` are allowable stresses, used as given")
+    if "shear" not in given:
+        ctx.error(allowable.name.span, "an allowable bending stress needs the allowable shear stress beside it",
+                  "add e.g. `shear 0.18 ksi`: the shear check never derives it from the bending value")
 
 
 def _properties(ctx: Context, props: tuple[s.Property, ...], kinds: dict[str, str], one: str,

@@ -8,10 +8,17 @@ from beamlang.language import syntax as s
 from beamlang.language.build.context import Context
 from beamlang.source import Span
 
+MAX_SUPPORTS = 1000  # the exact numbers of a continuous member grow with its spans: 1000 check in about 6 s
+
+
 
 def supports(ctx: Context, member_span: Span) -> tuple[m.Support, ...]:
     """The supports sorted by position (their positions also kept on the context, for settlements)."""
     stmts = ctx.of(s.Support)
+    if len(stmts) > MAX_SUPPORTS:
+        ctx.error(stmts[MAX_SUPPORTS].span, f"a member has at most {MAX_SUPPORTS} supports; this is support "
+                  f"{MAX_SUPPORTS + 1} of {len(stmts)}", "split the member into parts that each have fewer supports")
+        stmts = stmts[:MAX_SUPPORTS]
     out: list[m.Support] = []
     for st in stmts:
         sp = _support(ctx, st)
@@ -24,10 +31,10 @@ def supports(ctx: Context, member_span: Span) -> tuple[m.Support, ...]:
             continue
         out.append(sp)
     if not stmts:
-        ctx.error(member_span, "this member has no supports, so it cannot carry load",
+        ctx.whole(member_span, "this member has no supports, so it cannot carry load",
                   "add supports, e.g. `support pin at 0 m` and `support roller at span`")
     elif out and len(out) == len(stmts) and not _stable(out):
-        ctx.error(out[0].span, "these supports cannot carry load: the beam is a mechanism", _why_unstable(out))
+        ctx.whole(out[0].span, "these supports cannot carry load: the beam is a mechanism", _why_unstable(out))
     ctx.support_positions = {sp.x for sp in out}
     return tuple(sorted(out, key=lambda sp: sp.x))
 
@@ -91,7 +98,7 @@ def _stable_with_hinges(ctx: Context, supports: tuple[m.Support, ...], hinges: t
     except Mechanism as exc:
         h = hinges[exc.hinges[0]] if exc.hinges else hinges[0]
         others = ", ".join(f"line {hinges[j].span.line}" for j in exc.hinges[1:])
-        ctx.error(h.span, "this hinge makes the member a mechanism: the parts either side of it can turn",
+        ctx.whole(h.span, "this hinge makes the member a mechanism: the parts either side of it can turn",
                   "each part between hinges needs enough supports to stand on its own, or to hang "
                   "from a part that does: add a support or remove the hinge"
                   + (f" (the hinges on {others} take part too)" if others else ""))

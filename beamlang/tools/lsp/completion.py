@@ -26,8 +26,9 @@ WORDS = {"SHAPE": SHAPES, "SUPPORT_KIND": SUPPORT_KINDS, "FORCE_DIR": FORCE_DIRE
 STATEMENT_KIND = {"span": "length", "point": "force", "uniform": "force per length", "linear": "force per length",
                   "moment": "moment", "settlement": "length", "moving": "force", "limit": "length", "report": "length",
                   "support": "force per length"}
-WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "x": "length", "-": "length",
-             "supports": "angle", "spring": "force per length", **MATERIAL_PROPERTIES, **DIMENSION_KIND}
+WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "over": "length", "x": "length", "-": "length",
+             "supports": "angle", "spring": "force per length", **{k.split()[-1]: v for k, v in MATERIAL_PROPERTIES.items()},
+             **DIMENSION_KIND}
 
 
 def complete(analysed: Analysed, line: int, col: int, ranges: Ranges) -> types.CompletionList:
@@ -66,6 +67,10 @@ def _candidates(terminal: str, prefix: str, analysed: Analysed) -> list[Candidat
         words = prefix.split()
         return [(word, types.CompletionItemKind.Keyword, "flange width x thickness", "1")] if words[-3:-2] == [
             "flange"] else []
+    if word == "allowable":  # only a material without a strength yet takes `allowable bending`
+        words = prefix.split()
+        return [] if words[0] != "material" or {"yield", "allowable"} & set(words) else [
+            (word, types.CompletionItemKind.Keyword, "allowable bending STRESS shear STRESS", "1")]
     if word is not None:
         return [(word, types.CompletionItemKind.Keyword, None, "1")] if word[0].isalpha() else []
     if terminal in WORDS:
@@ -146,12 +151,17 @@ def _names(prefix: str, analysed: Analysed) -> list[Candidate]:
     targets = [(c.name.text, types.CompletionItemKind.Event, f"case, line {c.span.line}", "0") for c in cases]
     if words[0] == "combine":
         return targets if "=" in words else []
+    if words[0] == "pattern":
+        return targets
     if words[0] in ("limit", "check"):
         return targets + [(c.name.text, types.CompletionItemKind.Operator, f"combination, line {c.span.line}", "0")
                           for c in combos]
-    if words[0] == "material":
+    if words[0] == "material" and words[-1] == "allowable":
+        return [("bending", types.CompletionItemKind.Property, "stress", "0")]
+    if words[0] == "material":  # one strength: `yield`, or `allowable bending` (offered as its keyword)
+        strength = {"yield", "allowable"} & set(words)
         return [(p, types.CompletionItemKind.Property, MATERIAL_PROPERTIES[p], "0") for p in MATERIAL_PROPERTIES
-                if p not in words]
+                if p not in words and " " not in p and not (strength and p == "yield")]
     shape = next((w for w in words if w in SHAPE_DIMENSIONS), None)
     if words[0] == "section" and shape is not None:
         return [(d, types.CompletionItemKind.Property, DIMENSION_KIND.get(d, "length"), "0")

@@ -2,7 +2,7 @@
 
 The diagnostics come from the front end `check` uses (`frontend.from_source`: parse, then build), so their
 messages and spans are the same. The editor's features also need the statements of a file that does not
-parse yet: the lines that fail are read as blank lines, which keeps every other statement at its place."""
+parse yet: the lines that fail are left out (`parse.parse_recovering`), every other statement keeps its place."""
 
 from __future__ import annotations
 
@@ -16,7 +16,7 @@ from beamlang.errors import BeamError, Diagnostic
 from beamlang.language import syntax as s
 from beamlang.language.fmt import format_document
 from beamlang.language.frontend import from_source
-from beamlang.language.parse import parse
+from beamlang.language.parse import parse_recovering
 from beamlang.model import Member
 from beamlang.source import Source, Span
 
@@ -48,29 +48,18 @@ def analyse(name: str, text: str, path: Path | None = None) -> Analysed:
     try:
         loaded = from_source(source, path)
     except BeamError as exc:
-        document, parsed = _tolerant(source, exc)
+        document, parsed = _tolerant(source)
         return Analysed(text, exc.diagnostics, document, None, parsed)
     return Analysed(text, (), loaded.document, loaded.member, True)
 
 
-def _tolerant(source: Source, error: BeamError) -> tuple[s.Document | None, bool]:
+def _tolerant(source: Source) -> tuple[s.Document | None, bool]:
     """(the statements of every line that parses, whether the whole file does)."""
     try:
-        return parse(source), True  # it parses: the error came from validating it
-    except BeamError:
-        pass
-    bad = {d.span.line for d in error.diagnostics}
-    lines = [_ending(text) if i in bad else text for i, text in enumerate(source.text.splitlines(True), start=1)]
-    try:
-        partial = parse(Source(source.name, "".join(lines)))
-    except BeamError:
+        document, problems = parse_recovering(source)
+    except BeamError:  # over the size limits: nothing is read
         return None, False
-    return s.Document(source, partial.lines), False
-
-
-def _ending(line: str) -> str:
-    """The line break of a line (what is left of a line that fails to parse)."""
-    return line[len(line.splitlines()[0]):] if line.splitlines() else line
+    return document, not problems
 
 
 class Ranges:
@@ -147,6 +136,8 @@ def target_names(st: s.Statement) -> list[s.Name]:
         return own + [t.case for t in st.terms] if isinstance(st, s.Combine) else own
     if isinstance(st, (s.Limit, s.StressCheck)):
         return [st.target]
+    if isinstance(st, s.Pattern):
+        return [st.case]
     if isinstance(st, s.SlopeLimit) and st.target is not None:
         return [st.target]
     return []

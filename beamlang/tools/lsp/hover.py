@@ -11,7 +11,7 @@ from beamlang.exact import fraction
 from beamlang.language import syntax as s
 from beamlang.language.fmt import statement_text
 from beamlang.language.sections import SHAPE_DIMENSIONS
-from beamlang.language.units import SHORTHANDS, UnitProblem, exact_number, factor_of
+from beamlang.language.units import SHORTHANDS, UnitProblem, exact_number, factor_of, to_si
 from beamlang.language.vocabulary import FORMS, SHAPES, SUPPORT_KINDS
 from beamlang.source import Span
 from beamlang.tools.lsp.document import Analysed, Ranges, case_loads, combination, statement_at, target_names
@@ -52,7 +52,7 @@ def _parts(obj: object) -> list:
             found += _parts(getattr(obj, f.name))
         if isinstance(obj, (s.Quantity, s.Position)):
             found.append(obj)
-    if isinstance(obj, (s.Case, s.Combine, s.Limit, s.StressCheck, s.SlopeLimit)):
+    if isinstance(obj, (s.Case, s.Combine, s.Pattern, s.Limit, s.StressCheck, s.SlopeLimit)):
         found += target_names(obj)
     return found
 
@@ -66,7 +66,12 @@ def _describe(analysed: Analysed, part) -> str | None:
 
 
 def quantity_text(q: s.Quantity) -> str:
-    """`12 kN` = 12000 N exactly (a force), and the factor of its unit."""
+    """`12 kN` = 12000 N exactly (a force), and the factor of its unit; a length in parts, its exact sum."""
+    if q.parts:
+        try:
+            return f"`{q}` = {exact_text(to_si(q, 'length', 'a length'), 'm')} (a length, the sum of its parts)"
+        except UnitProblem as exc:
+            return exc.diagnostic.message
     f = factor_of(q.unit)
     if f is None:
         return f"`{q.unit}` is not a unit beamlang knows"
@@ -125,19 +130,18 @@ def _position_value(p: s.Position, length):
     if p.form == "fraction":
         divisor = exact_number(p.divisor, p.span)
         return length / divisor if divisor else None
-    f = factor_of(p.quantity.unit)
-    if f is None or f.kind != "length":
+    try:
+        return length - to_si(p.quantity, "length", "a position")
+    except UnitProblem:
         return None
-    return length - exact_number(p.quantity.number, p.span) * f.factor
 
 
 def _span_length(analysed: Analysed):
     st = next((st for _, st in analysed.statements() if isinstance(st, s.SpanLength)), None)
-    f = factor_of(st.length.unit) if st is not None else None
-    if f is None or f.kind != "length":
+    if st is None:
         return None
     try:
-        return exact_number(st.length.number, st.length.span) * f.factor
+        return to_si(st.length, "length", "the span")
     except UnitProblem:
         return None
 

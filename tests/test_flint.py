@@ -1,0 +1,109 @@
+"""python-flint against the own exact code it replaces: the same Sturm sequences, the same roots and
+extrema, the same resultants, on many random polynomials (the own code is the reference)."""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from beamlang.engine import roots
+from beamlang.engine.extrema import candidates, largest, largest_abs
+from beamlang.engine.moving import bivariate
+from beamlang.exact import Q
+from beamlang.poly import Piecewise, Poly, to_flint_poly
+
+rationals = st.builds(lambda n, d: Q(n, d), st.integers(-10**6, 10**6), st.integers(1, 10**4))
+small = st.builds(lambda n, d: Q(n, d), st.integers(-40, 40), st.integers(1, 12))
+
+
+@st.composite
+def polynomials(draw) -> Poly:
+    """Products of planted factors (rational roots, some repeated, and irreducible quadratics) and a
+    random factor: square-free and not, rational and irrational roots."""
+    p = Poly.of(draw(rationals.filter(bool)))
+    for r in draw(st.lists(small, max_size=4)):
+        p = p * Poly.of(-r, 1) * (Poly.of(-r, 1) if draw(st.booleans()) else Poly.of(1))
+    for c in draw(st.lists(small, max_size=2)):  # x^2 - c: roots +-sqrt(c) when c > 0
+        p = p * Poly.of(-c, 0, 1)
+    p = p * Poly.of(*draw(st.lists(rationals, min_size=1, max_size=5)))
+    return p
+
+
+def own(fn):
+    """Run fn with the own Python Sturm sequence in place of python-flint's."""
+    with pytest.MonkeyPatch.context() as patch:
+        patch.setattr(roots, "_sturm", lambda p: [to_flint_poly(q) for q in roots._own_sturm(p)])
+        return fn()
+
+
+def shape(found):
+    return [(r.lo, r.hi, r.exact, r.poly.coeffs) for r in found]
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials())
+def test_sturm_sequences_are_the_same_polynomials(p):
+    if p.degree < 2:
+        return
+    assert roots._sturm(p) == [to_flint_poly(q) for q in roots._own_sturm(p)]
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials(), small, st.integers(1, 200))
+def test_roots_are_identical_with_either_sturm_sequence(p, a, width):
+    b = a + Q(width, 7)
+    found = roots.roots_in(p, a, b)
+    assert shape(found) == shape(own(lambda: roots.roots_in(p, a, b)))
+    for r in found:  # and they are roots: a sign change or an exact zero
+        assert (r.exact is not None and p(r.exact) == 0) or (p(r.lo) > 0) != (p(r.hi) > 0)
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.lists(polynomials(), min_size=1, max_size=4))
+def test_extrema_are_identical_with_either_sturm_sequence(pieces):
+    xs = tuple(Q(k) for k in range(len(pieces) + 1))
+    curve = Piecewise(xs, tuple(pieces))
+    slope = curve.map(Poly.derivative)
+
+    def extremes():
+        c = candidates(curve, slope, xs[0], xs[-1])
+        return [(k.x, k.value) for k in c], [(e.x, e.value) for e in filter(None, (largest(c, 1), largest(c, -1),
+                                                                                    largest_abs(c)))]
+    assert extremes() == own(extremes)
+
+
+@st.composite
+def in_x(draw, degree: int) -> list[Poly]:
+    """A polynomial in x of this degree whose coefficients are polynomials in p (degree up to 3)."""
+    out = [Poly.of(*draw(st.lists(small, min_size=1, max_size=4))) for _ in range(degree + 1)]
+    if not out[-1]:
+        out[-1] = Poly.of(1)
+    return out
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.integers(3, 4).flatmap(lambda m: st.tuples(in_x(m), st.integers(1, m - 1).flatmap(in_x))))
+def test_resultants_are_the_same_polynomial(pair):
+    A, B = pair
+    if not B[-1]:
+        return
+    assert bivariate._flint_resultant(A, B) == bivariate._sylvester_resultant(A, B)
+
+
+def test_a_resultant_vanishes_where_the_two_share_a_root():
+    """A = (x - p)(x^2 + 1) and B = x - 2 share the root x = 2 only at p = 2 (Res_x = (2 - p) * 5)."""
+    A = [Poly.of(0, -1), Poly.of(1), Poly.of(0, -1), Poly.of(1)]  # x^3 - p x^2 + x - p
+    B = [Poly.of(-2), Poly.of(1)]
+    res = bivariate._flint_resultant(A, B)
+    assert res(Q(2)) == 0 and res(Q(3)) != 0
+    assert res == bivariate._sylvester_resultant(A, B)
+    assert abs(res.coeffs[-1]) == 5 and res.degree == 1
+
+
+def test_conversions_keep_every_digit():
+    c = Q(3**90, 7**40)
+    p = Poly.of(c, -c, Fraction(1, 3))
+    assert roots.from_flint_poly(to_flint_poly(p)) == p
