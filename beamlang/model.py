@@ -21,6 +21,7 @@ class Material:
     span: Span
     shear_strength: Fraction | None = None  # Pa; given: the shear check uses it instead of yield/sqrt(3)
     allowable_bending: Fraction | None = None  # Pa; given (timber, aluminium): the bending check's limit, no yield
+    G: Fraction | None = None  # Pa, the shear modulus (for shear deformation)
 
     @property
     def bending_strength(self) -> Fraction | None:
@@ -42,6 +43,8 @@ class SectionProperties:
     t: Fraction | None  # m, width at the neutral axis (for V*Q/(I*t))
     span: Span
     designation: str | None = None  # the name written on the section line (a catalogue's), not a design value
+    shear_area: Fraction | None = None  # m^2, kappa A (the area that carries shear in V / (kappa G A))
+    shear_rule: str = ""  # how kappa A was found, with its source
 
 
 @dataclass(frozen=True, slots=True)
@@ -57,6 +60,11 @@ class Stretch:
     @property
     def EI(self) -> Fraction:
         return self.material.E * self.section.I
+
+    @property
+    def GA(self) -> Fraction:
+        """The shear stiffness kappa G A (needs G and the section's shear area)."""
+        return self.material.G * self.section.shear_area
 
 
 @dataclass(frozen=True, slots=True)
@@ -168,6 +176,16 @@ class SlopeLimit:
 
 
 @dataclass(frozen=True, slots=True)
+class FrequencyLimit:
+    """The least fundamental frequency (Hz); the mass is the loads of the cases, factored, divided by g."""
+
+    value: Fraction  # Hz
+    terms: tuple[tuple[Fraction, str], ...]  # (factor, case name)
+    text: str  # the mass as written: "dead + 0.3 live"
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class StressCheck:
     target: str
     span: Span
@@ -198,6 +216,8 @@ class Member:
     notes: tuple[str, ...]
     document: s.Document  # the syntax it was built from: author's units, comments, spans
     span: Span
+    shear_deformation: bool = False  # `include shear deformation`: deflections add V / (kappa G A)
+    frequency_limits: tuple[FrequencyLimit, ...] = ()
 
     @property
     def stepped(self) -> bool:

@@ -7,6 +7,7 @@ from pathlib import Path
 
 from beamlang.analysis.checks import Check, run_checks
 from beamlang.analysis.display import report_units
+from beamlang.analysis.frequency import FrequencyResult, natural_frequencies
 from beamlang.language.frontend import Loaded, load
 from beamlang.analysis.required import Required, required_section
 from beamlang.analysis.results import TargetResult, evaluate
@@ -21,6 +22,7 @@ class Analysis:
     checks: tuple[Check, ...]
     required: Required
     units: dict[str, str]  # the report unit of each quantity, chosen once from the member (display.report_units)
+    frequencies: tuple[FrequencyResult, ...] = ()  # one per `limit frequency` line
 
     def result(self, name: str) -> TargetResult:
         """The results of one case or combination."""
@@ -34,8 +36,10 @@ class Analysis:
 def analyse_loaded(item: Loaded) -> Analysis:
     solution = solve(item.member)            # every load's exact curve, force method, superposed
     results = evaluate(solution)             # reactions, located extrema, stresses, cross-check
-    checks = run_checks(item.member, results)  # limits and stress against the member's statements
-    return Analysis(item, solution, results, checks, required_section(item.member, checks), report_units(item.member))
+    frequencies = natural_frequencies(item.member)  # first bending frequency per `limit frequency` line
+    checks = run_checks(item.member, results, frequencies)  # limits and stress against the member's statements
+    return Analysis(item, solution, results, checks, required_section(item.member, checks), report_units(item.member),
+                    frequencies)
 
 
 def analyse(path: Path) -> Analysis:

@@ -6,10 +6,10 @@ from hypothesis import strategies as st
 
 SYSTEMS = {
     "si": {"length": ("m", 1000, "mm"), "force": ("kN", "N"), "line": ("kN/m", "N/mm"), "moment": ("kN*m", "kN\u00b7m"),
-           "E": "200 GPa", "yield": "350 MPa", "density": "7850 kg/m^3", "spring": "5 kN/mm",
+           "E": "200 GPa", "G": "80 GPa", "yield": "350 MPa", "density": "7850 kg/m^3", "spring": "5 kN/mm",
            "allowable": "allowable bending 150 MPa shear 90 MPa", "pressure": "kPa", "width": "1 m 200 mm"},
     "us": {"length": ("ft", 12, "in"), "force": ("kip", "lbf"), "line": ("kip/ft", "lbf/ft"), "moment": ("kip*ft", "kip*in"),
-           "E": "29000 ksi", "yield": "50 ksi", "density": "490 lb/ft^3", "spring": "30 kip/in",
+           "E": "29000 ksi", "G": "11200 ksi", "yield": "50 ksi", "density": "490 lb/ft^3", "spring": "30 kip/in",
            "allowable": "allowable bending 1.2 ksi shear 0.18 ksi", "pressure": "psf", "width": "16 in"},
 }
 SECTIONS = {
@@ -52,7 +52,7 @@ def members(draw) -> str:
     lines = [f'member M-{draw(st.integers(1, 99))}{gap()}"Generated member"',
              f"span{gap()}{span} {unit}",
              f"material steel E {u['E']}{gap()}"
-             + draw(st.sampled_from([f"yield {u['yield']}", u["allowable"]])) + f" density {u['density']}",
+             + draw(st.sampled_from([f"yield {u['yield']}", u["allowable"]])) + f" density {u['density']} G {u['G']}",
              'project "Generated"  # a comment']
     inside = st.integers(1, span * sub - 1).filter(lambda k: 2 * k != span * sub)  # not an end, not span/2
     sections = draw(st.lists(st.sampled_from(SECTIONS[system]), min_size=1, max_size=3))
@@ -62,6 +62,8 @@ def members(draw) -> str:
         cuts = sorted(draw(st.lists(inside, min_size=len(sections) - 1, max_size=len(sections) - 1, unique=True)))
         ends = ["0 " + unit] + [f"{k} {fine}" for k in cuts] + ["span"]
         lines += [f"{sec} from {a} to {b}" for sec, a, b in zip(sections, ends, ends[1:])]
+    if not any("properties" in sec for sec in sections) and draw(st.booleans()):
+        lines.append("include shear deformation")  # every shape but `properties` has its shear area
     layouts = [["fixed at 0 " + unit], ["pin at 0 " + unit, "roller at span"],
                ["fixed at 0 " + unit, "roller at span"], ["fixed at 0 " + unit, "fixed at span"],
                ["pin at 0 " + unit, f"spring {u['spring']} at span/2", "roller at span"]]

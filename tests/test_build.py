@@ -71,7 +71,7 @@ def test_rebuild_in_another_process_is_byte_identical(built, tmp_path):
 
 def test_package_has_every_file_and_valid_math(built):
     marks = {name.split("/")[0] for name in built}
-    assert marks == {"B-3", "CA-1", "G-5", "HR-1", "J-12", "J-14", "J-22", "L-4", "MF-2", "P-7", "P-9", "SH-2"}
+    assert marks == {"B-3", "CA-1", "FB-1", "G-5", "HR-1", "J-12", "J-14", "J-22", "L-4", "MF-2", "P-7", "P-9", "SH-2"}
     for mark in marks:
         assert {f"{mark}/{mark}.md", f"{mark}/{mark}.html", f"{mark}/results.json",
                 f"{mark}/figures/sign-convention.svg"} <= set(built)

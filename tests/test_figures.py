@@ -128,7 +128,7 @@ def test_every_load_label_lies_inside_the_loads_panel(path):
     from beamlang.pipeline import analyse
     a = analyse(path)
     for key in figures.figure_names(a):
-        if key in ("sign convention", "(envelope)") or key.startswith("(moving) "):
+        if key in ("sign convention", "(envelope)") or key.startswith(("(moving) ", "(mode) ")):
             continue
         root = ET.fromstring(figures.target_figure(a, key))
         x, y, w, h = _box(root)

@@ -258,8 +258,8 @@ US = (EXAMPLES / "floor-joist-sized-us.beam").read_text(encoding="utf-8")
 @pytest.mark.parametrize("text, line, expected", [
     (GOOD, "section I-shape depth 250 mm flange 150 mm ", ["web", "from", "x"]),  # a flange is width x thickness
     (GOOD, "section rectangle width 100 mm ", ["depth", "from"]),  # no `x` after another dimension
-    (GOOD, "material E 200 GPa yield 350 MPa ", ["density", "shear", "from"]),
-    (GOOD, "material E 1400 ksi ", ["density", "shear", "yield", "allowable", "from"]),
+    (GOOD, "material E 200 GPa yield 350 MPa ", ["G", "density", "shear", "from"]),
+    (GOOD, "material E 1400 ksi ", ["G", "density", "shear", "yield", "allowable", "from"]),
     (GOOD, "material E 1400 ksi allowable ", ["bending"]),
     (GOOD, "  linear 0 kN/m to 4", ["N/mm", "kN/m", "kN/mm", "kip/ft", "kip/in", "klf", "lbf/ft", "lbf/in", "plf"]),
     (GOOD, "  linear 0 kN/m to 4 kN/m down from 3", ["cm", "km", "m", "mm", "ft", "in"]),
@@ -269,7 +269,7 @@ US = (EXAMPLES / "floor-joist-sized-us.beam").read_text(encoding="utf-8")
     (GOOD, "  moving 11 kN and 9 kN down spaced 0.45 m and 1", ["cm", "km", "m", "mm", "ft", "in"]),
     (US, "  point 300 ", ["kip", "lbf", "MN", "N", "kN"]),  # a US member: its own units first
     (GOOD, "  moment 3 kN*m ", ["clockwise", "counterclockwise"]),
-    (GOOD, "limit ", ["deflection", "slope"]),
+    (GOOD, "limit ", ["deflection", "frequency", "slope"]),
     (GOOD, "units ", ["si", "us"]),
     (GOOD, "# a comment ", []),
     (GOOD, 'note "a text ', []),

@@ -18,11 +18,11 @@ SQRT3 = Fraction("1.732050807568877293527446341505872366943")
 
 @dataclass(frozen=True, slots=True)
 class Check:
-    kind: str  # "deflection" | "support slope" | "bending stress" | "shear stress"
+    kind: str  # "deflection" | "support slope" | "bending stress" | "shear stress" | "frequency"
     target: str
     actual: Fraction
     allowed: Fraction
-    unit: str  # SI unit of actual and allowed: "m", "rad" or "Pa"
+    unit: str  # SI unit of actual and allowed: "m", "rad", "Pa" or "Hz" (a frequency's allowed value is its least)
     passed: bool
     x: Fraction | None  # governing location
     basis: str  # how the allowed value was found
@@ -36,6 +36,7 @@ class Check:
     at: Located | None = None  # the governing deflection, or the moment or shear that gives the stress
     stretch: int | None = None  # stress: index of the stretch whose section and material give it
     strength: str = ""  # stress: what the allowed value is ("yield", "shear", "von Mises")
+    parts: tuple[Fraction, Fraction] | None = None  # deflection with shear deformation: (bending, shear) parts, signed
 
     @property
     def label(self) -> str:
@@ -47,11 +48,14 @@ class Check:
 
     @property
     def ratio(self) -> float:
+        """Actual over allowed; for a frequency, whose limit is a least value, the limit over the frequency."""
+        if self.kind == "frequency":
+            return float(self.allowed / self.actual)
         return float(self.actual / self.allowed)
 
 
-def run_checks(member: Member, results: tuple[TargetResult, ...]) -> tuple[Check, ...]:
-    """Every `limit deflection` and `check stress` statement, in file order."""
+def run_checks(member: Member, results: tuple[TargetResult, ...], frequencies=()) -> tuple[Check, ...]:
+    """Every `limit deflection`, `limit slope`, `check stress` and `limit frequency` statement, in file order."""
     by_name = {r.name: r for r in results}
     out: list[Check] = []
     for limit in member.limits:
@@ -60,6 +64,8 @@ def run_checks(member: Member, results: tuple[TargetResult, ...]) -> tuple[Check
         out.extend(_slopes(member, limit, results))
     for check in member.stress_checks:
         out.extend(_stress(member, check, by_name[check.target]))
+    for found in frequencies:
+        out.append(_frequency(found))
     return tuple(sorted(out, key=lambda c: (c.span.line, c.kind)))  # stable: spans stay in order
 
 
@@ -70,11 +76,12 @@ def _deflection(limit, r: TargetResult) -> list[Check]:
         worst = max((l for l in (r.max_down, r.max_up) if l is not None), key=lambda l: abs(l.value), default=None)
         actual = abs(worst.value) if worst else Fraction(0)
         return [Check("deflection", limit.target, actual, limit.value, "m", actual <= limit.value,
-                      worst.x if worst else None, "absolute limit", limit.span, at=worst)]
-    return [_span_check(limit, region) for region in r.regions]
+                      worst.x if worst else None, "absolute limit", limit.span, at=worst,
+                      parts=r.deflection_parts(worst))]
+    return [_span_check(limit, region, r) for region in r.regions]
 
 
-def _span_check(limit, region: Region) -> Check:
+def _span_check(limit, region: Region, r: TargetResult) -> Check:
     allowed = region.basis / limit.divisor
     actual = abs(region.max_abs.value) if region.max_abs else Fraction(0)
     n = plain(limit.divisor)
@@ -85,7 +92,8 @@ def _span_check(limit, region: Region) -> Check:
                  f"from x = {plain(region.lo)} m (twice the length: common practice)")
     x = region.max_abs.x if region.max_abs else None
     return Check("deflection", limit.target, actual, allowed, "m", actual <= allowed, x, basis, limit.span,
-                 region.kind, region.name, region.lo, region.hi, limit.divisor, region.basis, region.max_abs)
+                 region.kind, region.name, region.lo, region.hi, limit.divisor, region.basis, region.max_abs,
+                 parts=r.deflection_parts(region.max_abs))
 
 
 def _stress(member: Member, check, r: TargetResult) -> list[Check]:
@@ -139,3 +147,14 @@ def _slopes(member: Member, limit, results: tuple[TargetResult, ...]) -> list[Ch
                              "the user", limit.span))
     return out
 
+
+
+def _frequency(found) -> Check:
+    """The fundamental frequency against its least value (a float eigenvalue, or the closed form: see `method`)."""
+    f = found.frequency
+    actual = Fraction(f"{f.hz:.9g}")  # 9 digits: far below the 1e-6 tolerance, above the LAPACK build's noise
+    limit = found.limit
+    how = ("closed form f1 = pi / (2 L^2) sqrt(EI / m)" if f.method == "closed form" else
+           f"finite elements, {f.elements} elements, converged to {f.change:.1e} relative (tolerance 1e-06)")
+    return Check("frequency", f"mass {limit.text}", actual, limit.value, "Hz", actual >= limit.value, None,
+                 f"f1 at least the limit; {how}", limit.span)

@@ -12,13 +12,15 @@ from beamlang.poly import Poly
 REPORT_UNITS = {
     # "section": the length unit of section dimensions and properties (mm^4, in^4, ...)
     "si": {"length": "m", "deflection": "mm", "force": "kN", "moment": "kN*m", "stress": "MPa", "slope": "rad",
-           "section": "mm", "line load": "kN/m", "density": "kg/m^3"},
+           "section": "mm", "line load": "kN/m", "density": "kg/m^3", "frequency": "Hz", "mass per length": "kg/m",
+           "mass": "kg"},
     "us": {"length": "ft", "deflection": "in", "force": "kip", "moment": "kip*ft", "stress": "ksi", "slope": "rad",
-           "section": "in", "line load": "plf", "density": "lb/ft^3"},
+           "section": "in", "line load": "plf", "density": "lb/ft^3", "frequency": "Hz", "mass per length": "lb/ft",
+           "mass": "lb"},
 }
 
 
-CHECK_QUANTITY = {"m": "deflection", "rad": "slope", "Pa": "stress"}  # a check's SI unit -> its report quantity
+CHECK_QUANTITY = {"m": "deflection", "rad": "slope", "Pa": "stress", "Hz": "frequency"}  # a check's SI unit -> its report quantity
 
 SMALL_US = {"length": "in", "moment": "kip*in"}  # members whose span is written in inches
 

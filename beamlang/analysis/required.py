@@ -30,6 +30,9 @@ def required_section(member: Member, checks: tuple[Check, ...]) -> Required:
             isinstance(ld, Settlement) for case in member.cases for ld in case.loads):
         return Required(None, None, None, None, "not computed: with springs or settlements deflection is not "
                                                 "proportional to 1/I (change the section and check again)")
+    if member.shear_deformation:
+        return Required(None, None, None, None, "not computed: with shear deformation deflection is not "
+                                                "proportional to 1/I (change the section and check again)")
     deflection = [c for c in checks if c.kind == "deflection" and c.actual]
     bending = [c for c in checks if c.kind == "bending stress"]
     I_check = max(deflection, key=lambda c: c.actual / c.allowed, default=None)

@@ -14,6 +14,7 @@ from beamlang.engine.statics import region_bounds
 if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
     from beamlang.analysis.patterned import PatternResult
     from beamlang.engine.moving import Critical, Envelope
+    from beamlang.poly import Piecewise
 
 SIGN_CONVENTION = ("x from the left end; deflection, loads and reaction forces positive up; bending moment "
                    "positive sagging; slope dv/dx in radians, positive counterclockwise; reaction moments "
@@ -95,6 +96,14 @@ class TargetResult:
     reaches: tuple = ()  # moving targets: per support, its force's largest and smallest over the positions
     moment_reaches: tuple = ()  # the same for the support moments
     pattern: "PatternResult | None" = None  # targets with patterned cases: the envelopes and each extreme's arrangement
+    shear_deflection: "Piecewise | None" = None  # the shear part of the deflection, with shear deformation
+
+    def deflection_parts(self, at: Located | None) -> tuple[Fraction, Fraction] | None:
+        """The bending and shear parts of a located deflection, when the member includes shear deformation."""
+        if self.shear_deflection is None or at is None:
+            return None
+        shear = self.shear_deflection.at(at.x, at.side or "right")
+        return at.value - shear, shear
 
     def position(self, field: str) -> "Critical | None":
         return dict(self.positions).get(field)
@@ -119,7 +128,7 @@ def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> Ta
         return patterned_target(sol, t, parts)
     m, c = sol.member, t.curves
     L = m.length
-    defl = candidates(c.v, c.theta, Fraction(0), L)
+    defl = candidates(c.v, c.slope, Fraction(0), L)
     moment = candidates(c.M, c.V, Fraction(0), L)
     shear = candidates(c.V, derivative_of(c.V), Fraction(0), L)
     slope = candidates(c.theta, derivative_of(c.theta), Fraction(0), L)
@@ -131,7 +140,8 @@ def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> Ta
         tuple((sp.x, support_slope(c.theta, sp.x)) for sp in m.supports),
         m_pos, m_neg, v_max,
         tuple((p.x, c.v.at(p.x), c.theta.at(p.x)) for p in m.report_points),
-        regions(sol, defl), _stress(sol, moment, shear), _cross_check(sol, t, fe), tuple(defl), tuple(moment))
+        regions(sol, defl), _stress(sol, moment, shear), _cross_check(sol, t, fe), tuple(defl), tuple(moment),
+        shear_deflection=c.vs)
 
 
 def support_slope(theta, x: Fraction) -> Fraction:

@@ -1,4 +1,8 @@
-"""Independent cross-check: member + case loads -> nodal deflections by Hermite-cubic finite elements (numpy, floats)."""
+"""Independent cross-check: member + case loads -> nodal deflections by Hermite-cubic finite elements (numpy, floats).
+
+With shear deformation the elements are the shear-flexible cubic elements (phi = 12 EI / (kappa G A l^2);
+J. S. Przemieniecki, Theory of Matrix Structural Analysis, 1968, from memory), whose shape functions solve the
+unloaded Timoshenko beam exactly, so that work-equivalent loads still give exact nodal values."""
 
 from __future__ import annotations
 
@@ -56,16 +60,19 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
         count = right[-1] + 1
     K = np.zeros((count, count), dtype=np.longdouble)
     F = np.zeros(count, dtype=np.longdouble)
+    phis = []
     for e in range(n - 1):
         l = x[e + 1] - x[e]
-        EI = _ld(member.stretch_at((xs[e] + xs[e + 1]) / 2).EI)
-        k = EI / l**3 * np.array([[12, 6 * l, -12, 6 * l], [6 * l, 4 * l * l, -6 * l, 2 * l * l],
-                                  [-12, -6 * l, 12, -6 * l], [6 * l, 2 * l * l, -6 * l, 4 * l * l]])
+        stretch = member.stretch_at((xs[e] + xs[e + 1]) / 2)
+        EI = _ld(stretch.EI)
+        phi = 12 * EI / (_ld(stretch.GA) * l * l) if member.shear_deformation else np.longdouble(0)
+        phis.append(phi)
+        k = element_stiffness(EI, phi, l)
         dofs = [v_dof[e], right[e], v_dof[e + 1], left[e + 1]]
         K[np.ix_(dofs, dofs)] += k
     index = {v: i for i, v in enumerate(xs)}
     for factor, load in loads:
-        _add_load(F, _ld(factor), load, x, (v_dof, left, right))
+        _add_load(F, _ld(factor), load, x, (v_dof, left, right), phis)
     fixed: list[int] = []
     moved = np.zeros(count, dtype=np.longdouble)  # prescribed support movements
     for factor, load in loads:
@@ -87,6 +94,12 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
     with _one_thread():
         u[free] = _solve_refined(K[np.ix_(free, free)], rhs)
     return u[v_dof], u[right]
+
+
+def element_stiffness(EI, phi, l) -> np.ndarray:
+    """The 4 x 4 stiffness of one element (v1, theta1, v2, theta2): Hermite when phi = 0, else shear-flexible."""
+    return EI / (l**3 * (1 + phi)) * np.array([[12, 6 * l, -12, 6 * l], [6 * l, (4 + phi) * l * l, -6 * l, (2 - phi) * l * l],
+                                               [-12, -6 * l, 12, -6 * l], [6 * l, (2 - phi) * l * l, -6 * l, (4 + phi) * l * l]])
 
 
 def _ld(value) -> np.longdouble:
@@ -114,10 +127,14 @@ _GAUSS = [(np.longdouble(0.5) - np.sqrt(np.longdouble(0.15)), np.longdouble(5) /
           (np.longdouble(0.5) + np.sqrt(np.longdouble(0.15)), np.longdouble(5) / 18)]  # exact to degree 5
 
 
-def _shape(xi, l):
-    """Hermite shape functions N1..N4 and their x-derivatives at xi = (x - x_e) / l."""
-    n = [1 - 3 * xi**2 + 2 * xi**3, l * (xi - 2 * xi**2 + xi**3), 3 * xi**2 - 2 * xi**3, l * (-xi**2 + xi**3)]
-    d = [(-6 * xi + 6 * xi**2) / l, 1 - 4 * xi + 3 * xi**2, (6 * xi - 6 * xi**2) / l, -2 * xi + 3 * xi**2]
+def shape(xi, l, phi=0):
+    """Shape functions N1..N4 of the deflection and of the section rotation at xi = (x - x_e) / l: Hermite cubics
+    and their x-derivatives when phi = 0, else those of the shear-flexible element (phi = 12 EI / (kappa G A l^2))."""
+    p = 1 + phi
+    n = [(1 - xi) * (phi + 1 + xi - 2 * xi**2) / p, l * xi * (1 - xi) * (phi + 2 - 2 * xi) / (2 * p),
+         xi * (phi + 3 * xi - 2 * xi**2) / p, -l * xi * (1 - xi) * (phi + 2 * xi) / (2 * p)]
+    d = [-6 * xi * (1 - xi) / (l * p), (1 - xi) * (phi + 1 - 3 * xi) / p, 6 * xi * (1 - xi) / (l * p),
+         xi * (phi + 3 * xi - 2) / p]
     return n, d
 
 
@@ -125,7 +142,7 @@ def _element(x: np.ndarray, at) -> int:
     return min(max(int(np.searchsorted(x, _ld(at), side="right")) - 1, 0), len(x) - 2)
 
 
-def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs) -> None:
+def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs, phis) -> None:
     """Consistent (work-equivalent) nodal loads: sum of N_k times the load over the element."""
     v_dof, left, right = dofs
 
@@ -135,7 +152,7 @@ def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs) -> None:
     if isinstance(load, (PointLoad, MomentLoad)):
         e = _element(x, load.x)
         l = x[e + 1] - x[e]
-        n, d = _shape((_ld(load.x) - x[e]) / l, l)
+        n, d = shape((_ld(load.x) - x[e]) / l, l, phis[e])
         weights = n if isinstance(load, PointLoad) else d
         value = factor * _ld(load.force if isinstance(load, PointLoad) else load.moment)
         for k, d in enumerate(element(e)):
@@ -152,7 +169,7 @@ def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs) -> None:
             l = x[e + 1] - x[e]
             for g, wt in _GAUSS:
                 at = a + (b - a) * g
-                n, _ = _shape((at - x[e]) / l, l)
+                n, _ = shape((at - x[e]) / l, l, phis[e])
                 q = factor * (w0 + w1 * at) * wt * (b - a)
                 for k, d in enumerate(element(e)):
                     F[d] += q * n[k]

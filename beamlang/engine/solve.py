@@ -18,21 +18,31 @@ BANDED_FROM = 6  # redundants from which a load is solved in banded stiffness fo
 
 @dataclass(frozen=True, slots=True)
 class Curves:
-    """Shear, moment, slope and deflection (SI), with the reaction (force, moment) at every support."""
+    """Shear, moment, slope and deflection (SI), with the reaction (force, moment) at every support.
+
+    With shear deformation, `v` holds both parts and `vs` the shear part alone (v - vs is the bending part);
+    `theta` is then the rotation of the cross-section, and the slope of `v` is theta - V / (kappa G A)."""
 
     V: Piecewise
     M: Piecewise
     theta: Piecewise
     v: Piecewise
     reactions: tuple[tuple[Fraction, Fraction], ...]
+    vs: Piecewise | None = None  # the shear part of v, when the member includes shear deformation
 
     def __add__(self, other: "Curves") -> "Curves":
+        vs = self.vs if other.vs is None else (other.vs if self.vs is None else self.vs + other.vs)
         return Curves(self.V + other.V, self.M + other.M, self.theta + other.theta, self.v + other.v,
-                      tuple((a + c, b + d) for (a, b), (c, d) in zip(self.reactions, other.reactions)))
+                      tuple((a + c, b + d) for (a, b), (c, d) in zip(self.reactions, other.reactions)), vs)
 
     def scaled(self, k) -> "Curves":
         return Curves(self.V * k, self.M * k, self.theta * k, self.v * k,
-                      tuple((a * k, b * k) for a, b in self.reactions))
+                      tuple((a * k, b * k) for a, b in self.reactions), None if self.vs is None else self.vs * k)
+
+    @property
+    def slope(self) -> Piecewise:
+        """dv/dx: the section rotation, plus the shear strain where shear deformation is included."""
+        return self.theta if self.vs is None else self.v.map(lambda p: p.derivative())
 
 
 @dataclass(frozen=True, slots=True)
@@ -289,7 +299,7 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
     for x_j, r in zip(X, primary.redundants):
         force, moment = reactions[r.support]
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
-    total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions))
+    total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions), total.vs)
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
 
 
@@ -324,6 +334,9 @@ def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> 
     V, M = shear_and_moment(xs, actions)
     theta0 = Piecewise(xs, tuple(p * (1 / ei) for p, ei in zip(M.pieces, EI))).integral()
     v0 = theta0.integral()
+    vs0 = shear_part(member, xs, V)
+    if vs0 is not None:
+        v0 = v0 + vs0
     moved = prescribed(member, loads)
     wanted = []
     for r in primary.kept:
@@ -332,16 +345,37 @@ def _on_primary(member: Member, xs, EI, primary: Primary, loads: list[Load]) -> 
             wanted.append(_settlement(sps[r.support], reactions[r.support][0]) + moved.get(x, Q(0)) - v0.at(x))
         else:
             wanted.append(-theta0.at(x))
-    c1, c2, *jumps = _apply(primary.kinematics, wanted)
+    theta_add, v_add = _rigid(xs, hinges, _apply(primary.kinematics, wanted))
+    theta = Piecewise(xs, tuple(p + q for p, q in zip(theta0.pieces, theta_add)))
+    v = Piecewise(xs, tuple(p + q for p, q in zip(v0.pieces, v_add)))
+    vs = None
+    if vs0 is not None:  # the shear part alone: its own integral, fixed at the kept supports in the same way
+        shear_wanted = [-vs0.at(sps[r.support].x) if r.kind == "force" else Q(0) for r in primary.kept]
+        vs = Piecewise(xs, tuple(p + q for p, q in zip(vs0.pieces, _rigid(xs, hinges, _apply(
+            primary.kinematics, shear_wanted))[1])))
+    return Curves(V, M, theta, v, tuple(reactions), vs)
+
+
+def shear_part(member: Member, xs, V: Piecewise) -> Piecewise | None:
+    """The shear deflection, minus the integral of V / (kappa G A) from the left end, segment by segment (None
+    without shear deformation). Minus: V is the sum of the upward forces left of x, which slide the part left of
+    x upward against the part right of it, so v falls to the right where V > 0."""
+    if not member.shear_deformation:
+        return None
+    GA = tuple(member.stretch_at((a + b) / 2).GA for a, b in zip(xs, xs[1:]))
+    return Piecewise(xs, tuple(p * (-1 / ga) for p, ga in zip(V.pieces, GA))).integral()
+
+
+def _rigid(xs, hinges, constants) -> tuple[list[Poly], list[Poly]]:
+    """The rigid-body part per segment: c1 + c2 x, plus each hinge's slope jump right of it."""
+    c1, c2, *jumps = constants
     theta_add, v_add = [], []
     for a in xs[:-1]:
         left = [(h, j) for h, j in zip(hinges, jumps) if h <= a]
         slope = c2 + sum((j for _, j in left), Q(0))
         theta_add.append(Poly.of(slope))
         v_add.append(Poly.of(c1 - sum((j * h for h, j in left), Q(0)), slope))
-    theta = Piecewise(xs, tuple(p + q for p, q in zip(theta0.pieces, theta_add)))
-    v = Piecewise(xs, tuple(p + q for p, q in zip(v0.pieces, v_add)))
-    return Curves(V, M, theta, v, tuple(reactions))
+    return theta_add, v_add
 
 
 def prescribed(member: Member, loads) -> dict[Fraction, Fraction]:

@@ -158,8 +158,10 @@ MAX_REDUNDANTS = 2  # beyond this (or with springs) the general formula is too l
 
 
 def worth_deriving(member: Member, redundants: int) -> bool:
-    """Symbolic formulas are shown for prismatic members without hinges or springs, up to two redundants."""
-    return (redundants <= MAX_REDUNDANTS and not any(sp.kind == "spring" for sp in member.supports)
+    """Symbolic formulas are shown for prismatic members without hinges, springs or shear deformation, up to two
+    redundants."""
+    return (redundants <= MAX_REDUNDANTS and not member.shear_deformation
+            and not any(sp.kind == "spring" for sp in member.supports)
             and not member.stepped and not member.hinges)
 
 

@@ -6,7 +6,7 @@ from beamlang.language import syntax as s
 from beamlang.language.build import FIELD_ORDER
 from beamlang.language.sections import SHAPE_DIMENSIONS
 
-MATERIAL_ORDER = ("E", "yield", "allowable bending", "shear", "density")
+MATERIAL_ORDER = ("E", "G", "yield", "allowable bending", "shear", "density")
 INDENT = "  "
 
 
@@ -58,11 +58,11 @@ def _group_key(st: s.Statement) -> str:
 _KEY = {s.Member: "member", s.Units: "units", s.SpanLength: "span", s.Material: "material",
         s.Section: "section", s.Support: "support", s.Hinge: "hinge", s.Case: "case", s.Combine: "combine",
         s.Pattern: "pattern", s.Limit: "limit", s.SlopeLimit: "slope", s.StressCheck: "check", s.Report: "report", s.Note: "note",
-        s.Catalogue: "catalogue"}
+        s.Catalogue: "catalogue", s.Include: "include", s.FrequencyLimit: "limit"}
 _GROUP_ORDER = ("title", "geometry", "support", "case", "rest", "note", "orphan")
 _MEMBERS = {
     "title": ("member",) + tuple("field:" + f for f in FIELD_ORDER),
-    "geometry": ("units", "span", "material", "section", "catalogue"),
+    "geometry": ("units", "span", "material", "section", "include", "catalogue"),
     "support": ("support", "hinge"), "case": ("case",), "rest": ("pattern", "combine", "limit", "slope", "check", "report"),
     "note": ("note",), "orphan": ("orphan",),
 }
@@ -151,4 +151,7 @@ _TEXT = {
     s.Report: lambda st: f"report deflection at {st.at}",
     s.Note: lambda st: f"note {_quote(st.text)}",
     s.Catalogue: lambda st: f"catalogue {_quote(st.path)}",
+    s.Include: lambda st: "include shear deformation",
+    s.FrequencyLimit: lambda st: f"limit frequency {_q(st.value)} mass " + " + ".join(
+        (f"{t.factor} " if t.factor is not None else "") + t.case.text for t in st.terms),
 }

@@ -65,6 +65,7 @@ class BeamLexer(RegexLexer):
             (NUMBER, Number),  # span/360, span/2
             (words(FORCE_DIRECTIONS + TURN_DIRECTIONS + SYSTEMS, prefix=_START, suffix=_END), Keyword.Constant),
             (words(SHAPES + SUPPORT_KINDS, prefix=_START, suffix=_END), Name.Builtin),
+            (r"shear(?=[ \t]+\.?\d)", Name.Attribute),  # the material's `shear 0.18 ksi`, not `include shear`
             (words(CONNECTIVES, prefix=_START, suffix=_END), Operator.Word),
             (r"[=+/\-]", Operator),
             (NAME + r"(?=[ \t]+\.?\d)", Name.Attribute),  # a property: `depth 250 mm`, `E 200 GPa`

@@ -399,8 +399,14 @@ class _Build(Transformer):
         target = self._name(items[0]) if isinstance(items[0], Token) else None
         return s.SlopeLimit(target, items[-1], self._stmt_span())
 
+    def frequency_limit(self, value: s.Quantity, *terms: s.Term) -> s.FrequencyLimit:
+        return s.FrequencyLimit(value, terms, self._stmt_span())
+
     def stress(self, target: Token) -> s.StressCheck:
         return s.StressCheck(self._name(target), self._stmt_span())
+
+    def include(self) -> s.Include:
+        return s.Include(self._stmt_span())
 
     def report(self, at: s.Position) -> s.Report:
         return s.Report(at, self._stmt_span())

@@ -33,6 +33,30 @@ FORMULAS = {
 }
 
 
+# The shear area kappa A of each shape, for the shear deflection V / (kappa G A), and the rule it follows.
+# kappa = 1 / f_s, f_s the form factor of the energy method: f_s = 6/5 for a rectangle, 10/9 for a solid round,
+# 2 for a thin-walled round tube, about A / A_web for I-shapes and boxes (J. M. Gere and S. P. Timoshenko,
+# Mechanics of Materials, the section on shear deflection of beams; from memory).
+_SOURCE = "Gere and Timoshenko, Mechanics of Materials, shear deflection of beams (from memory)"
+SHEAR_AREA = {
+    "rectangle": (lambda d, A: A * Q(5, 6), f"kappa = 5/6 of A (form factor 6/5; {_SOURCE})"),
+    "round": (lambda d, A: A * Q(9, 10), f"kappa = 9/10 of A (form factor 10/9; {_SOURCE})"),
+    "tube": (lambda d, A: A / 2, f"kappa = 1/2 of A (thin-walled tube, form factor 2; {_SOURCE})"),
+    "box": (lambda d, A: 2 * d["depth"] * d["wall"],
+            f"kappa A = 2 h t, the two webs over the full depth (form factor about A / A_web; {_SOURCE})"),
+    "I-shape": (lambda d, A: d["depth"] * d["web"],
+                f"kappa A = h t_w, the web over the full depth (form factor about A / A_web; {_SOURCE})"),
+}
+
+
+def shear_area(shape: str, dims: dict[str, Fraction], A: Fraction | None) -> tuple[Fraction | None, str]:
+    """kappa A of a shape and its rule; a section given by its properties has none."""
+    if shape not in SHEAR_AREA or A is None:
+        return None, ""
+    area, rule = SHEAR_AREA[shape]
+    return area(dims, A), rule
+
+
 class ShapeProblem(Exception):
     """A dimension set that cannot make the shape; `name` is the dimension to point at."""
 

@@ -236,8 +236,25 @@ class SlopeLimit:
 
 
 @dataclass(frozen=True, slots=True)
+class FrequencyLimit:
+    """`limit frequency 5 Hz mass dead + 0.3 live`: the least fundamental frequency, with the cases whose loads
+    (divided by g) are the vibrating mass."""
+
+    value: Quantity
+    terms: tuple[Term, ...]
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
 class StressCheck:
     target: Name
+    span: Span
+
+
+@dataclass(frozen=True, slots=True)
+class Include:
+    """`include shear deformation`: deflections add the shear part V / (kappa G A)."""
+
     span: Span
 
 
@@ -264,7 +281,7 @@ class Note:
 Statement = (
     Member | Field | Units | SpanLength | Material | Section | Support | Hinge | Case | Point | Uniform
     | Linear | Moment | SelfWeight | Settlement | Moving | Combine | Pattern | Limit | SlopeLimit | StressCheck | Report
-    | Note | Catalogue
+    | Note | Catalogue | Include | FrequencyLimit
 )
 LOADS = (Point, Uniform, Linear, Moment, SelfWeight, Settlement, Moving)
 

@@ -23,11 +23,12 @@ KINDS = {
     "section modulus": "[length]**3",
     "area": "[length]**2",
     "angle": "[]",
+    "frequency": "1/[time]",
 }
 EXAMPLE_UNIT = {
     "length": "m", "force": "kN", "moment": "kN*m", "force per length": "kN/m", "stress": "MPa",
     "density": "kg/m^3", "second moment of area": "mm^4", "section modulus": "mm^3", "area": "mm^2",
-    "angle": "rad",
+    "angle": "rad", "frequency": "Hz",
 }
 # US trade shorthands, written as one word (common practice, no source): pounds and kips per linear foot,
 # per square foot, pounds per cubic foot.
@@ -35,7 +36,7 @@ SHORTHANDS = {"plf": "lbf/ft", "klf": "kip/ft", "psf": "lbf/ft**2", "ksf": "kip/
 COMMON_UNITS = ("m", "mm", "cm", "km", "ft", "in", "N", "kN", "MN", "lbf", "kip", "Pa", "kPa", "MPa",
                 "GPa", "psi", "ksi", "kN/m", "N/mm", "kip/ft", "lbf/ft", "lbf/in", "kN*m", "N*m",
                 "kip*ft", "kip*in", "lbf*ft", "kg/m^3", "lb/ft^3", "mm^4", "in^4", "cm^4", "m^4",
-                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad", *SHORTHANDS)
+                "mm^2", "in^2", "mm^3", "in^3", "kN/mm", "kip/in", "rad", "Hz", *SHORTHANDS)
 POUND_MASS = re.compile(r"(?<![A-Za-z])lbs?(?![A-Za-z])")  # lb or lbs, not lbf
 STANDARD_GRAVITY = Q(980665, 100000)  # m/s^2, exact by definition (CGPM 1901; NIST SP 811)
 

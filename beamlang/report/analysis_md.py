@@ -161,12 +161,19 @@ def _deflection_search(a: Analysis, t, r) -> list[str]:
     L = working_units(u)["length"]
     c, xs = t.curves, a.solution.xs
     cands = r.deflection_candidates
-    lines = ["### Where the deflection is largest", "",
-             "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
-             f"θ(x) = 0 (θ in rad, x in {L}) is solved exactly; its roots inside the segment, and both ends of every "
-             "segment, are the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |",
-             "|---|---|---|"]
-    for k, p in enumerate(c.theta.pieces):
+    if c.vs is None:
+        lines = ["### Where the deflection is largest", "",
+                 "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
+                 f"θ(x) = 0 (θ in rad, x in {L}) is solved exactly; its roots inside the segment, and both ends of "
+                 "every segment, are the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |",
+                 "|---|---|---|"]
+    else:
+        lines = ["### Where the deflection is largest", "",
+                 "The slope of the deflection, dv/dx = θ(x) - V(x)/(κGA) (the section's rotation less the shear "
+                 "strain), is zero at every interior extremum. In every segment the equation dv/dx = 0 (in rad, x in "
+                 f"{L}) is solved exactly; its roots inside the segment, and both ends of every segment, are the "
+                 "candidates.", "", "| segment | equation dv/dx = 0 | roots inside the segment |", "|---|---|---|"]
+    for k, p in enumerate(c.slope.pieces):
         roots = [x for x in cands if x.reason == "derivative zero" and x.segment == k]
         text = "; ".join(_root_text(x, L) for x in roots) or "none"
         lines.append(f"| {x_range(xs[k], xs[k + 1], L)} | ${poly(scaled(p, L, 'rad'))} = 0$ | {text} |")
@@ -275,8 +282,10 @@ def required(a: Analysis) -> list[str]:
 
 
 def cross_check(a: Analysis) -> list[str]:
+    elements = ("shear-flexible cubic beam elements (Timoshenko, phi = 12 EI / (κGA l^2))"
+                if a.loaded.member.shear_deformation else "Hermite cubic beam elements")
     lines = ["## Independent cross-check", "",
-             "Each case and combination is solved again by finite elements (Hermite cubic beam elements; a node "
+             f"Each case and combination is solved again by finite elements ({elements}; a node "
              "at each end, every support and every breakpoint not closer than L/500 to another node; consistent "
              "nodal loads; floating point). Largest nodal difference from the "
              "exact curves, relative to the largest deflection or slope, rounded up to a power of ten "

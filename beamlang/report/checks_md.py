@@ -61,6 +61,8 @@ def basis(a: Analysis, c: Check) -> str:
         return f"2 x {c.region} length / {n} ({show(c.length, u, 'length')}; twice the length: common practice)"
     if c.kind == "support slope":
         return f"slope at {support_at(m, c.x, u)}, limit given by the user"
+    if c.kind == "frequency":
+        return c.basis.replace("f1 at least the limit; ", "f1 at least the least frequency given; ")
     mat = m.stretches[c.stretch].material if c.stretch is not None else m.stretches[0].material
     where = f" (material line {mat.span.line})"
     if c.kind == "bending stress" and c.strength == "allowable":
@@ -82,6 +84,8 @@ def working(a: Analysis, c: Check) -> list[str]:
         body = _deflection(a, c)
     elif c.kind == "support slope":
         body = _slope(a, c)
+    elif c.kind == "frequency":
+        return head + _frequency(a, c)
     elif c.kind == "bending stress":
         body = _bending(a, c)
     else:
@@ -112,8 +116,7 @@ def _deflection(a: Analysis, c: Check) -> list[str]:
     if not c.place:
         return [f"The allowed deflection is the value given on the limit line: $\\delta_{{allow}} = "
                 f"{quantity(convert(c.allowed, d), d)}$. The deflection checked is the largest of {md(c.target)} "
-                f"anywhere on the member{moving}, {where}:", "",
-                f"$$\\delta = |v| = {quantity(convert(c.actual, d), d)}$$", ""]
+                f"anywhere on the member{moving}, {where}:", ""] + _magnitude(c, d)
     if c.region == "span":
         what = (f"L is the length of {c.place}, from {support_at(m, c.lo, u)} to {support_at(m, c.hi, u)}, and N = "
                 f"{number(c.divisor, 6)} from the limit line:")
@@ -130,8 +133,32 @@ def _deflection(a: Analysis, c: Check) -> list[str]:
     return [what, "", f"$${length}$$", "",
             f"$$\\delta_{{allow}} = \\frac{{L}}{{N}} = \\frac{{{quantity(convert(c.length, d), d)}}}"
             f"{{{number(c.divisor, 6)}}} = {quantity(convert(c.allowed, d), d)}$$", "",
-            f"δ is the largest deflection magnitude of {md(c.target)} in {c.place}{moving}, {where}:", "",
-            f"$$\\delta = |v| = {quantity(convert(c.actual, d), d)}$$", ""]
+            f"δ is the largest deflection magnitude of {md(c.target)} in {c.place}{moving}, {where}:", ""] + _magnitude(c, d)
+
+
+def _magnitude(c: Check, d: str) -> list[str]:
+    """δ = |v|; with shear deformation its bending and shear parts side by side, v = v_b + v_s."""
+    if c.parts is None:
+        return [f"$$\\delta = |v| = {quantity(convert(c.actual, d), d)}$$", ""]
+    vb, vs = (convert(p, d) for p in c.parts)
+    total = c.parts[0] + c.parts[1]
+    return ["With shear deformation the deflection is the bending part $v_b$ (M/EI integrated twice, with any "
+            "movement of the supports) plus the shear part $v_s$ (minus V/(κGA) integrated once), both at this "
+            "place:", "",
+            f"$$\\delta = |v_b + v_s| = |{quantity(vb, d)} {'+' if vs >= 0 else '-'} {quantity(abs(vs), d)}| = "
+            f"{quantity(convert(c.actual, d), d)}$$", "",
+            f"| part | deflection ({d}) | share of δ |", "|---|---|---|",
+            *(f"| {name}, ${sym}$ | {number(convert(p, d), 6)} | {f'{100 * float(p / total):.1f} %' if total else '-'} |"
+              for name, sym, p in (("bending", "v_b", c.parts[0]), ("shear", "v_s", c.parts[1]))), ""]
+
+
+def _frequency(a: Analysis, c: Check) -> list[str]:
+    """f1 against the least frequency: the ratio is the limit over f1 (at most 1 passes)."""
+    verdict = "\\le 1" if c.passed else "> 1"
+    return [f"f1 is the fundamental bending frequency with the {md(c.target)} (see Natural frequency); the least "
+            "frequency allowed is the value given on the limit line:", "",
+            f"$$\\frac{{f_{{min}}}}{{f_1}} = \\frac{{{quantity(c.allowed, 'Hz', 6)}}}{{{quantity(c.actual, 'Hz', 6)}}} "
+            f"= {num(c.ratio, RATIO_DIGITS)} {verdict}$$", ""]
 
 
 def _slope(a: Analysis, c: Check) -> list[str]:

@@ -19,6 +19,7 @@ from beamlang.report.drawing import (
     mark_extreme,
     sample,
 )
+from beamlang.report.mode_figure import mode_figure
 from beamlang.report.load_labels import LoadLabels
 from beamlang.report.moving_figure import moving_figure
 from beamlang.report.svgplot import Figure
@@ -352,26 +353,26 @@ def envelope_figure(a: Analysis) -> str:
     panels = [fig.panel(120.0), fig.panel(120.0)]
     drawn = {name: moving_drawing(a.solution, a.result(name)) for name in names if a.solution.member.moving(name)}
     for ax, attr, quantity, label in ((panels[0], "M", "moment", "M"), (panels[1], "v", "deflection", "v")):
-        series = []  # (name, top, bottom): one curve for a static target, two for a moving group's envelope
+        series = []  # (name, top, bottom, moving): a static curve has top == bottom; a moving group has its band
         for i, name in enumerate(names):
             xs, ys = sample(getattr(a.solution.target(name).curves, attr), u[quantity])
             x = [float(convert(p, u["length"])) for p in xs]
             pattern = a.result(name).pattern
             if name in drawn:
                 top, bottom = _moving_band(drawn[name], attr, u, quantity, [float(p) for p in xs])
-                series.append((name, top, bottom))
-            elif pattern is None:
-                series.append((name, ys, ys))
-            else:
+                series.append((name, top, bottom, True))
+            elif pattern is not None:
                 for s, side in ((1, "upper"), (-1, "lower")):  # the patterned target's envelopes at the same x
                     curve = pattern.curve(attr, s)
-                    ys = [float(convert(curve.at(p), u[quantity])) for p in xs]
-                    series.append((f"{name} ({side})", ys, ys))
-        ax.band(x, [max(col) for col in zip(*(top for _, top, _ in series))],
-                [min(col) for col in zip(*(bottom for _, _, bottom in series))], "#888888", 0.15)
-        for i, (name, top, bottom) in enumerate(series):
+                    ys_side = [float(convert(curve.at(p), u[quantity])) for p in xs]
+                    series.append((f"{name} ({side})", ys_side, ys_side, False))
+            else:
+                series.append((name, ys, ys, False))
+        ax.band(x, [max(col) for col in zip(*(top for _, top, _, _ in series))],
+                [min(col) for col in zip(*(bottom for _, _, bottom, _ in series))], "#888888", 0.15)
+        for i, (name, top, bottom, moving) in enumerate(series):
             color = _PALETTE[i % len(_PALETTE)]
-            if name in drawn:
+            if moving:
                 tag = f"{name} (over every position of the moving group)"
                 ax.line(x, top, color=color, width=0.9, label=tag if ax is panels[0] else None)
                 ax.line(x, bottom, color=color, width=0.9)
@@ -403,6 +404,7 @@ def figure_names(a: Analysis) -> dict[str, str]:
     """Figure key -> file name: "sign convention", "(envelope)", every target's name, and "(moving) NAME" for
     the influence lines and envelopes of each target with a moving group (no case name has a space)."""
     out = {"sign convention": "sign-convention.svg", "(envelope)": "envelope.svg"}
+    out.update({f"(mode) {k}": f"mode-{k + 1}.svg" for k in range(len(a.frequencies))})
     for i, t in enumerate(a.solution.targets, start=1):
         moving = a.solution.member.moving(t.name)
         if not moving or any(p.coeffs for p in t.curves.v.pieces):  # a moving case alone has no static curves
@@ -420,6 +422,8 @@ def all_figures(a: Analysis) -> dict[str, str]:
             out[file] = sign_convention_figure()
         elif key == "(envelope)":
             out[file] = envelope_figure(a)
+        elif key.startswith("(mode) "):
+            out[file] = mode_figure(a, int(key.removeprefix("(mode) ")))
         elif key.startswith("(moving) "):
             out[file] = moving_figure(a, key.removeprefix("(moving) "))
         else:

@@ -27,7 +27,9 @@ def member_json(a: Analysis) -> dict:
                        "section_designation": st.section.designation}
                       for st in m.stretches],
         "hinges": [{"x_m": float(h.x), "input_line": h.span.line} for h in m.hinges],
+        **({"shear_deformation": {"GA_N": [float(st.GA) for st in m.stretches]}} if m.shear_deformation else {}),
         "results": {r.name: _target(r) for r in a.results},
+        **({"frequencies": [_frequency(found) for found in a.frequencies]} if a.frequencies else {}),
         "required": _required(a),
         "checks": [{
             "kind": c.kind, "target": c.target, "actual": float(c.actual), "allowed": float(c.allowed),
@@ -40,10 +42,27 @@ def _check_extra(c) -> dict:
     """Fields added to each check (the first ones above keep their names): its name and input line, the span or
     overhang of a span/N limit (one check each), the side of a jump the governing value is taken on."""
     out = {"label": c.label, "input_line": c.span.line, "side": (c.at.side or None) if c.at is not None else None}
+    if c.parts is not None:
+        out.update({"bending_part_m": float(c.parts[0]), "shear_part_m": float(c.parts[1])})
     if c.place:
         out.update({"place": c.place, "region": c.region, "from_m": float(c.lo), "to_m": float(c.hi),
                     "divisor": float(c.divisor), "length_m": float(c.length)})
     return out
+
+
+def _frequency(found) -> dict:
+    f = found.frequency
+    return {"mass": found.limit.text, "input_line": found.limit.span.line, "limit_Hz": float(found.limit.value),
+            "f1_Hz": _g(f.hz), "method": f.method, "finite_elements_Hz": _g(f.fe_hz), "elements": f.elements,
+            "relative_change": float(f"{f.change:.2g}"), "tolerance": 1e-6,
+            "line_masses": [{"from_m": float(x1), "to_m": float(x2), "start_kg_per_m": float(m1), "end_kg_per_m": float(m2)}
+                            for x1, x2, m1, m2 in found.masses.lines],
+            "point_masses": [{"x_m": float(x), "kg": float(mass)} for x, mass in found.masses.points]}
+
+
+def _g(hz: float) -> float:
+    """A float eigenvalue's frequency to 9 digits: far below its 1e-6 tolerance, above the LAPACK build's noise."""
+    return float(f"{hz:.9g}")
 
 
 def _required(a: Analysis) -> dict:

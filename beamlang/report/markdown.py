@@ -5,6 +5,7 @@ from __future__ import annotations
 from beamlang.pipeline import Analysis
 from beamlang.report import analysis_md as results
 from beamlang.report import checks_md
+from beamlang.report.frequency_md import frequency_section
 from beamlang.report import sections
 
 
@@ -15,7 +16,7 @@ def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | N
              sections.signs(a, figures["sign convention"]), sections.section_properties(a), sections.method(a)]
     parts += [results.target(a, t.name, figures.get(t.name), figures.get(f"(moving) {t.name}"))
               for t in a.solution.targets]
-    parts += [results.envelope(a, figures["(envelope)"])]
+    parts += [results.envelope(a, figures["(envelope)"]), frequency_section(a, figures)]
     parts += [checks_md.checks_detail(a), results.required(a), results.cross_check(a), sections.cautions(a),
               sections.traceability(a)]
     return "\n".join(line for part in parts for line in part).rstrip("\n") + "\n"

@@ -5,10 +5,10 @@ from __future__ import annotations
 from functools import lru_cache
 from importlib.metadata import PackageNotFoundError, version
 
-# sympy writes the formulas, numpy runs the cross-check, the next three turn the Markdown and its TeX into HTML
+# sympy writes the formulas, numpy runs the cross-check, scipy's eigh finds the natural frequency, the next three turn the Markdown and its TeX into HTML
 # and MathML, and pygments runs beamlang's lexer over the input listing (the figures are beamlang's own SVG:
 # report/svgplot.py). A package rebuilds byte for byte when these versions are the same.
-LIBRARIES = ("sympy", "numpy", "markdown-it-py", "mdit-py-plugins", "latex2mathml", "pygments")
+LIBRARIES = ("sympy", "numpy", "scipy", "markdown-it-py", "mdit-py-plugins", "latex2mathml", "pygments")
 
 
 @lru_cache(maxsize=1)

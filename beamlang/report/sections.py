@@ -118,7 +118,7 @@ def section_properties(a: Analysis) -> list[str]:
     sections = list({id(st.section): st.section for st in m.stretches}.values())
     materials = list({id(st.material): st.material for st in m.stretches}.values())
     for sec in sections:
-        lines += _section_table(sec, small)
+        lines += _section_table(sec, small, m.shear_deformation)
     if any(sec.shape in ("round", "tube") for sec in sections):
         lines += ["π is carried as a 40-digit rational, far below every printed digit.", ""]
     stress = "MPa" if m.units == "si" else "ksi"
@@ -130,10 +130,15 @@ def section_properties(a: Analysis) -> list[str]:
                      if mat.allowable_bending else "")
                   + (f", {'allowable shear stress Fv' if mat.allowable_bending else 'shear strength fv'} = "
                      f"{number(convert(mat.shear_strength, stress), 6)} {stress}" if mat.shear_strength else "")
+                  + (f", shear modulus G = {number(convert(mat.G, stress), 6)} {stress}" if mat.G else "")
                   + (f", density = {number(convert(mat.density, a.units['density']), 6)} {a.units['density']}"
                      if mat.density else "")
                   + f" (input line {mat.span.line}).", ""]
     ei = "N*m^2" if m.units == "si" else "kip*in^2"
+    if m.shear_deformation:
+        ga = "N" if m.units == "si" else "kip"
+        lines += ["Shear stiffness, per stretch: " + ", ".join(
+            f"$\\kappa G A = {quantity(convert(st.GA, ga), ga)}$" for st in m.stretches) + ".", ""]
     if not m.stepped:
         return lines + [f"Flexural stiffness: $EI = {quantity(convert(m.stretches[0].EI, ei), ei)}$.", ""]
     length = a.units["length"]
@@ -152,7 +157,7 @@ def _named(section) -> str:
     return f"{md(section.designation)}, " if section.designation else ""
 
 
-def _section_table(sec, small: str) -> list[str]:
+def _section_table(sec, small: str, shear: bool = False) -> list[str]:
     if sec.shape == "properties":
         named = f"Section {md(sec.designation)}, given" if sec.designation else "Section given"
         lines = [f"{named} by its properties, input line {sec.span.line}.", ""]
@@ -171,6 +176,9 @@ def _section_table(sec, small: str) -> list[str]:
             formula = "$I / c$"
         unit = small if power == 1 else f"{small}^{power}"
         lines.append(f"| {key} | {formula} | {number(convert(value, unit), 6)} {unit} |")
+    if shear and sec.shear_area is not None:
+        lines.append(f"| κA (shear area) | {md(sec.shear_rule)} | {number(convert(sec.shear_area, small + '^2'), 6)} "
+                     f"{small}^2 |")
     return lines + [""]
 
 
@@ -184,7 +192,7 @@ def method(a: Analysis) -> list[str]:
     if not p.redundants:
         return lines + [f"The member is statically determinate: a {p.kind} beam on {kept}. Reactions follow "
                         "from statics" + (" (with zero moment at every hinge)" if m.hinges else "") +
-                        "; each load's curve is M/EI integrated twice with the support conditions.", ""]
+                        "; each load's curve is M/EI integrated twice with the support conditions.", ""] + _shear_method(m)
     names = [_redundant_name(m, r, j, L) for j, r in enumerate(p.redundants, start=1)]
     lines += [f"The member is statically indeterminate to degree {len(p.redundants)}. Primary (released) beam: "
               f"a {p.kind} beam on {kept}. Redundants: " + "; ".join(names) + ".", "",
@@ -195,7 +203,17 @@ def method(a: Analysis) -> list[str]:
               "holds the displacement (or slope) at restraint i due to a unit value of redundant j, plus 1/k "
               f"on the diagonal for springs ({_flexibility_units(a)}):", "",
               "$$A = " + _matrix(p.flexibility, _matrix_units(a)) + "$$", ""]
-    return lines
+    return lines + _shear_method(m)
+
+
+def _shear_method(m) -> list[str]:
+    if not m.shear_deformation:
+        return []
+    return ["Shear deformation is included: each curve adds the shear deflection $v_s = -\\int V / (\\kappa G A)\\,dx$, "
+            "integrated exactly segment by segment (V is piecewise polynomial), with the same support conditions; "
+            "the displacements of the primary beam, and so the compatibility equations, include it. The slope "
+            "shown is the rotation of the cross-section (M/EI integrated once); the deflection's slope differs from "
+            "it by the shear strain $-V/(\\kappa G A)$. A fixed support holds the cross-section's rotation at zero.", ""]
 
 
 def _kept(m, p, i: int, L: str) -> str:
@@ -271,27 +289,27 @@ CAUTIONS = [
 ]
 
 
+SHEAR_CAUTION = (
+    "Linear elastic, small-deflection beam theory with shear deformation (Timoshenko): the shear part "
+    "V / (kappa G A) uses the shear area kappa A of each section's shape, by the rule stated with the section "
+    "(a textbook approximation for I-shapes and boxes); rotary inertia and local effects at loads and supports "
+    "are not modelled.")
+
+
 def cautions(a: Analysis) -> list[str]:
     from beamlang.report.pattern_md import pattern_cautions
-    cautions = (CAUTIONS[:3] + _moving_cautions(a) + CAUTIONS[3:-1] + _allowables(a) + _unchecked_shear(a)
-                + pattern_cautions(a) + CAUTIONS[-1:])
+    listed = [SHEAR_CAUTION] + CAUTIONS[1:] if a.loaded.member.shear_deformation else list(CAUTIONS)
+    if a.loaded.member.frequency_limits:
+        from beamlang.report.frequency_md import CAUTIONS as FREQUENCY
+        listed = [c.replace("connections, vibration, ", "connections, ") for c in listed]
+        listed = listed[:-1] + FREQUENCY + listed[-1:]
+    cautions = (listed[:3] + _moving_cautions(a) + listed[3:-1] + _allowables(a) + _unchecked_shear(a)
+                + pattern_cautions(a) + listed[-1:])  # the review by a licensed engineer stays last
     lines = ["## Assumptions and cautions", ""] + [f"- {c}" for c in cautions]
     notes = a.loaded.member.notes
     if notes:
         lines += ["", "Notes from the input file (the engineer's own assumptions):", ""] + [f"- {md(n)}" for n in notes]
     return lines + [""]
-
-
-def _moving_cautions(a: Analysis) -> list[str]:
-    """A member with a moving group: its wheel loads are static forces as written, beside the fatigue caution."""
-    m = a.loaded.member
-    if not any(m.moving(t.name) for t in a.solution.targets):
-        return []
-    return ["The moving group's wheel loads are applied as static forces, exactly as written: no dynamic "
-            "amplification (impact allowance) of the vertical wheel loads is added, nor any horizontal wheel force "
-            "(lateral or along the runway). Where the governing code calls for an allowance, include it in the "
-            "wheel loads or in the combination's factor, and confirm it against that code. Fatigue under "
-            "repeated passes of the group is not checked (see above)."]
 
 
 def _allowables(a: Analysis) -> list[str]:
@@ -304,6 +322,18 @@ def _allowables(a: Analysis) -> list[str]:
             f"{where}) are used exactly as written. The adjustment factors of the governing timber or aluminium "
             "code (load duration, moisture and temperature service, size, repetitive member, lateral stability, "
             "welding and the like) are not applied here: they are the engineer's to apply to the values given."]
+
+
+def _moving_cautions(a: Analysis) -> list[str]:
+    """A member with a moving group: its wheel loads are static forces as written, beside the fatigue caution."""
+    m = a.loaded.member
+    if not any(m.moving(t.name) for t in a.solution.targets):
+        return []
+    return ["The moving group's wheel loads are applied as static forces, exactly as written: no dynamic "
+            "amplification (impact allowance) of the vertical wheel loads is added, nor any horizontal wheel force "
+            "(lateral or along the runway). Where the governing code calls for an allowance, include it in the "
+            "wheel loads or in the combination's factor, and confirm it against that code. Fatigue under "
+            "repeated passes of the group is not checked (see above)."]
 
 
 def _unchecked_shear(a: Analysis) -> list[str]:

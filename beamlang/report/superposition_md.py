@@ -134,8 +134,22 @@ def superposed(a: Analysis, t) -> list[str]:
              f"| segment | V(x) in {F} | M(x) in {_dot(M)} |", "|---|---|---|"]
     for start, end, (V, Mx) in runs(xs, c.V, c.M):
         lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(V, L, F))}$ | ${poly(scaled(Mx, L, M))}$ |")
+    if c.vs is not None:
+        return lines + _with_shear(xs, c, L, d)
     lines += ["", f"θ(x) is the slope dv/dx in rad (v and x taken in the same unit); x in {L}.", "",
               f"| segment | θ(x) in rad | v(x) in {d} |", "|---|---|---|"]
     for start, end, (theta, v) in runs(xs, c.theta, c.v):
         lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(theta, L, 'rad'))}$ | ${poly(scaled(v, L, d))}$ |")
+    return lines + [""]
+
+
+def _with_shear(xs, c, L: str, d: str) -> list[str]:
+    """θ, then the deflection's bending and shear parts side by side, and their sum."""
+    lines = ["", f"θ(x) is the rotation of the cross-section in rad; the deflection v(x) is its bending part "
+             f"v_b(x) plus its shear part v_s(x); x in {L}.", "",
+             f"| segment | θ(x) in rad | v_b(x) in {d} | v_s(x) in {d} | v(x) in {d} |", "|---|---|---|---|---|"]
+    vb = c.v + c.vs * -1
+    for start, end, (theta, b, sh, v) in runs(xs, c.theta, vb, c.vs, c.v):
+        lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(theta, L, 'rad'))}$ | ${poly(scaled(b, L, d))}$ | "
+                     f"${poly(scaled(sh, L, d))}$ | ${poly(scaled(v, L, d))}$ |")
     return lines + [""]

@@ -193,6 +193,10 @@ def _index(doc: s.Document) -> dict[tuple, s.Statement]:
             key = ("limit", st.target.text, "ratio" if st.divisor else "absolute")
         elif isinstance(st, s.StressCheck):
             key = ("check", st.target.text)
+        elif isinstance(st, s.FrequencyLimit):
+            key = ("frequency limit", " + ".join(t.case.text for t in st.terms))
+        elif isinstance(st, s.Include):
+            key = ("include shear deformation",)
         elif isinstance(st, s.Report):
             key = ("report", str(st.at))
         elif isinstance(st, s.Pattern):

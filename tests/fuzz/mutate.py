@@ -108,7 +108,8 @@ def check_one(text: str, workdir: Path, build: bool = False) -> str | None:
     return None
 
 
-def run(count: int, seed: int = 0, workdir: Path | None = None, build: bool = False) -> tuple[int, list[str]]:
+def run(count: int, seed: int = 0, workdir: Path | None = None, build: bool = False,
+        progress=None) -> tuple[int, list[str]]:
     import os
     import tempfile
     rng = random.Random(seed)
@@ -118,7 +119,9 @@ def run(count: int, seed: int = 0, workdir: Path | None = None, build: bool = Fa
         here = os.getcwd()
         os.chdir(workdir or tmp)
         try:
-            for _ in range(count):
+            for done in range(count):
+                if progress is not None and done and done % 500 == 0:
+                    progress(done, len(problems))
                 text = mutate(rng.choice(examples), rng)
                 problem = check_one(text, Path(workdir or tmp), build)
                 if problem:
@@ -134,7 +137,8 @@ if __name__ == "__main__":
     seed = int(args[1]) if len(args) > 1 else 0
     build = "--build" in sys.argv
     t0 = time.perf_counter()
-    count, problems = run(n, seed, build=build)
+    count, problems = run(n, seed, build=build,
+                          progress=lambda done, bad: print(f"{done} inputs, {bad} problems", file=sys.stderr, flush=True))
     print(f"{count} mutated inputs{' (built when they check)' if build else ''}, seed {seed}, "
           f"{time.perf_counter() - t0:.0f} s, {len(problems)} problems")
     for p in problems[:5]:

@@ -124,7 +124,7 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
 def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
     for q in QUANTITIES:
         c = _curve(curves, q)
-        d = curves.theta if q == "v" else (curves.V if q == "M" else derivative_of(c))
+        d = curves.slope if q == "v" else (curves.V if q == "M" else derivative_of(c))
         for cand in candidates(c, d, Q(0), L):
             crit = Critical(cand.value, cand.x, p, rev, "group standing", cand.root is None)
             found[q].append(crit)

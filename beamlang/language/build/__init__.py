@@ -40,6 +40,7 @@ def _member(ctx: Context) -> m.Member | None:
         return None
     head = geometry.head(ctx)
     stretches = sections.stretches(ctx)
+    shear = sections.shear_deformation(ctx)
     bearings = supports.supports(ctx, head.span)
     hinges = supports.hinges(ctx, bearings)
     cases = loads.cases(ctx, head.span)
@@ -52,9 +53,10 @@ def _member(ctx: Context) -> m.Member | None:
     slopes = checks.slope_limits(ctx, targets, bearings)
     stress = checks.stress_checks(ctx, targets, stretches)
     reports = checks.report_points(ctx)
+    frequencies = checks.frequency_limits(ctx, names, cases)
     if ctx.failed or ctx.partial or not stretches or ctx.length is None:
         return None
     member = head.single["member"]
     return m.Member(member.mark.text, member.title, geometry.fields(ctx), geometry.units(head), ctx.length,
                     stretches, bearings, hinges, cases, combos, limits, slopes, stress, reports,
-                    geometry.notes(ctx), ctx.doc, member.span)
+                    geometry.notes(ctx), ctx.doc, member.span, shear, frequencies)

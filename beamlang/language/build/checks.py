@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from beamlang import model as m
 from beamlang.language import syntax as s
+from beamlang.language.build.combinations import _terms
 from beamlang.language.build.context import Context
 
 
@@ -76,3 +77,35 @@ def report_points(ctx: Context) -> tuple[m.ReportPoint, ...]:
     """`report deflection at` lines: positions on the member to report results at."""
     points = ((ctx.position(st.at, "report point"), st) for st in ctx.of(s.Report))
     return tuple(m.ReportPoint(x, st.span) for x, st in points if x is not None)
+
+
+def frequency_limits(ctx: Context, cases: set[str], built: tuple[m.Case, ...]) -> tuple[m.FrequencyLimit, ...]:
+    """`limit frequency F mass TERMS`: a frequency above zero; the mass cases known, each once, with a factor in
+    range, and loads that can be a mass (downward forces and line loads; moments and settlements carry none)."""
+    out = []
+    for st in ctx.of(s.FrequencyLimit):
+        value = ctx.positive(st.value, "frequency", "a frequency limit", "write it in Hz, e.g. `5 Hz`")
+        terms, ok = _terms(ctx, st, cases)
+        by_name = {c.name: c for c in built}
+        for term in st.terms:
+            case = by_name.get(term.case.text)
+            ok = _mass_loads(ctx, case, term, st) and ok if case is not None else ok
+        if ok and value is not None:
+            text = " + ".join((f"{t.factor} " if t.factor is not None else "") + t.case.text for t in st.terms)
+            out.append(m.FrequencyLimit(value, tuple(terms), text, st.span))
+    return tuple(out)
+
+
+def _mass_loads(ctx: Context, case: m.Case, term: s.Term, st: s.FrequencyLimit) -> bool:
+    for load in case.loads:
+        if isinstance(load, m.MovingLoad):
+            ctx.error(term.case.span, f"case '{case.name}' holds a moving load, which cannot be a mass",
+                      f"the moving load is on line {load.span.line}; give the mass as a case of static loads")
+            return False
+        up = (isinstance(load, m.PointLoad) and load.force > 0) or (
+            isinstance(load, m.LineLoad) and (load.w1 > 0 or load.w2 > 0))
+        if up:
+            ctx.error(term.case.span, f"case '{case.name}' holds an upward load, which cannot be a mass",
+                      f"the upward load is on line {load.span.line}; the mass is the downward loads divided by g")
+            return False
+    return True

@@ -19,12 +19,13 @@ T = TypeVar("T")
 FAMILY: dict[type, str] = {
     s.Member: "geometry", s.Field: "geometry", s.Units: "geometry", s.SpanLength: "geometry",
     s.Catalogue: "geometry", s.Note: "geometry",
-    s.Material: "sections", s.Section: "sections",
+    s.Material: "sections", s.Section: "sections", s.Include: "sections",
     s.Support: "supports", s.Hinge: "supports",
     s.Case: "loads", s.Point: "loads", s.Uniform: "loads", s.Linear: "loads", s.Moment: "loads",
     s.SelfWeight: "loads", s.Settlement: "loads", s.Moving: "loads",
     s.Combine: "combinations", s.Pattern: "combinations",
     s.Limit: "checks", s.SlopeLimit: "checks", s.StressCheck: "checks", s.Report: "checks",
+    s.FrequencyLimit: "checks",
 }
 
 

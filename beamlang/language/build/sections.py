@@ -9,13 +9,13 @@ from beamlang import model as m
 from beamlang.exact import plain
 from beamlang.language import syntax as s
 from beamlang.language.build.context import Context
-from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties
+from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS, ShapeProblem, properties, shear_area
 from beamlang.language.units import STANDARD_GRAVITY
 
-MATERIAL_PROPERTIES = {"E": "stress", "yield": "stress", "allowable bending": "stress", "shear": "stress",
-                       "density": "density"}
-_DESCRIBE = {"E": "the elastic modulus E", "yield": "the yield strength", "shear": "the shear strength",
-             "allowable bending": "the allowable bending stress",
+MATERIAL_PROPERTIES = {"E": "stress", "G": "stress", "yield": "stress", "allowable bending": "stress",
+                       "shear": "stress", "density": "density"}
+_DESCRIBE = {"E": "the elastic modulus E", "G": "the shear modulus G", "yield": "the yield strength",
+             "shear": "the shear strength", "allowable bending": "the allowable bending stress",
              "density": "the density",
              "I": "the second moment of area I", "A": "the area A", "S": "the section modulus S",
              "Q": "the first moment of area Q", "t": "the shear width t"}
@@ -122,7 +122,8 @@ def material(ctx: Context, st: s.Material) -> m.Material | None:
     if any(v is None for v in values.values()) or "E" not in values:
         return None
     return m.Material(st.name.text if st.name else None, values["E"], values.get("yield"),
-                      values.get("density"), st.span, values.get("shear"), values.get("allowable bending"))
+                      values.get("density"), st.span, values.get("shear"), values.get("allowable bending"),
+                      G=values.get("G"))
 
 
 def _strength_basis(ctx: Context, st: s.Material) -> None:
@@ -181,8 +182,9 @@ def section(ctx: Context, st: s.Section) -> m.SectionProperties | None:
     dims = tuple((n, values[n]) for n in required + optional if n in values)
     if flange_t is not None:
         dims += (("flange thickness", flange_t),)
+    area, rule = shear_area(shape, values, props["A"])
     return m.SectionProperties(shape, dims, props["I"], props["A"], props["c"], props["S"],
-                               props["Q"], props["t"], st.span, st.designation)
+                               props["Q"], props["t"], st.span, st.designation, area, rule)
 
 
 def _flange_thickness(ctx: Context, st: s.Section) -> Fraction | None:
@@ -216,3 +218,22 @@ def self_weight(ctx: Context, st: s.SelfWeight) -> list[m.Load]:
         else:
             out.append(m.LineLoad(sp.x1, sp.x2, -w, -w, "self-weight", st.span))
     return out
+
+
+def shear_deformation(ctx: Context) -> bool:
+    """`include shear deformation`: every stretch needs the shear modulus G and a shape with a shear area."""
+    lines = ctx.of(s.Include)
+    if len(lines) > 1:
+        ctx.error(lines[1].span, "`include shear deformation` is given twice", f"the first is on line {lines[0].span.line}")
+    if not lines or not ctx.stretches:
+        return bool(lines)
+    no_g = next((sp.material for sp in ctx.stretches if sp.material.G is None), None)
+    if no_g is not None:
+        ctx.error(lines[0].span, "shear deformation needs the material's shear modulus G",
+                  f"add e.g. `G 80 GPa` to the material line (line {no_g.span.line})")
+    no_area = next((sp.section for sp in ctx.stretches if sp.section.shear_area is None), None)
+    if no_area is not None:
+        ctx.error(lines[0].span, "shear deformation needs a section described by its shape",
+                  f"the shear area kappa A follows from the shape; a section given by its properties has none "
+                  f"(line {no_area.span.line})")
+    return True

@@ -7,6 +7,7 @@ import re
 
 from lsprotocol import types
 
+from beamlang.source import split_lines
 from beamlang.language import syntax as s
 from beamlang.language.build.sections import MATERIAL_PROPERTIES
 from beamlang.language.parse import accepted_after, literals
@@ -33,7 +34,7 @@ WORD_KIND = {"at": "length", "from": "length", "spaced": "length", "over": "leng
 
 def complete(analysed: Analysed, line: int, col: int, ranges: Ranges) -> types.CompletionList:
     """The completions at a 1-based line and code-point column."""
-    rows = analysed.text.splitlines()
+    rows = split_lines(analysed.text)
     before = rows[line - 1][:col - 1] if 1 <= line <= len(rows) else ""
     if code_end(before) < len(before) or before.count('"') % 2:
         return types.CompletionList(is_incomplete=False, items=[])  # in a comment or a quoted text
@@ -98,7 +99,8 @@ def _statements(terminal: str, word: str | None, prefix: str, analysed: Analysed
 
 def _keyword(st: s.Statement) -> str:
     return st.name if isinstance(st, s.Field) else {s.SpanLength: "span", s.SelfWeight: "self-weight",
-                                                   s.StressCheck: "check", s.SlopeLimit: "limit"}.get(
+                                                   s.StressCheck: "check", s.SlopeLimit: "limit",
+                                                   s.FrequencyLimit: "limit"}.get(
         type(st), type(st).__name__.lower())
 
 

@@ -6,6 +6,7 @@ parse yet: the lines that fail are left out (`parse.parse_recovering`), every ot
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -62,11 +63,26 @@ def _tolerant(source: Source) -> tuple[s.Document | None, bool]:
     return document, not problems
 
 
+def _lines(text: str) -> list[str]:
+    """The lines with their endings, split at LF only as the parser splits them (a vertical tab or U+2028 is a
+    character of its line, which the parser refuses by name, not a line break)."""
+    return re.findall(r"[^\n]*\n|[^\n]+$", text)
+
+
+def _ending(line: str) -> str:
+    """The line break of a line (what is left of a line that fails to parse)."""
+    return "\r\n" if line.endswith("\r\n") else "\n" if line.endswith("\n") else ""
+
+
+def _body(line: str) -> str:
+    return line[: len(line) - len(_ending(line))]
+
+
 class Ranges:
     """1-based code-point spans <-> LSP positions in the client's units (UTF-16 unless it chose another)."""
 
     def __init__(self, text: str, codec: PositionCodec):
-        self.lines, self.codec = text.splitlines(keepends=True), codec
+        self.lines, self.codec = _lines(text), codec
 
     def of(self, span: Span) -> types.Range:
         return self.between(span.line, span.col, span.line, span.end_col)
@@ -80,15 +96,15 @@ class Ranges:
         if not self.lines:
             return types.Range(types.Position(0, 0), types.Position(0, 0))
         last = self.lines[-1]
-        if last.splitlines() != [last]:  # ends with a line break: the end is the start of the next line
+        if _ending(last):  # ends with a line break: the end is the start of the next line
             return types.Range(types.Position(0, 0), types.Position(len(self.lines), 0))
         return self.between(1, 1, len(self.lines), len(last) + 1)
 
     def point(self, position: types.Position) -> tuple[int, int]:
         """(line, column) from 1, in code points, of a client's position."""
         server = self.codec.position_from_client_units(self.lines, types.Position(position.line, position.character))
-        row = self.lines[server.line].splitlines() if server.line < len(self.lines) else []
-        return server.line + 1, min(server.character, len(row[0]) if row else 0) + 1  # never past the line's end
+        row = _body(self.lines[server.line]) if server.line < len(self.lines) else ""
+        return server.line + 1, min(server.character, len(row)) + 1  # never past the line's end
 
 
 def formatted(analysed: Analysed) -> str | None:
@@ -140,4 +156,6 @@ def target_names(st: s.Statement) -> list[s.Name]:
         return [st.case]
     if isinstance(st, s.SlopeLimit) and st.target is not None:
         return [st.target]
+    if isinstance(st, s.FrequencyLimit):
+        return [t.case for t in st.terms]
     return []

@@ -7,6 +7,7 @@ import dataclasses
 
 from lsprotocol import types
 
+from beamlang.source import split_lines
 from beamlang.exact import fraction
 from beamlang.language import syntax as s
 from beamlang.language.fmt import statement_text
@@ -52,7 +53,7 @@ def _parts(obj: object) -> list:
             found += _parts(getattr(obj, f.name))
         if isinstance(obj, (s.Quantity, s.Position)):
             found.append(obj)
-    if isinstance(obj, (s.Case, s.Combine, s.Pattern, s.Limit, s.StressCheck, s.SlopeLimit)):
+    if isinstance(obj, (s.Case, s.Combine, s.Pattern, s.Limit, s.StressCheck, s.SlopeLimit, s.FrequencyLimit)):
         found += target_names(obj)
     return found
 
@@ -174,7 +175,7 @@ def code_end(row: str) -> int:
 
 def _word(text: str, line: int, col: int) -> tuple[str, Span] | None:
     """A statement keyword, section shape or support kind under the cursor, even on a line that does not parse."""
-    lines = text.splitlines()
+    lines = split_lines(text)
     if not 1 <= line <= len(lines):
         return None
     row = lines[line - 1]

@@ -9,7 +9,7 @@ from beamlang.language import syntax as s
 from beamlang.language.fmt import statement_text
 from beamlang.tools.lsp.document import Analysed, Ranges, case_loads, names, statement_at, target_names
 
-CHECKS = (s.Limit, s.SlopeLimit, s.StressCheck)
+CHECKS = (s.Limit, s.SlopeLimit, s.StressCheck, s.FrequencyLimit)
 
 
 def document_symbols(analysed: Analysed, ranges: Ranges) -> list[types.DocumentSymbol]:
