@@ -167,7 +167,8 @@ def _run_build(args: argparse.Namespace) -> int:
         from concurrent.futures import ProcessPoolExecutor
         # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
         # inherits their locks held, which hung builds with --jobs
-        context = multiprocessing.get_context("forkserver")
+        methods = multiprocessing.get_all_start_methods()
+        context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
         with ProcessPoolExecutor(max_workers=jobs, mp_context=context) as pool:
             outcomes = _progress(pool.map(_build_one, loaded, [out] * len(loaded), [settings] * len(loaded)),
                                  len(loaded))
