@@ -38,13 +38,32 @@ class Candidate:
     segment: int
 
 
-def candidates(curve: Piecewise, derivative: Piecewise, lo: Fraction, hi: Fraction) -> list[Candidate]:
-    """Both one-sided values at every segment end in [lo, hi], and every interior zero of the derivative."""
-    out: list[Candidate] = []
-    for k, p in enumerate(curve.pieces):
+def runs(curve: Piecewise, derivative: Piecewise, keep: frozenset | None) -> list[tuple[int, Fraction, Fraction]]:
+    """(first segment, start, end) of each run of neighbouring segments where the curve and its derivative have
+    the same formula, never merged across an x in `keep` (ends, supports, hinges, section changes: where a
+    region or stretch is bounded); `keep=None` merges nothing. A breakpoint of another case's load is not an end
+    of this curve's formula, so it is not examined as one."""
+    out: list[tuple[int, Fraction, Fraction]] = []
+    previous = None
+    for k, pieces in enumerate(zip(curve.pieces, derivative.pieces)):
         a, b = curve.xs[k], curve.xs[k + 1]
+        if keep is not None and pieces == previous and a not in keep:
+            out[-1] = (out[-1][0], out[-1][1], b)
+        else:
+            out.append((k, a, b))
+        previous = pieces
+    return out
+
+
+def candidates(curve: Piecewise, derivative: Piecewise, lo: Fraction, hi: Fraction,
+               keep: frozenset | None = None) -> list[Candidate]:
+    """Both one-sided values at every end of a formula's run in [lo, hi] (`runs`), and every interior zero of
+    the derivative."""
+    out: list[Candidate] = []
+    for k, a, b in runs(curve, derivative, keep):
         if a < lo or b > hi:
             continue
+        p = curve.pieces[k]
         out.append(Candidate(a, p(a), "segment end", None, "right", k))
         for r in roots_in(derivative.pieces[k], a, b):
             out.append(Candidate(r.x, p(r.x), "derivative zero", None if r.exact is not None else r, "", k))

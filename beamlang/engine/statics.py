@@ -30,6 +30,14 @@ def breakpoints(member: Member) -> tuple[Fraction, ...]:
     return tuple(sorted(xs))
 
 
+def formula_ends(member: Member) -> frozenset[Fraction]:
+    """The breakpoints every curve of the member keeps as ends of its search runs (`extrema.runs`): the ends,
+    supports, hinges and changes of section or material; the loads' breakpoints end a curve's formula only
+    where the curve's own loads act."""
+    return frozenset({Q(0), member.length} | {sp.x for sp in member.supports} | {h.x for h in member.hinges}
+                     | {st.x1 for st in member.stretches})
+
+
 def region_bounds(member: Member) -> tuple[Fraction, ...]:
     """The ends and the supports: the bounds of every span and overhang."""
     return tuple(sorted({Q(0), member.length} | {sp.x for sp in member.supports}))

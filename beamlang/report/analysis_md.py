@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from beamlang.analysis.display import (CHECK_QUANTITY, at, check_name, convert, governing, number, place, scaled, show,
                                        working_units)
+from beamlang.engine.extrema import runs
+from beamlang.engine.statics import formula_ends
 from beamlang.language import syntax
 from beamlang.analysis.working import reported, root_factor
 from beamlang.pipeline import Analysis
@@ -85,30 +87,6 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
     return lines
 
 
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
-
 def _hinges(a: Analysis, t) -> list[str]:
     """The hinge conditions, verified on the superposed curves: zero moment, a slope jump, no gap."""
     m = a.loaded.member
@@ -156,27 +134,31 @@ def _moment_search(a: Analysis, r) -> list[str]:
     return lines + [""]
 
 
+RUNS = ("A segment runs from one change of this curve's formula to the next: the ends, supports, hinges, "
+        "changes of section and this target's own loads.")
+
+
 def _deflection_search(a: Analysis, t, r) -> list[str]:
     u = a.units
     L = working_units(u)["length"]
-    c, xs = t.curves, a.solution.xs
+    c = t.curves
     cands = r.deflection_candidates
     if c.vs is None:
         lines = ["### Where the deflection is largest", "",
                  "The slope θ(x) = dv/dx is zero at every interior extremum. In every segment the equation "
                  f"θ(x) = 0 (θ in rad, x in {L}) is solved exactly; its roots inside the segment, and both ends of "
-                 "every segment, are the candidates.", "", "| segment | equation θ(x) = 0 | roots inside the segment |",
+                 f"every segment, are the candidates. {RUNS}", "", "| segment | equation θ(x) = 0 | roots inside the segment |",
                  "|---|---|---|"]
     else:
         lines = ["### Where the deflection is largest", "",
                  "The slope of the deflection, dv/dx = θ(x) - V(x)/(κGA) (the section's rotation less the shear "
                  "strain), is zero at every interior extremum. In every segment the equation dv/dx = 0 (in rad, x in "
                  f"{L}) is solved exactly; its roots inside the segment, and both ends of every segment, are the "
-                 "candidates.", "", "| segment | equation dv/dx = 0 | roots inside the segment |", "|---|---|---|"]
-    for k, p in enumerate(c.slope.pieces):
+                 f"candidates. {RUNS}", "", "| segment | equation dv/dx = 0 | roots inside the segment |", "|---|---|---|"]
+    for k, lo, hi in runs(c.v, c.slope, formula_ends(a.loaded.member)):  # the runs the search examined
         roots = [x for x in cands if x.reason == "derivative zero" and x.segment == k]
         text = "; ".join(_root_text(x, L) for x in roots) or "none"
-        lines.append(f"| {x_range(xs[k], xs[k + 1], L)} | ${poly(scaled(p, L, 'rad'))} = 0$ | {text} |")
+        lines.append(f"| {x_range(lo, hi, L)} | ${poly(scaled(c.slope.pieces[k], L, 'rad'))} = 0$ | {text} |")
     lines += ["", f"| candidate x ({L}) | why | v |", "|---|---|---|"]
     for x in _unique(cands):
         lines.append(f"| {_where(x, L)} | {x.reason} | {show(x.value, u, 'deflection', 6)} |")
