@@ -2,11 +2,12 @@
 
 from __future__ import annotations
 
+import math
 from fractions import Fraction
 
 from beamlang.analysis.display import convert, number
 
-SAMPLES_PER_SEGMENT = 40
+SAMPLES_PER_MEMBER, SAMPLES_MIN, SAMPLES_PER_RUN = 160, 6, 40  # points of a drawn curve (`sample`)
 CURVE = "#1f4e79"
 MARK = "#b22222"
 LOAD = "#8b4513"
@@ -43,22 +44,38 @@ def limit_lines(ax, m, r, u: dict) -> None:
 
 
 def sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
-    """Points on every segment, both sides of each breakpoint (jumps stay vertical). The values are floats
-    from the exact coefficients of each piece in h = x - (segment start), converted to `unit` exactly first:
-    short, well-conditioned sums (the marked extremes are drawn from their exact values)."""
+    """Points on every run of one formula, both sides of each breakpoint where the formula changes (jumps stay
+    vertical). A run gets points in proportion to its share of the member (SAMPLES_PER_MEMBER in all), at least
+    SAMPLES_MIN and at most SAMPLES_PER_RUN: a few pixels apart on the drawn panel, however many other loads
+    break the member into short segments. The values are floats from the exact coefficients of each piece in
+    h = x - (run start), converted to `unit` exactly first: short, well-conditioned sums (the marked extremes
+    are drawn from their exact values)."""
     factor = convert(Fraction(1), unit)
+    length = curve.xs[-1] - curve.xs[0]
     xs, ys = [], []
-    for k, p in enumerate(curve.pieces):
-        a, b = curve.xs[k], curve.xs[k + 1]
+    for p, a, b in _runs(curve):
         coeffs = [float(c * factor) for c in reversed(p.taylor(a).coeffs)]
-        step = float(b - a) / SAMPLES_PER_SEGMENT
-        for i in range(SAMPLES_PER_SEGMENT + 1):
-            xs.append(a + (b - a) * Fraction(i, SAMPLES_PER_SEGMENT))
+        n = min(SAMPLES_PER_RUN, max(SAMPLES_MIN, math.ceil(SAMPLES_PER_MEMBER * float((b - a) / length))))
+        step = float(b - a) / n
+        for i in range(n + 1):
+            xs.append(a + (b - a) * Fraction(i, n))
             h, y = step * i, 0.0
             for c in coeffs:
                 y = y * h + c
             ys.append(y)
     return xs, ys
+
+
+def _runs(curve) -> list[tuple[object, Fraction, Fraction]]:
+    """(piece, start, end) with neighbouring segments of the same formula joined."""
+    out: list[tuple[object, Fraction, Fraction]] = []
+    for k, p in enumerate(curve.pieces):
+        a, b = curve.xs[k], curve.xs[k + 1]
+        if out and out[-1][0] == p:
+            out[-1] = (p, out[-1][1], b)
+        else:
+            out.append((p, a, b))
+    return out
 
 
 def changes(m, u: dict) -> list[float]:

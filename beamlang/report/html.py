@@ -71,6 +71,12 @@ def _markdown():
     return md
 
 
+@lru_cache(maxsize=1)
+def parsed(markdown: str) -> tuple:
+    """markdown-it's tokens of a package's text, parsed once for both its HTML and its PDF."""
+    return tuple(_markdown().parse(markdown, {}))
+
+
 def _highlight(code: str, lang: str, _attrs) -> str:
     """The appendix (an ```text block of the input file) in colour; other blocks stay plain."""
     if lang != "text":
@@ -85,7 +91,8 @@ def _slug(text: str) -> str:
 
 def member_html(markdown: str, title: str, figures: dict[str, str]) -> str:
     """The page: `figures` maps each relative SVG path used in the Markdown to its SVG text."""
-    body = _markdown().render(markdown)
+    md = _markdown()
+    body = md.renderer.render(list(parsed(markdown)), md.options, {})
     body = _embed_figures(body, figures)
     font = base64.b64encode((ASSETS / "latinmodern-math-subset.woff").read_bytes()).decode("ascii")
     return (f'<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n'

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import re
 from fractions import Fraction
+from functools import lru_cache
 
 from beamlang.analysis.display import number
 from beamlang.poly import Poly
@@ -59,8 +60,10 @@ def cell(text: str) -> str:
     return text.replace("|", "\\|").replace("\n", " ")
 
 
+@lru_cache(maxsize=1024)
 def sympy_tex(expr) -> str:
-    """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML)."""
+    """sympy's LaTeX with plain parentheses (stretchy \\left( \\right) leave gaps in browsers' MathML). Kept per
+    expression: loads of one kind and placement share their general formula, printed once."""
     import sympy
     return sympy.latex(expr).replace("\\left(", "(").replace("\\right)", ")")
 

@@ -7,6 +7,8 @@ tables, display formulas and figures call the functions of `template.typ` (`bl-t
 
 from __future__ import annotations
 
+import math
+
 from beamlang.report.pdf.math import to_typst
 
 _ESCAPE = set("\\*_`#$[]<>@~=-+/'\"&.:;!?%(){}|^,")
@@ -22,13 +24,36 @@ def string(s: str) -> str:
     return '"' + s.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n") + '"'
 
 
+# A table surely fits on a sheet when this over-estimate of its height does: the smaller text area of A4 and US
+# letter (sheet.body_size), every character as wide as a wide capital at the table's 8 pt, half again as many
+# lines as that gives plus one, a tall line (superscripts) and the cell insets. A table the estimate cannot
+# place is measured by the typesetter (bl-table), which costs another layout of it; most tables never need it.
+_BODY_MM, _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = (176.0, 230.0), 2.0, 5.5, 2.0, 2.5
+# A display formula surely fits the text width when its TeX source, a character per wide glyph at the 9.5 pt
+# body size, does (the source is never narrower than what it draws: commands, braces and scripts take more
+# characters than glyphs); a longer one is measured and shrunk to the width where needed (bl-display).
+_MATH_CHAR_MM = 2.6
+
+
+def surely_fits(cells: list[list[str]]) -> bool:
+    """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
+    auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
+    a narrower one holds each of its cells on one line."""
+    usable = _BODY_MM[0] / len(cells[0]) - _INSET_MM
+    height = 0.0
+    for row in cells:
+        lines = max((1 + math.ceil(1.5 * len(c) * _CHAR_MM / usable) for c in row), default=1)
+        height += _ROW_MM + lines * _LINE_MM
+    return height <= 0.9 * _BODY_MM[1]
+
+
 def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),
                     mark: str = "") -> str:
     """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG;
     `before_summary` is Typst placed before the first section; table rows whose line column holds a line of
     `changed` get a margin mark naming revision `mark`."""
-    from beamlang.report.html import _markdown
-    tokens = _markdown().parse(markdown)
+    from beamlang.report.html import parsed
+    tokens = parsed(markdown)
     return _Writer(tokens, figure_key, before_summary, changed, mark).blocks(0, len(tokens))
 
 
@@ -98,11 +123,14 @@ class _Writer:
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
-        return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n))\n" if rows[1:] else \
-            f"\n#bl-table({ncols}, ({header},), ())\n"
+        small = ", small: true" if surely_fits(raw) else ""
+        return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n){small})\n" if rows[1:] else \
+            f"\n#bl-table({ncols}, ({header},), (){small})\n"
 
     def _math_block(self, i: int, end: int) -> str:
-        return f"\n#bl-display($ {to_typst(self.tokens[i].content)} $)\n"
+        tex = self.tokens[i].content
+        small = ", small: true" if len(tex) * _MATH_CHAR_MM <= _BODY_MM[0] else ""
+        return f"\n#bl-display($ {to_typst(tex)} ${small})\n"
 
     def _fence(self, i: int, end: int) -> str:
         return f"\n#bl-listing({string(self.tokens[i].content.rstrip(chr(10)))})\n"
