@@ -25,26 +25,32 @@ def string(s: str) -> str:
 
 
 # A table surely fits on a sheet when this over-estimate of its height does: the smaller text area of A4 and US
-# letter (sheet.body_size), every character as wide as a wide capital at the table's 8 pt, half again as many
-# lines as that gives plus one, a tall line (superscripts) and the cell insets. A table the estimate cannot
+# letter (sheet.body_size), every character of the cell's Markdown source as wide as a wide capital at the
+# table's 8 pt, one line more than that gives, a tall line (superscripts) and the cell insets. On tables made
+# to be awkward (tests/test_pdf_estimates.py) it is 1.8 to 3.3 times the measured height. A table it cannot
 # place is measured by the typesetter (bl-table), which costs another layout of it; most tables never need it.
-_BODY_MM, _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = (176.0, 230.0), 2.0, 5.5, 2.0, 2.5
-# A display formula surely fits the text width when its TeX source, a character per wide glyph at the 9.5 pt
-# body size, does (the source is never narrower than what it draws: commands, braces and scripts take more
-# characters than glyphs); a longer one is measured and shrunk to the width where needed (bl-display).
-_MATH_CHAR_MM = 2.6
+_BODY_MM, _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = (176.0, 230.0), 2.0, 5.0, 2.0, 2.5
+# A display formula surely fits the text width when its TeX source does at 1.2 em of the 9.5 pt body per
+# character: no glyph with the space math puts around a relation is wider, and the source has at least one
+# character per glyph drawn. A longer one is measured and shrunk to the width where needed (bl-display).
+_MATH_CHAR_MM = 1.2 * 9.5 * 25.4 / 72
 
 
 def surely_fits(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
     auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
     a narrower one holds each of its cells on one line."""
+    return estimate_mm(cells) <= 0.9 * _BODY_MM[1]
+
+
+def estimate_mm(cells: list[list[str]]) -> float:
+    """The over-estimate of a table's height in mm (`surely_fits`)."""
     usable = _BODY_MM[0] / len(cells[0]) - _INSET_MM
     height = 0.0
     for row in cells:
-        lines = max((1 + math.ceil(1.5 * len(c) * _CHAR_MM / usable) for c in row), default=1)
+        lines = max((1 + math.ceil(len(c) * _CHAR_MM / usable) for c in row), default=1)
         height += _ROW_MM + lines * _LINE_MM
-    return height <= 0.9 * _BODY_MM[1]
+    return height
 
 
 def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),

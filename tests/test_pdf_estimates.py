@@ -1,0 +1,89 @@
+"""The converter's shortcuts around the typesetter's measuring: a table it calls `small` (placed unbreakable
+without being measured) is never taller than a sheet, and a display it calls `small` is never wider than the text.
+Checked by measuring, in Typst, tables and formulas made to be awkward: long words, long formulas in narrow
+columns, many rows."""
+
+from __future__ import annotations
+
+import random
+
+from beamlang.language.frontend import load
+from beamlang.report.pdf import member_source
+from beamlang.report.pdf.markup import estimate_mm, surely_fits
+from beamlang.report.pdf.sheet import PAPERS, MARGINS, query
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+FORMULAS = ["$-4.13886 \\times 10^{-5}\\,x^{3} + 0.000335248\\,x^{2} - 0.0016293 = 0$", "$x^{2}$",
+            "$\\frac{P a (L - a)}{6 E I L}$", "WWWWWWWWWWWWWWWWWWWWWWWW", "mmmm mmmmmmm mm mmmmmmmmmm",
+            "`point 3 kN down at 1.00 m`", "x = 2.700282268, a root of the degree-4 factor (irrational)"]
+
+
+def _cell(rng: random.Random) -> str:
+    return " ".join(rng.choice(FORMULAS) for _ in range(rng.randint(1, 4)))
+
+
+def _tables(seed: int, n: int) -> list[list[list[str]]]:
+    rng = random.Random(seed)
+    out = []
+    while len(out) < n:
+        cols, rows = rng.randint(2, 7), rng.randint(1, 30)
+        cells = [[_cell(rng) for _ in range(cols)] for _ in range(rows + 1)]
+        if surely_fits(cells):
+            out.append(cells)
+    return out
+
+
+def _measured(markdown: str, paper: str) -> list:
+    """(kind, height in pt) of every table, as the typesetter measures it, on the examples' first member."""
+    member = load(sorted((ROOT / "examples").glob("*.beam"))[0]).member
+    source = member_source(member, markdown).replace('#let bl-paper = "a4"', f'#let bl-paper = "{paper}"')
+    probe = ('\n#let bl-table(n, header, cells, small: false) = {\n  set text(size: 8pt, hyphenate: false)\n'
+             '  let t = table(columns: n, inset: (x: 3.5pt, y: 2.5pt), table.header(..header.map(c => strong(c))), '
+             '..cells)\n  context [#metadata((small, measure(t, width: bl-size.get().width).height.pt())) <h>]\n}\n')
+    source = source.replace("// A display formula", probe + "// A display formula", 1)
+    return [tuple(item["value"]) for item in query(source, {}, "<h>")]
+
+
+def test_a_table_called_small_is_never_taller_than_a_sheet():
+    tables = _tables(7, 40)
+    markdown = "\n".join("| " + " | ".join(t[0]) + " |\n|" + "---|" * len(t[0]) + "\n" +
+                         "\n".join("| " + " | ".join(r) + " |" for r in t[1:]) + "\n" for t in tables)
+    for paper in ("a4", "us-letter"):
+        heights = _measured(markdown, paper)
+        assert len(heights) == len(tables) and all(small for small, _h in heights)
+        body = (PAPERS["a4" if paper == "a4" else "letter"][1] - MARGINS[1]) * 72 / 25.4
+        tallest = max(h for _s, h in heights)
+        assert tallest <= body, (paper, tallest, body)
+        assert tallest >= 0.3 * body  # the sample reaches well into the sheet: the estimate is not trivially safe
+
+
+def test_the_estimate_is_safe_by_half_again_on_awkward_tables():
+    rng = random.Random(3)
+    tables = [[[_cell(rng) for _ in range(rng.randint(2, 7))]] for _ in range(30)]
+    tables = [t * rng.randint(2, 12) for t in tables]
+    markdown = "\n".join("| " + " | ".join(t[0]) + " |\n|" + "---|" * len(t[0]) + "\n" +
+                         "\n".join("| " + " | ".join(r) + " |" for r in t[1:]) + "\n" for t in tables)
+    for t, (_small, height) in zip(tables, _measured(markdown, "a4")):
+        assert estimate_mm(t) >= 1.5 * height * 25.4 / 72, t[0]
+
+
+def test_the_estimate_turns_away_a_tall_table():
+    assert not surely_fits([["a", "b"]] + [["1", "2"]] * 60)
+    assert surely_fits([["a", "b"]] + [["1", "2"]] * 10)
+
+
+def test_a_display_called_small_is_never_wider_than_the_text():
+    from beamlang.report.pdf.markup import _BODY_MM, _MATH_CHAR_MM
+    most = int(_BODY_MM[0] / _MATH_CHAR_MM)
+    awkward = ["W" * most, "=".join(["W"] * ((most + 1) // 2)), "M + " * (most // 4), "\\frac{W}{W}" * (most // 11)]
+    markdown = "\n".join(f"$$\n{tex[:most - 3]}\n$$\n" for tex in awkward)
+    member = load(sorted((ROOT / "examples").glob("*.beam"))[0]).member
+    source = member_source(member, markdown)
+    assert source.count("small: true") == len(awkward)
+    probe = "\n#let bl-display(eq, small: false) = context [#metadata(measure(eq).width.pt()) <w>]\n"
+    source = source.replace("// A figure:", probe + "// A figure:", 1)
+    widths = [item["value"] for item in query(source, {}, "<w>")]
+    assert len(widths) == len(awkward)
+    assert max(widths) <= _BODY_MM[0] * 72 / 25.4, widths
+    assert max(widths) >= 0.5 * _BODY_MM[0] * 72 / 25.4  # the sample reaches across the text
