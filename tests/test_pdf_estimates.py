@@ -87,3 +87,25 @@ def test_a_display_called_small_is_never_wider_than_the_text():
     assert len(widths) == len(awkward)
     assert max(widths) <= _BODY_MM[0] * 72 / 25.4, widths
     assert max(widths) >= 0.5 * _BODY_MM[0] * 72 / 25.4  # the sample reaches across the text
+
+
+def test_a_long_general_formula_is_broken_into_lines_of_the_same_sum():
+    """A two-span member's line-load formula (three factors and a long sum) is shown on several lines; the
+    lines hold exactly the sum sympy prints, term for term, after the other factors."""
+    import sympy
+
+    from beamlang.report.formula_md import LINE, _display
+    from beamlang.report.tex import sympy_tex
+    L, a, b, x, xb, w, E, I = sympy.symbols("L a b x x_B w E I")
+    big = sympy.expand((L**3 * x - 3 * L * x * xb + a * b * x**2 - 4 * a**2 * xb + b * xb**2) * (L - a + 2 * b - xb) *
+                       (x + L - 3 * a))
+    expr = -w * x * (x - xb) * big / (24 * E * I * xb)
+    shown = _display(expr, "\\qquad (0 \\le x \\le 1)")
+    lead = "v(x) = {} & - \\frac{w x (x - x_{B})}{24 E I x_{B}} ("
+    assert shown.startswith("$$\\begin{aligned} " + lead)
+    rows = shown.removeprefix("$$\\begin{aligned} ").removesuffix(" \\end{aligned}$$").split(" \\\\ ")
+    assert len(rows) >= 3 and all(len(r) <= LINE + 80 for r in rows)
+    joined = " ".join(r.removeprefix(lead) if k == 0 else r.removeprefix("& \\quad ") for k, r in enumerate(rows))
+    assert " ".join(joined.removesuffix(") \\qquad (0 \\le x \\le 1)").split()) == " ".join(sympy_tex(big).split())
+    short = _display(w * x / (E * I), "")
+    assert "aligned" not in short

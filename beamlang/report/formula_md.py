@@ -28,7 +28,7 @@ def formula_lines(a: Analysis, ld: Load) -> list[str]:
     out = []
     for start, end, expr in segments:
         lo, hi = plain(convert(start, units["length"])), plain(convert(end, units["length"]))
-        out += [f"$$v(x) = {sympy_tex(expr)} \\qquad ({lo} \\le x \\le {hi})$$", ""]
+        out += [_display(expr, f"\\qquad ({lo} \\le x \\le {hi})"), ""]
     consistent = ("SI units: N, m, Pa" if system == "si" else
                   "consistent units: kip, in, ksi; the package's own units beside")
     out += [f"with v and x in {units['length']} ({consistent}), where:", ""]
@@ -40,6 +40,41 @@ def formula_lines(a: Analysis, ld: Load) -> list[str]:
             shown += f" ({number(convert(value, own), 6)} {own})"
         out.append(f"- {shown}: {meaning}")
     return out + [""]
+
+
+LINE = 120  # characters of TeX in one line of a broken display (about the text width of a sheet)
+
+
+def _display(expr, where: str) -> str:
+    """v(x) = expr as a display; a long one is broken into lines (`aligned`) at the terms of its longest factor:
+    the other factors as a fraction, then that sum in parentheses, a few terms a line, so that every symbol stays
+    legible when printed, where shrinking the whole to the text width would not."""
+    whole = sympy_tex(expr)
+    if len(whole) <= LINE * 3 // 2:
+        return f"$$v(x) = {whole} {where}$$"
+    import sympy
+    coeff, factors = expr.as_coeff_mul()
+    sums = [f for f in factors if f.is_Add]
+    if not sums:
+        return f"$$v(x) = {whole} {where}$$"
+    big = max(sums, key=lambda f: (len(sympy_tex(f)), sympy.default_sort_key(f)))
+    rest = sympy.Mul(coeff, *(f for f in factors if f is not big))
+    lead = "" if rest == 1 else ("-" if rest == -1 else sympy_tex(rest))
+    lines, line = [], ""
+    for k, term in enumerate(big.as_ordered_terms()):
+        negative = term.could_extract_minus_sign()
+        text = sympy_tex(-term if negative else term)
+        sign = ("- " if negative else "") if k == 0 else (" - " if negative else " + ")
+        room = LINE - (len(lead) // 2 if not lines else 0)  # the first line also holds the fraction
+        if line and len(line) + len(text) > room:
+            lines.append(line)
+            line = sign.strip() + " "
+            sign = ""
+        line += sign + text
+    lines.append(line)
+    rows = [f"v(x) = {{}} & {lead} ({lines[0]}"] + [f"& \\quad {part}" for part in lines[1:]]
+    rows[-1] += f") {where}"
+    return "$$\\begin{aligned} " + " \\\\ ".join(rows) + " \\end{aligned}$$"
 
 
 def _symbol(name: str) -> str:

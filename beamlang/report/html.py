@@ -24,6 +24,7 @@ def tex_to_mathml(tex: str, display: bool) -> str:
     distinct of 4527)."""
     from latex2mathml.converter import convert
     tex = _SINGLE_MATHRM.sub(r"\\mathrm{{\1}}", tex)  # one-letter \mathrm renders italic otherwise
+    tex = tex.replace("{aligned}", "{align*}")  # latex2mathml's aligned shows its & and does not break
     out = convert(tex, display="block" if display else "inline")
     if _UNKNOWN_COMMAND.search(out):
         raise MathError(f"unknown TeX command in formula: {tex}")

@@ -46,6 +46,7 @@ class _Parser:
         self.tokens = [t for t, _ in found]
         self.starts = [s for _, s in found] + [len(tex)]
         self.tex, self.i = tex, 0
+        self.plain_parens = False  # inside `aligned`
 
     def fail(self, what: str) -> MathError:
         return MathError(f"{what} in formula: {self.tex}")
@@ -105,6 +106,8 @@ class _Parser:
             return "\\" + tok
         if tok == "/":
             return "\\/"
+        if tok in "()" and self.plain_parens:
+            return "\\" + tok
         if tok in _PLAIN:
             return tok
         if tok in "#$\"@*~`&^_\\{}":
@@ -136,6 +139,8 @@ class _Parser:
 
     def environment(self) -> str:
         env = self.text_argument().strip('"')
+        if env == "aligned":
+            return self.aligned()
         if env not in MATRICES:
             raise self.fail(f"unknown environment {env}")
         rows: list[list[str]] = [[]]
@@ -153,6 +158,28 @@ class _Parser:
         rows = [r for r in rows if any(cell for cell in r)]
         body = "; ".join(", ".join(cell or '""' for cell in r) for r in rows)
         return f"mat(delim: {MATRICES[env]}, {body})"
+
+
+    def aligned(self) -> str:
+        """A display broken into lines (`&` aligns, `\\\\` breaks). Its parentheses are plain, as in TeX: one that
+        opens on a line and closes on a later one must not become a Typst delimiter group, which cannot break."""
+        self.plain_parens = True
+        lines: list[str] = []
+        cells: list[str] = []
+        while True:
+            cells.append(self.sequence(None))
+            tok = self.take()
+            if tok == "&":
+                continue
+            lines.append(" & ".join(cells))
+            cells = []
+            if tok == "\\\\":
+                continue
+            if tok == "\\end" and self.text_argument().strip('"') == "aligned":
+                break
+            raise self.fail("bad end of aligned")
+        self.plain_parens = False
+        return " \\\n".join(lines)
 
 
 def _raw_text(text: str) -> str:
