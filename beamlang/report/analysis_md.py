@@ -53,7 +53,10 @@ def designation(a: Analysis) -> list[str]:
     return out + [""]
 
 
-def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None = None) -> list[str]:
+def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None = None,
+           shown: dict | None = None) -> list[str]:
+    """One case's or combination's section; `shown` collects the general formulas written out in the package
+    (`formula_md.formula_lines`)."""
     t = a.solution.target(name)
     r = a.result(name)
     m = a.loaded.member
@@ -63,7 +66,7 @@ def target(a: Analysis, name: str, figure: str | None, moving_figure: str | None
         case = m.case(name)
         if case.title:
             lines += [md(case.title), ""]
-        lines += loads_table(a, t) + each_load(a, t) + compatibility(a, t)
+        lines += loads_table(a, t) + each_load(a, t, shown) + compatibility(a, t)
     else:
         terms = " + ".join(f"{plain(f)} × {md(case)}" for f, case in t.terms)
         lines += ([f"{md(name)} = {terms}: every curve and reaction is this factored sum of the case curves "

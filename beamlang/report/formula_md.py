@@ -19,12 +19,23 @@ CONSISTENT = {
 SUPPORT_LETTERS = "ABCDEFGHJKMNPQRSTUVWXYZ"  # as the symbolic solver names supports, in order
 
 
-def formula_lines(a: Analysis, ld: Load) -> list[str]:
-    """v(x) per segment in symbols, then each symbol: its value in consistent units and what it is."""
+def formula_lines(a: Analysis, ld: Load, before: dict | None = None, where: str = "above") -> list[str]:
+    """v(x) per segment in symbols, then each symbol: its value in consistent units and what it is. `before`
+    keeps, per general formula written out before, the line of its load, its symbols' values and `where` it is
+    (its section): a load with the same formula refers to it and names only the symbols whose values differ."""
     m = a.loaded.member
     system = "si" if a.units["length"] == "m" else "us"
     units = CONSISTENT[system]
     segments, names = general_formula(m, ld)
+    same = tuple(expr for _start, _end, expr in segments), tuple(names)
+    if before is not None and same in before:
+        line, values, where = before[same]
+        changed = [name for name, value in names.items() if values[name] != value]
+        listed = ", ".join(_value(m, ld, name, names[name], a.units, units) for name in changed) or "no symbol"
+        return [f"Its general formula is that of the load of line {line} ({where}), segment by segment (this "
+                f"load's segment ends in the table below), with {listed}; every other symbol as there.", ""]
+    if before is not None:
+        before[same] = (ld.span.line, dict(names), where)
     out = []
     for start, end, expr in segments:
         lo, hi = plain(convert(start, units["length"])), plain(convert(end, units["length"]))
@@ -33,13 +44,18 @@ def formula_lines(a: Analysis, ld: Load) -> list[str]:
                   "consistent units: kip, in, ksi; the package's own units beside")
     out += [f"with v and x in {units['length']} ({consistent}), where:", ""]
     for name, value in names.items():
-        kind, meaning = _meaning(m, ld, name, a.units)
-        shown = f"${_symbol(name)} = {quantity(convert(value, units[kind]), units[kind])}$"
-        own = {"length": a.units["length"], "line load": a.units["line load"], "moment": a.units["moment"]}.get(kind)
-        if own is not None and own != units[kind]:
-            shown += f" ({number(convert(value, own), 6)} {own})"
-        out.append(f"- {shown}: {meaning}")
+        out.append(f"- {_value(m, ld, name, value, a.units, units)}: {_meaning(m, ld, name, a.units)[1]}")
     return out + [""]
+
+
+def _value(m: Member, ld: Load, name: str, value, u: dict, units: dict) -> str:
+    """A symbol = its value in consistent units, and in the package's own unit beside where that differs."""
+    kind = _meaning(m, ld, name, u)[0]
+    shown = f"${_symbol(name)} = {quantity(convert(value, units[kind]), units[kind])}$"
+    own = {"length": u["length"], "line load": u["line load"], "moment": u["moment"]}.get(kind)
+    if own is not None and own != units[kind]:
+        shown += f" ({number(convert(value, own), 6)} {own})"
+    return shown
 
 
 LINE = 120  # characters of TeX in one line of a broken display (about the text width of a sheet)

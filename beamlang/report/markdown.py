@@ -14,7 +14,8 @@ def member_markdown(a: Analysis, figures: dict[str, str], changes: list[str] | N
     `changes` is the optional 'Changes since REV' section, placed after the summary."""
     parts = [sections.title(a), results.summary(a), changes or [], sections.inputs(a),
              sections.signs(a, figures["sign convention"]), sections.section_properties(a), sections.method(a)]
-    parts += [results.target(a, t.name, figures.get(t.name), figures.get(f"(moving) {t.name}"))
+    shown: dict = {}  # every general formula written out so far: a later load with the same one refers to it
+    parts += [results.target(a, t.name, figures.get(t.name), figures.get(f"(moving) {t.name}"), shown)
               for t in a.solution.targets]
     parts += [results.envelope(a, figures["(envelope)"]), frequency_section(a, figures)]
     parts += [checks_md.checks_detail(a), results.required(a), results.cross_check(a), sections.cautions(a),

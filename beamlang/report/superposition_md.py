@@ -11,7 +11,7 @@ from beamlang.pipeline import Analysis
 from beamlang.report.sections import vector
 from beamlang.report.selfweight import self_weight_lines
 from beamlang.report.formula_md import formula_lines
-from beamlang.report.tex import cell, plain, poly
+from beamlang.report.tex import cell, md, plain, poly
 from beamlang.report.tributary import tributary_lines
 
 
@@ -66,7 +66,7 @@ def x_range(start, end, length: str = "m") -> str:
     return f"{plain(convert(start, length))} ≤ x ≤ {plain(convert(end, length))}"
 
 
-def each_load(a: Analysis, t) -> list[str]:
+def each_load(a: Analysis, t, shown: dict | None = None) -> list[str]:
     if not t.loads:  # only a moving group: its response is the envelope below, not one elastic curve
         return []
     m = a.loaded.member
@@ -82,6 +82,7 @@ def each_load(a: Analysis, t) -> list[str]:
              f"v(x) in {d} with x in {L}, coefficients shown to six significant digits (computed exactly). "
              "The case curve is their sum.", ""]
     xs = a.solution.xs
+    shown = {} if shown is None else shown  # the general formulas written out before (formula_lines)
     for ld in t.loads:
         deflection = load_deflection(a.solution, ld)
         shared = sum(1 for other in t.loads if other.span.line == ld.span.line) > 1  # self-weight per stretch
@@ -89,7 +90,7 @@ def each_load(a: Analysis, t) -> list[str]:
                  if shared and isinstance(ld, LineLoad) else "")
         lines += [f"Load of line {ld.span.line}{where}:", ""]
         if symbolic:
-            lines += formula_lines(a, ld)
+            lines += formula_lines(a, ld, shown, f"case {md(t.name)}")
         lines += [f"| segment (x in {L}) | v(x) in {d} |", "|---|---|"]
         for start, end, (p,) in runs(xs, deflection):
             lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(p, L, d))}$ |")
