@@ -23,7 +23,10 @@ def test_wheel_contains_grammar_and_installed_copy_finds_it(tmp_path):
     subprocess.run([sys.executable, "-m", "pip", "install", "--no-deps", "-q", "--target", str(target), str(wheel)],
                    check=True, cwd=tmp_path)
     probe = ("import beamlang.language.parse as p; print(p.grammar_path()); "
-             "from beamlang.source import Source; p.parse(Source('x', 'span 1 m\\n')); print('ok')")
+             "from beamlang.source import Source; p.parse(Source('x', 'span 1 m\\n')); print('ok'); "
+             "from beamlang.report.package import code_hash; print(code_hash())")
     out = subprocess.run([sys.executable, "-c", probe], cwd=tmp_path, capture_output=True, text=True,
                          env={"PYTHONPATH": str(target), "PATH": "/usr/bin:/bin"}, check=True).stdout.split()
     assert Path(out[0]).resolve().is_relative_to(target.resolve()) and out[1] == "ok"
+    from beamlang.report.package import code_hash
+    assert out[2] == code_hash()  # the same tool installed or checked out: packages built by either are up to date

@@ -34,12 +34,13 @@ def build_key(source_text: str, options: str) -> str:
 def code_hash() -> str:
     """A hash of beamlang's own files (code, grammar, template, assets): an edited checkout is another tool."""
     root = Path(__file__).resolve().parents[1]
-    digest = hashlib.sha256()
     from beamlang.language.parse import grammar_path
     files = {p for p in root.rglob("*") if p.is_file() and p.suffix in (".py", ".typ", ".lark", ".woff")}
-    for path in sorted(files | {Path(grammar_path()).resolve()}):
-        digest.update(path.name.encode("utf-8") + b"\0" + path.read_bytes())
-    return digest.hexdigest()
+    # each file by its name and content, in an order that does not depend on where the files lie: a checkout
+    # keeps the grammar beside the package, an installed wheel inside it, and both are the same tool
+    entries = sorted(path.name + "\0" + hashlib.sha256(path.read_bytes()).hexdigest()
+                     for path in files | {Path(grammar_path()).resolve()})
+    return hashlib.sha256("\n".join(entries).encode("utf-8")).hexdigest()
 
 
 def up_to_date(out: Path, mark: str, key: str) -> dict | None:
