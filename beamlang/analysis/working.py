@@ -7,9 +7,11 @@ import math
 from fractions import Fraction
 
 from beamlang.analysis.results import factored_loads
+from beamlang.engine.extrema import runs
 from beamlang.engine.moving import standing_case, standing_loads
 from beamlang.engine.roots import square_free
 from beamlang.engine.solve import Solution, curves_with, load_solution, prescribed
+from beamlang.engine.statics import formula_ends
 from beamlang.engine.symbolic import load_formula, worth_deriving
 from beamlang.model import Load, Member
 from beamlang.poly import Piecewise, Poly
@@ -54,6 +56,11 @@ def standing_value(sol: Solution, target, result, field: str, kind: str,
     curve = curves.v if kind == "deflection" else curves.M
     value = curve.at(crit.x, "left") if crit.how == "under a force" else curve.at(crit.x)
     return value, tuple(ld.x for ld in standing_loads(result.envelope, crit))
+
+
+def search_runs(member: Member, curve, derivative) -> list:
+    """(first segment, start, end) of each run of one formula the extremum search examined (`extrema.runs`)."""
+    return runs(curve, derivative, formula_ends(member))
 
 
 def root_factor(poly: Poly) -> Poly:

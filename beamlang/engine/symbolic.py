@@ -13,6 +13,7 @@ import dataclasses
 from bisect import bisect_left
 from dataclasses import dataclass
 from fractions import Fraction
+from functools import lru_cache
 
 from beamlang.exact import Q
 from beamlang.model import Load, Member, MomentLoad, PointLoad, Settlement
@@ -179,14 +180,70 @@ def load_formula(member: Member, load: Load) -> tuple[list[tuple[Fraction, Fract
     key = _layout(member, load, names, numeric)
     values = tuple(names.values())
     pieces = probe.targets[0].curves.v.pieces
-    for derived in _DERIVED.get(key, ()):
+    if key not in _DERIVED:
+        if len(_DERIVED) >= _LAYOUTS:
+            _DERIVED.clear()  # a batch of many members: keep memory flat
+        _DERIVED[key] = _stored(key)
+    for derived in _DERIVED[key]:
         if derived.agrees(values, pieces):
             return _segments(probe.xs, derived.exprs), names
     derived, xs = _derive(member, load)
-    if len(_DERIVED) >= _LAYOUTS:
-        _DERIVED.clear()  # a batch of many members: keep memory flat
-    _DERIVED.setdefault(key, []).append(derived)
+    _DERIVED[key].append(derived)
+    _store(key, _DERIVED[key])
     return _segments(xs, derived.exprs), names
+
+
+def _store_path(key: tuple):
+    """Where the formulas of one layout are kept between runs: a file per layout in the user's cache folder,
+    under a folder named for this beamlang, its engine's code and sympy (another of any: other formulas)."""
+    import hashlib
+
+    from beamlang.cache import cache_root
+    root = cache_root()
+    if root is None:
+        return None
+    return root / f"formulas-{_engine_digest()}" / (hashlib.sha256(repr(key).encode("utf-8")).hexdigest() + ".pickle")
+
+
+@lru_cache(maxsize=1)
+def _engine_digest() -> str:
+    import hashlib
+    from pathlib import Path
+
+    import sympy
+
+    from beamlang import __version__
+    here = Path(__file__).resolve().parent
+    digest = hashlib.sha256(f"{__version__}\0sympy {sympy.__version__}".encode("utf-8"))
+    for path in sorted([*here.glob("*.py"), here.parent / "poly.py", here.parent / "exact.py"]):
+        digest.update(path.name.encode("utf-8") + b"\0" + path.read_bytes())
+    return digest.hexdigest()[:24]
+
+
+def _stored(key: tuple) -> list["_Derived"]:
+    """The formulas kept for this layout by an earlier run, or none (a missing, damaged or foreign file is
+    ignored). Each is used only where it agrees exactly with the engine's curve of the load at hand, so a
+    stale one can cost a derivation, never a wrong formula."""
+    import pickle
+    path = _store_path(key)
+    try:
+        kept = pickle.loads(path.read_bytes()) if path is not None else []
+        return [d for d in kept if isinstance(d, _Derived)] if isinstance(kept, list) else []
+    except Exception:  # noqa: BLE001 (any failure of the cache means: derive again)
+        return []
+
+
+def _store(key: tuple, derived: list["_Derived"]) -> None:
+    import pickle
+
+    from beamlang.cache import write_whole
+    path = _store_path(key)
+    if path is None:
+        return
+    try:
+        write_whole(path, pickle.dumps(derived[-8:], protocol=pickle.HIGHEST_PROTOCOL))
+    except OSError:  # a read-only or full cache: the formula was derived all the same
+        pass
 
 
 _LAYOUTS = 256  # derived formulas kept per process, by layout

@@ -88,22 +88,14 @@ def cache_folder():
     import hashlib
     import os
     import sys
-    from pathlib import Path
 
     import pint
 
     from beamlang import __version__
-    chosen = os.environ.get("BEAMLANG_CACHE", "")
-    if chosen.lower() == "off":
+    from beamlang.cache import cache_root
+    root = cache_root()
+    if root is None:
         return None
-    if chosen:
-        root = Path(chosen)
-    elif sys.platform == "win32":
-        root = Path(os.environ.get("LOCALAPPDATA") or Path.home() / "AppData" / "Local") / "beamlang"
-    elif sys.platform == "darwin":
-        root = Path.home() / "Library" / "Caches" / "beamlang"
-    else:
-        root = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache") / "beamlang"
     install = "\n".join((os.path.realpath(pint.__file__), os.path.realpath(__file__), sys.version))
     digest = hashlib.sha256(install.encode("utf-8")).hexdigest()[:16]
     return root / f"units-{__version__}-pint-{pint.__version__}-{digest}"

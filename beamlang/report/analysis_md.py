@@ -4,10 +4,8 @@ from __future__ import annotations
 
 from beamlang.analysis.display import (CHECK_QUANTITY, at, check_name, convert, governing, number, place, scaled, show,
                                        working_units)
-from beamlang.engine.extrema import runs
-from beamlang.engine.statics import formula_ends
 from beamlang.language import syntax
-from beamlang.analysis.working import reported, root_factor
+from beamlang.analysis.working import reported, root_factor, search_runs
 from beamlang.pipeline import Analysis
 from beamlang.report.checks_md import stress_units
 from beamlang.report.moving_md import moving_section
@@ -158,7 +156,7 @@ def _deflection_search(a: Analysis, t, r) -> list[str]:
                  "strain), is zero at every interior extremum. In every segment the equation dv/dx = 0 (in rad, x in "
                  f"{L}) is solved exactly; its roots inside the segment, and both ends of every segment, are the "
                  f"candidates. {RUNS}", "", "| segment | equation dv/dx = 0 | roots inside the segment |", "|---|---|---|"]
-    for k, lo, hi in runs(c.v, c.slope, formula_ends(a.loaded.member)):  # the runs the search examined
+    for k, lo, hi in search_runs(a.loaded.member, c.v, c.slope):  # the runs the search examined
         roots = [x for x in cands if x.reason == "derivative zero" and x.segment == k]
         text = "; ".join(_root_text(x, L) for x in roots) or "none"
         lines.append(f"| {x_range(lo, hi, L)} | ${poly(scaled(c.slope.pieces[k], L, 'rad'))} = 0$ | {text} |")
