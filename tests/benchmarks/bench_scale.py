@@ -2,7 +2,8 @@
 run, with each target beside its measurement. Not a test; machines are noisy, read the table.
 
 Run: python tests/benchmarks/bench_scale.py [--quick]
-Whole-process rows are CPU seconds (user + system of the child process) and its peak memory; in-process
+Whole-process rows are CPU seconds (user + system of the child process) and its peak memory, each with an
+empty formula cache (a first build) unless the row says the formulas were kept; in-process
 rows are the least CPU time of a few runs (on a shared machine the closer estimate of the cost).
 --quick skips the sympy rows and runs each in-process row once; --in-process skips the whole-process rows.
 
@@ -14,6 +15,7 @@ point loads and the three-span member, and within 5x of the float finite-element
 
 from __future__ import annotations
 
+import os
 import resource
 import subprocess
 import sys
@@ -78,10 +80,13 @@ def spring_settlement() -> str:
                  "case m", "  moving 12 kN and 8 kN down spaced 1.2 m", "combine c = d + s + m"])
 
 
-def child(argv: list[str], folder: Path) -> tuple[float, float]:
-    """(CPU seconds, peak MiB) of one `python -m beamlang ...` process."""
+def child(argv: list[str], folder: Path, cache: str = "") -> tuple[float, float]:
+    """(CPU seconds, peak MiB) of one `python -m beamlang ...` process, with the kept formulas of `cache` (a
+    folder under `folder`); by default an empty one of its own, as a first build: every formula derived."""
     before = resource.getrusage(resource.RUSAGE_CHILDREN)
-    subprocess.run([sys.executable, "-m", "beamlang", *argv], cwd=folder, capture_output=True, check=False)
+    kept = folder / "caches" / (cache or f"cold-{time.perf_counter_ns()}")
+    env = {**os.environ, "BEAMLANG_CACHE": str(kept)}
+    subprocess.run([sys.executable, "-m", "beamlang", *argv], cwd=folder, capture_output=True, check=False, env=env)
     after = resource.getrusage(resource.RUSAGE_CHILDREN)
     cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
     return cpu, after.ru_maxrss / 1024  # maxrss of the largest child so far (kB on Linux)
@@ -192,6 +197,12 @@ def whole_process(rows: "Rows") -> None:
         rows += [("build, 20 cases + 21 combinations", f"{c20:.2f} s CPU, {m20:.0f} MiB peak",
                   f"<= 4x of 1 case ({c20 / c1:.1f}x), < 150 MiB"),
                  ("build, its 1-case sibling", f"{c1:.2f} s CPU", "")]
+        for name in ("cases20", "cases1"):  # again, with the formulas a first build kept
+            child(["build", f"{name}.beam", "-o", out, "--force"], folder, f"warm-{name}")
+        w20, _ = child(["build", "cases20.beam", "-o", out, "--force"], folder, "warm-cases20")
+        w1, _ = child(["build", "cases1.beam", "-o", out, "--force"], folder, "warm-cases1")
+        rows += [("  the same two, formulas kept from a first build", f"{w20:.2f} s and {w1:.2f} s CPU",
+                  f"({w20 / w1:.1f}x)")]
         l200, _ = child(["build", "loads200.beam", "-o", out], folder)
         l1, _ = child(["build", "loads1.beam", "-o", out], folder)
         rows += [("build, simple span with 200 point loads", f"{l200:.2f} s CPU", f"<= 3x of 1 load ({l200 / l1:.1f}x)"),
