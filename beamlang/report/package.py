@@ -90,9 +90,9 @@ def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key
     names = {key: f"figures/{file}" for key, file in figure_names(a).items()}
     text = member_markdown(a, names, list(changes))
     sheets = sheets or Options()
-    if previous is not None:
-        sheets = replace(sheets, marked=tuple(sorted(changed_lines(member_markdown(previous, names, list(changes)),
-                                                                   text))))
+    if previous is not None:  # with this package's figure names (a figure it lacks is left out) and changes
+        before = member_markdown(previous, names, list(changes))
+        sheets = replace(sheets, marked=tuple(sorted(changed_lines(before, text))))
     files = {f"figures/{k}": v.encode("utf-8") for k, v in svgs.items()}
     files[f"{mark}.md"] = text.encode("utf-8")
     page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",

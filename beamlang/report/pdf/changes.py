@@ -4,7 +4,7 @@ Both texts are read with markdown-it (the parse the HTML and the PDF use) and co
 line. A table row is keyed by its section (the heading path below the title), its table's header and its label
 (the first cell; a ditto row by the label above; the k-th row of a repeated label by k): it is marked when no row
 of the previous text has that key, or that row's text differs. A display formula, a paragraph or a list item is
-marked when its text occurs nowhere in the previous text's same section. Input line numbers (a "line" column,
+marked when its text occurs nowhere in the previous text's same section (a figure is not marked). Input line numbers (a "line" column,
 "line 12" in text) are left out of every key and text, so a line inserted above a value does not mark it; so are
 the title-block columns (revision, date, by, checked) of the title table. The Traceability section (the input
 file's name and SHA-256, which change with every revision, and its listing) is not marked.
@@ -35,6 +35,11 @@ def _plain(s: str) -> str:
     return _LINE_REF.sub(r"\1 #", " ".join(s.split()))
 
 
+def _figure(inline) -> bool:
+    """A paragraph that is one figure: not a value (its file name follows the case numbering)."""
+    return [child.type for child in inline.children or []] == ["image"]
+
+
 def _items(markdown: str) -> tuple[dict[tuple, tuple[int, str]], dict[tuple, list[int]]]:
     """Table rows {(section, header, label, k): (line, text)} and other items {(section, text): [lines]}."""
     from beamlang.report.html import _markdown
@@ -52,7 +57,7 @@ def _items(markdown: str) -> tuple[dict[tuple, tuple[int, str]], dict[tuple, lis
                 path[level - 2:] = [_plain(tokens[i + 1].content)]
         elif tok.type == "table_open":
             i = _table(tokens, i, section, rows)
-        elif tok.type in ("math_block", "paragraph_open"):
+        elif tok.type == "math_block" or (tok.type == "paragraph_open" and not _figure(tokens[i + 1])):
             body = tok.content if tok.type == "math_block" else tokens[i + 1].content
             texts.setdefault((section, _plain(body)), []).append(tok.map[0] + 1)
         i += 1
