@@ -4,10 +4,11 @@ Both texts are read with markdown-it (the parse the HTML and the PDF use) and co
 line. A table row is keyed by its section (the heading path below the title), its table's header and its label
 (the first cell; a ditto row by the label above; the k-th row of a repeated label by k): it is marked when no row
 of the previous text has that key, or that row's text differs. A display formula, a paragraph or a list item is
-marked when its text occurs nowhere in the previous text's same section (a figure is not marked). Input line numbers (a "line" column,
-"line 12" in text) are left out of every key and text, so a line inserted above a value does not mark it; so are
-the title-block columns (revision, date, by, checked) of the title table. The Traceability section (the input
-file's name and SHA-256, which change with every revision, and its listing) is not marked.
+marked when its text occurs nowhere in the previous text's same section; a figure is not marked. Input line
+numbers (a "line" column, "line 12" in text) are left out of every key and text, so a line inserted above a value
+does not mark it; so are the title-block columns (revision, date, by, checked) of the title table. The
+Traceability section (the input file's name and SHA-256, which change with every revision, and its listing) is
+not marked.
 """
 
 from __future__ import annotations
