@@ -213,9 +213,9 @@ def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[
         return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
     from beamlang.pipeline import analyse_loaded
     a = analyse_loaded(item)
-    rows, changed = revisions(item, a)
-    options = Options(paper=paper, fallback_date=date, revisions=rows, changed_lines=tuple(sorted(changed)))
-    folder = write_package(a, out, _changes_since(since, item, a) if since else (), options, key)
+    rows, previous = revisions(item, a)
+    options = Options(paper=paper, fallback_date=date, revisions=rows)
+    folder = write_package(a, out, _changes_since(since, item, a) if since else (), options, key, previous)
     return folder.as_posix(), sum(c.passed for c in a.checks), len(a.checks), True
 
 

@@ -192,7 +192,7 @@ def test_an_unchanged_member_is_not_rebuilt(tmp_path, capsys):
 
 
 @poppler
-def test_revisions_from_the_field_and_git_history_with_changed_lines_marked(tmp_path, monkeypatch):
+def test_revisions_from_the_field_and_git_history_with_changed_values_marked(tmp_path, monkeypatch):
     def git(*args):
         subprocess.run(["git", *args], cwd=tmp_path, check=True, capture_output=True)
     text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
@@ -219,5 +219,6 @@ def test_revisions_from_the_field_and_git_history_with_changed_lines_marked(tmp_
     assert 0.093 < new < 0.0928 * (80 / 70) ** 4
     assert f"deflection dead (span/500, span 1): ratio 0.093 -> {new:.3f}" in flat
     section_line = next(i for i, line in enumerate(member.read_text().splitlines(), 1) if line.startswith("section"))
-    marked = [line for line in page.splitlines() if line.replace(" ", "").startswith("▲B")]
-    assert marked and f"{section_line}" in marked[0] and "section round diameter 70 mm" in marked[0]
+    marked = [" ".join(line.split()) for line in page.splitlines() if line.replace(" ", "").startswith("▲B")]
+    assert f"▲B {section_line} section round diameter 70 mm 70 mm 0.07 m" in marked  # the input's row
+    assert any(m.startswith("▲B deflection, span 1") and f"{new:.3f} (governs)" in m for m in marked)  # its ratio

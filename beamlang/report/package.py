@@ -68,39 +68,49 @@ def _record(a: Analysis, key: str, files: dict[str, bytes], paper: str, sheets) 
            "governing": None if worst is None else {"check": check_name(worst, a.units), "ratio": worst.ratio,
                                                     "pass": worst.passed},
            "passed": sum(c.passed for c in a.checks), "checks": len(a.checks), "paper": paper,
-           "files": sorted(files), "changed_lines": list(sheets.changed_lines),
+           "files": sorted(files), "marked": list(sheets.marked),
            "revisions": [[r.revision, r.date, r.by, list(r.changes)] for r in sheets.revisions]}
     return (json.dumps(rec, indent=2, sort_keys=True) + "\n").encode("utf-8")
 
 
-def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key: str = "") -> dict[str, bytes]:
+def package_files(a: Analysis, changes: list[str] | tuple = (), sheets=None, key: str = "",
+                  previous: Analysis | None = None) -> dict[str, bytes]:
     """Every file of the package, by relative path (figures first; the page and the sheets embed them);
-    `sheets` are the PDF's `report.pdf.Options` (paper, fallback date), default when None."""
+    `sheets` are the PDF's `report.pdf.Options` (paper, fallback date, revisions), default when None; the values
+    that differ from the package of `previous` (the previous revision, with the same figure names and changes
+    section) are marked on the sheets."""
+    from dataclasses import replace
+
     from beamlang.report.figures import all_figures, figure_names
     from beamlang.report.html import member_html
     from beamlang.report.markdown import member_markdown
+    from beamlang.report.pdf import Options
+    from beamlang.report.pdf.changes import changed_lines
     mark = folder_name(a.loaded.member.mark)
     svgs = all_figures(a)
     names = {key: f"figures/{file}" for key, file in figure_names(a).items()}
     text = member_markdown(a, names, list(changes))
+    sheets = sheets or Options()
+    if previous is not None:  # with this package's figure names (a figure it lacks is left out) and changes
+        before = member_markdown(previous, names, list(changes))
+        sheets = replace(sheets, marked=tuple(sorted(changed_lines(before, text))))
     files = {f"figures/{k}": v.encode("utf-8") for k, v in svgs.items()}
     files[f"{mark}.md"] = text.encode("utf-8")
     page = member_html(text, f"{a.loaded.member.mark}: {a.loaded.member.title}",
                        {k: v.decode("utf-8") for k, v in files.items() if k.endswith(".svg")})
     files[f"{mark}.html"] = page.encode("utf-8")
-    from beamlang.report.pdf import Options, member_pdf
-    files[f"{mark}.pdf"] = member_pdf(a.loaded.member, text, {f"figures/{k}": v for k, v in svgs.items()},
-                                      sheets or Options())
+    from beamlang.report.pdf import member_pdf, paper_of
+    files[f"{mark}.pdf"] = member_pdf(a.loaded.member, text, {f"figures/{k}": v for k, v in svgs.items()}, sheets)
     files["results.json"] = (json.dumps(member_json(a), indent=2) + "\n").encode("utf-8")
-    from beamlang.report.pdf import paper_of
-    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets or Options()), sheets or Options())
+    files[RECORD] = _record(a, key, files, paper_of(a.loaded.member, sheets), sheets)
     return dict(sorted(files.items()))
 
 
-def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None, key: str = "") -> Path:
+def write_package(a: Analysis, out: Path, changes: list[str] | tuple = (), sheets=None, key: str = "",
+                  previous: Analysis | None = None) -> Path:
     """Build everything in a hidden folder beside the target, then swap it into place (see `swap`)."""
     target = out / folder_name(a.loaded.member.mark)
-    return swap_in(package_files(a, changes, sheets, key), target)
+    return swap_in(package_files(a, changes, sheets, key, previous), target)
 
 
 # The swap. Each member's folder is, at every instant, its old package or its new one:

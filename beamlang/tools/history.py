@@ -31,11 +31,13 @@ def commits(path: Path) -> tuple[str, ...]:
 
 
 def revisions(item, a, limit: int = 6):
-    """The revision table of a member and the input lines changed since its previous revision.
+    """The revision table of a member and the analysis of its previous revision.
 
     Each distinct `revision` value in the file's history (and the working text) is one row; what changed is
     the diff machinery's account (inputs changed, check status changes) between the last text of the previous
-    revision and the last text of this one. Returns (rows, changed lines); rows are `report.pdf.Revision`."""
+    revision and the last text of this one. Returns (rows, previous): rows are `report.pdf.Revision`; previous is
+    the analysis of the last text of the revision before this one (None without one), whose package the sheets
+    compare with this one's to mark the values that changed."""
     from beamlang.errors import BeamError
     from beamlang.language.frontend import from_source
     from beamlang.pipeline import analyse_loaded
@@ -56,15 +58,14 @@ def revisions(item, a, limit: int = 6):
         last.pop(rev, None)
         last[rev] = loaded
     if list(last) == [""]:
-        return (), frozenset()
-    rows, changed, previous = [], frozenset(), None
+        return (), None
+    rows, before, previous = [], None, None
     for rev, loaded in list(last.items())[-limit:]:
         now = a if loaded is item else analyse_loaded(loaded)
         fields = dict(loaded.member.fields)
-        what, lines = _what_changed(previous, now)
-        rows.append(Revision(rev or "-", fields.get("date", ""), fields.get("by", ""), what))
-        changed, previous = lines, now
-    return tuple(rows), changed
+        rows.append(Revision(rev or "-", fields.get("date", ""), fields.get("by", ""), _what_changed(previous, now)))
+        before, previous = previous, now
+    return tuple(rows), before
 
 
 TITLE_FIELDS = {f"field {name}" for name in ("revision", "date", "by", "checked")}  # the row shows these
@@ -74,13 +75,11 @@ def _ratio(r: float | None) -> str:
     return "-" if r is None else f"{r:.3f}"
 
 
-def _what_changed(old, new) -> tuple[tuple[str, ...], frozenset[int]]:
-    """The diff between two revisions as short phrases, and the new text's lines of changed inputs and checks."""
-    import re
-
+def _what_changed(old, new) -> tuple[str, ...]:
+    """The diff between two revisions as short phrases."""
     from beamlang.tools.diff import diff_members
     if old is None:
-        return ("first issue",), frozenset()
+        return ("first issue",)
     d = diff_members(new.loaded.member.mark, old, new)
     inputs = [c for c in d.inputs if c.what not in TITLE_FIELDS]
     phrases = [f"{c.what}: {c.old or '-'} -> {c.new or '-'}" if c.kind == "changed" else f"{c.kind} {c.what}"
@@ -91,6 +90,4 @@ def _what_changed(old, new) -> tuple[tuple[str, ...], frozenset[int]]:
             phrases.append(f"{s.check}: {s.label}, {ratios}")
         elif _ratio(s.old_ratio) != _ratio(s.new_ratio):
             phrases.append(f"{s.check}: {ratios}")
-    lines = {c.line for c in inputs if c.line is not None and c.kind != "removed"}
-    lines |= {int(m.group(1)) for s in d.statuses if (m := re.search(r"\(line (\d+)\)", s.check))}
-    return tuple(phrases) or ("no change to inputs or checks",), frozenset(lines)
+    return tuple(phrases) or ("no change to inputs or checks",)

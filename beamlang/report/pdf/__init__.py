@@ -26,11 +26,12 @@ class Revision:
 @dataclass(frozen=True, slots=True)
 class Options:
     """How the sheets are made beyond the member itself: paper from the project, a fallback date (the commit's),
-    the revision table and the input lines changed since the previous revision (marked in the margin)."""
+    the revision table and the lines of the package Markdown whose values changed since the previous revision
+    (`changes.changed_lines`; marked in the margin)."""
     paper: str | None = None  # a4 | letter; None: the member's `paper` field, else by its unit system
     fallback_date: str | None = None  # YYYY-MM-DD, used when the member has no `date` line
     revisions: tuple[Revision, ...] = ()
-    changed_lines: tuple[int, ...] = ()  # sorted
+    marked: tuple[int, ...] = ()  # sorted
 
 
 def member_info(member) -> Info:
@@ -63,10 +64,10 @@ def pdf_figures(svgs: dict[str, str]) -> dict[str, str]:
 
 def member_body(member, markdown: str, paper: str, prefix: str = "", options: Options = Options()) -> str:
     """One member's `bl-member` call: its title-block facts, paper and converted Markdown (figure keys prefixed),
-    with the revision table before the summary and changed input lines marked."""
+    with the revision table before the summary and the values changed since the previous revision marked."""
     revisions = revision_table(options.revisions)
-    mark = options.revisions[-1].revision if options.revisions and options.changed_lines else ""
-    body = to_typst_markup(markdown, lambda src: prefix + src, revisions, frozenset(options.changed_lines), mark)
+    mark = options.revisions[-1].revision if options.revisions and options.marked else ""
+    body = to_typst_markup(markdown, lambda src: prefix + src, revisions, frozenset(options.marked), mark)
     return bl_member(member_info(member), paper, body)
 
 
@@ -76,8 +77,9 @@ def revision_table(rows: tuple[Revision, ...]) -> str:
         return ""
     cells = ",\n  ".join(", ".join(f"[{text(v)}]" for v in (r.revision, r.date or "-", r.by or "-")) + ", [" +
                          " \\\n".join(text(c) for c in r.changes) + "]" for r in rows)
-    note = (f"A mark ▲ {text(rows[-1].revision)} in the left margin flags a line whose input or check changed since "
-            f"revision {text(rows[-2].revision)}." if len(rows) > 1 else "")
+    note = (f"A mark ▲ {text(rows[-1].revision)} in the left margin flags a table row, formula or line of text whose "
+            f"values (inputs, results, checks) changed since revision {text(rows[-2].revision)}."
+            if len(rows) > 1 else "")
     return (f"\n#heading(level: 2)[Revisions]\n\n#bl-table(4, ([revision], [date], [by], [what changed]), (\n  "
             f"{cells},\n))\n\n{note}\n")
 

@@ -82,7 +82,7 @@ def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, dict[st
         for svg in sorted((folder / "figures").glob("*.svg")):
             figures[f"{rec['folder']}/figures/{svg.name}"] = svg.read_text(encoding="utf-8")
         options = Options(revisions=tuple(Revision(r[0], r[1], r[2], tuple(r[3])) for r in rec["revisions"]),
-                          changed_lines=tuple(rec["changed_lines"]))
+                          marked=tuple(rec["marked"]))
         body.append(member_body(_Member(rec), markdown, rec["paper"], prefix=f"{rec['folder']}/", options=options))
     date = iso_date(dates[-1]) if dates else None
     return document("".join(body), paper, f"Calc set: {info.project}", date, in_set=True), pdf_figures(figures)

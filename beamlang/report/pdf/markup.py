@@ -56,8 +56,8 @@ def estimate_mm(cells: list[list[str]]) -> float:
 def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),
                     mark: str = "") -> str:
     """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG;
-    `before_summary` is Typst placed before the first section; table rows whose line column holds a line of
-    `changed` get a margin mark naming revision `mark`."""
+    `before_summary` is Typst placed before the first section; the table rows, formulas and paragraphs that start
+    on a line of `changed` (lines of the Markdown, from 1) get a margin mark naming revision `mark`."""
     from beamlang.report.html import parsed
     tokens = parsed(markdown)
     return _Writer(tokens, figure_key, before_summary, changed, mark).blocks(0, len(tokens))
@@ -93,8 +93,14 @@ class _Writer:
         before, self.before = (self.before, "") if level == 2 else ("", self.before)
         return f"{before}\n#heading(level: {level})[{self.inline(self.tokens[i + 1])}]\n"
 
+    def _marked(self, tok) -> bool:
+        return tok.map is not None and tok.map[0] + 1 in self.changed
+
+    def _flag(self) -> str:
+        return f"#bl-changed({string(self.mark)});"
+
     def _paragraph(self, i: int, end: int) -> str:
-        body = self.inline(self.tokens[i + 1])
+        body = (self._flag() if self._marked(self.tokens[i]) else "") + self.inline(self.tokens[i + 1])
         nxt = self.tokens[end + 1] if end + 1 < len(self.tokens) else None
         if nxt is not None and nxt.type in ("table_open", "math_block") and body.rstrip().endswith("\\:"):
             return f"\n#bl-lead[{body}]\n"  # a caption line: kept on the sheet of what it introduces
@@ -113,19 +119,15 @@ class _Writer:
 
     def _table(self, i: int, end: int) -> str:
         rows: list[list[str]] = []
-        raw: list[list[str]] = []
+        flag = ""
         for j in range(i, end):
             tok = self.tokens[j]
             if tok.type == "tr_open":
                 rows.append([])
-                raw.append([])
+                flag = self._flag() if self._marked(tok) else ""
             elif tok.type in ("th_open", "td_open"):
-                rows[-1].append("[" + self.inline(self.tokens[j + 1]) + "]")
-                raw[-1].append(self.tokens[j + 1].content.strip())
-        lines = [k for k, name in enumerate(raw[0]) if name in ("line", "input line")]
-        for row, cells in zip(rows[1:], raw[1:]):
-            if self.changed and any(cells[k].isdigit() and int(cells[k]) in self.changed for k in lines):
-                row[0] = f"[#bl-changed({string(self.mark)});{row[0][1:]}"
+                rows[-1].append("[" + flag + self.inline(self.tokens[j + 1]) + "]")
+                flag = ""
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
@@ -136,7 +138,8 @@ class _Writer:
     def _math_block(self, i: int, end: int) -> str:
         tex = self.tokens[i].content
         small = ", small: true" if len(tex) * _MATH_CHAR_MM <= _BODY_MM[0] else ""
-        return f"\n#bl-display($ {to_typst(tex)} ${small})\n"
+        flag = f", mark: {string(self.mark)}" if self._marked(self.tokens[i]) else ""
+        return f"\n#bl-display($ {to_typst(tex)} ${small}{flag})\n"
 
     def _fence(self, i: int, end: int) -> str:
         return f"\n#bl-listing({string(self.tokens[i].content.rstrip(chr(10)))})\n"
