@@ -119,14 +119,17 @@ class _Writer:
 
     def _table(self, i: int, end: int) -> str:
         rows: list[list[str]] = []
+        raw: list[list[str]] = []  # each cell's Markdown source, for the height estimate
         flag = ""
         for j in range(i, end):
             tok = self.tokens[j]
             if tok.type == "tr_open":
                 rows.append([])
+                raw.append([])
                 flag = self._flag() if self._marked(tok) else ""
             elif tok.type in ("th_open", "td_open"):
                 rows[-1].append("[" + flag + self.inline(self.tokens[j + 1]) + "]")
+                raw[-1].append(self.tokens[j + 1].content.strip())
                 flag = ""
         ncols = len(rows[0])
         header = ", ".join(rows[0])
