@@ -21,7 +21,8 @@ from fractions import Fraction
 
 from beamlang.engine.extrema import candidates, derivative_of
 from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _value
-from beamlang.engine.moving.bounds import _Best, _bound, _line_bound, _no_critical_point
+from beamlang.engine.moving.bounds import _Best, _line_bound
+from beamlang.engine.moving.boxes import interior_bounds
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -158,21 +159,33 @@ def _cell_edges(f: Bi, q: str, xs, offsets, cell: _Cell, pa, pb, rev, best: "_Be
     return out
 
 
+SPLITS = (8, 4)  # each box that can hold a critical point split 8 x 8, then each such part 4 x 4
+
+
 def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -> int:
-    """Search the interior of every cell whose float bound (with a safety margin) could beat the values
-    already found: the largest and smallest of v and M, the largest |theta| and |V|, |v| in each span."""
+    """Search the interior of every cell where a part of its box could hold a critical point (df/dx and df/dp
+    both able to vanish there) whose value could beat those already found: the largest and smallest of v and
+    M, the largest |theta| and |V|, |v| in each span (float bounds with a safety margin, `boxes`). The values
+    found only grow, so a cell that cannot beat those found before the first search never can."""
+    mids = [(xs[cell.s] + xs[cell.s + 1]) / 2 for _, _, _, cell, *_ in inner]
+    bounds = interior_bounds([_box(*i[1:6], xs) for i in inner], SPLITS,
+                             lambda k, hi, lo: best.wanted((inner[k][0],), hi, lo, mids[k]))
     searched = 0
-    for q, f, offsets, cell, pa, pb, rev in inner:
-        mid = (xs[cell.s] + xs[cell.s + 1]) / 2
-        if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), mid) for n in (1, 4)):
-            continue
-        if _no_critical_point(f, xs, offsets, cell, pa, pb):
+    for (q, f, offsets, cell, pa, pb, rev), bound, mid in zip(inner, bounds, mids):
+        if bound is None or not (best.wanted((q,), *bound[:2], mid) and best.wanted((q,), *bound[2:], mid)):
             continue
         searched += 1
         for c in _cell_interior(f, xs, offsets, cell, pa, pb, rev):
             found[q].append(c)
             best.note(q, c)
     return searched
+
+
+def _box(f: Bi, offsets, cell: _Cell, pa, pb, xs) -> tuple:
+    """A cell's polynomial, its bounding box in floats and the offsets of its force lines (None: a segment end)."""
+    (x1, x2), (x3, x4) = _x_range(xs, offsets, cell, pa), _x_range(xs, offsets, cell, pb)
+    side = [None if i is None else float(offsets[i]) for i in (cell.left, cell.right)]
+    return (f, float(min(x1, x3)), float(max(x2, x4)), float(pa), float(pb), *side)
 
 
 def _cell_interior(f: Bi, xs, offsets, cell: _Cell, pa, pb, rev) -> list[Critical]:
