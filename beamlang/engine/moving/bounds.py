@@ -45,10 +45,10 @@ class _Best:
                     return True
             elif hi_b > b[0] or lo_b < b[1]:
                 return True
-            if key in self.parts and x_mid is not None:
-                part = bisect_right(self.parts[key], x_mid) - 1
-                if max(abs(hi_b), abs(lo_b)) > self.region.get((key, part), 0.0):
-                    return True
+            if key in self.parts and x_mid is not None:  # a point on a bound belongs to both parts
+                for part in _regions_of(self.parts[key], x_mid) or [-1]:
+                    if max(abs(hi_b), abs(lo_b)) > self.region.get((key, part), 0.0):
+                        return True
         return False
 
 

@@ -59,7 +59,7 @@ def _chunk(items, n: int) -> list:
         for (i, j), c in f.items():
             C[k, i, j] = float(c)
     geo = np.array([g[1:5] for g in items], dtype=float).reshape(-1, 4)  # xa, xb, pa, pb
-    (fb, dx, dp), meets = _parts(C, geo, n), _meets(items, geo, n)
+    (fb, dx, dp), meets = _parts(C, np.abs(C), geo, n, True), _meets(items, geo, n)
     keep = meets & (dx[..., 1] <= 0) & (dx[..., 0] >= 0) & (dp[..., 1] <= 0) & (dp[..., 0] >= 0)
     xa, xb, pa, pb = geo.T
     out = []
@@ -73,8 +73,24 @@ def _chunk(items, n: int) -> list:
     return out + [[] for _ in range(len(items) - len(out))]
 
 
-def _parts(C, geo, n: int):
-    """(hi, lo) of f, df/dx and df/dp on each of the n x n parts of every cell's box: arrays (cells, n*n, 2)."""
+def cell_bounds(C, A, items, n: int) -> list[tuple[float, float]]:
+    """(hi, lo) of each cell's f over the n x n parts of its box that meet the cell, from float coefficient
+    arrays C (cells, I, J) and bounds A >= |C| of the magnitudes of the terms summed into them (the margin's
+    scale); `items` as in `interior_bounds` (its f unused)."""
+    import numpy as np
+    if not items:
+        return []
+    geo = np.array([g[1:5] for g in items], dtype=float).reshape(-1, 4)
+    fb = _parts(C, A, geo, n, False)[0]
+    meets = _meets(items, geo, n)
+    hi = np.where(meets, fb[..., 0], -np.inf).max(axis=1)
+    lo = np.where(meets, fb[..., 1], np.inf).min(axis=1)
+    return list(zip(hi.tolist(), lo.tolist()))
+
+
+def _parts(C, A, geo, n: int, derivatives: bool):
+    """(hi, lo) of f (and of df/dx and df/dp) on each of the n x n parts of every cell's box: arrays
+    (cells, n*n, 2); A >= |C| sets the margin."""
     import numpy as np
     u = (np.arange(n) + 0.5) / n
     xa, xb, pa, pb = geo.T
@@ -87,9 +103,11 @@ def _parts(C, geo, n: int):
     I, J = C.shape[1:]
     T = _shift(x0, I) @ C[:, None] @ np.swapaxes(_shift(p0, J), -1, -2)  # (cells, parts, I, J)
     ri, rj = np.arange(I), np.arange(J)
-    Cx, Tx = C[:, 1:, :] * ri[1:, None], T[:, :, 1:, :] * ri[1:, None]
-    Cp, Tp = C[:, :, 1:] * rj[1:], T[:, :, :, 1:] * rj[1:]
-    return (_bound(C, T, x0, p0, hx, hp), _bound(Cx, Tx, x0, p0, hx, hp), _bound(Cp, Tp, x0, p0, hx, hp))
+    if not derivatives:
+        return (_bound(A, T, x0, p0, hx, hp),)
+    Ax, Tx = A[:, 1:, :] * ri[1:, None], T[:, :, 1:, :] * ri[1:, None]
+    Ap, Tp = A[:, :, 1:] * rj[1:], T[:, :, :, 1:] * rj[1:]
+    return (_bound(A, T, x0, p0, hx, hp), _bound(Ax, Tx, x0, p0, hx, hp), _bound(Ap, Tp, x0, p0, hx, hp))
 
 
 def _powers(c, m: int):
@@ -110,14 +128,14 @@ def _shift(c, m: int):
     return _powers(c, m)[..., np.maximum(e, 0)] * binom
 
 
-def _bound(C, T, x0, p0, hx, hp):
+def _bound(A, T, x0, p0, hx, hp):
     import numpy as np
-    I, J = C.shape[1:]
+    I, J = A.shape[1:]
     if I == 0 or J == 0:
         zero = np.zeros(x0.shape + (2,))
         zero[..., 0], zero[..., 1] = 1e-300, -1e-300
         return zero
-    size = ((_powers(np.abs(x0) + hx, I) @ np.abs(C)) * _powers(np.abs(p0) + hp, J)).sum(axis=-1)
+    size = ((_powers(np.abs(x0) + hx, I) @ A) * _powers(np.abs(p0) + hp, J)).sum(axis=-1)
     w = _powers(hx, I)[..., None] * _powers(hp, J)[..., None, :]
     centre = T[:, :, 0, 0]
     spread = (np.abs(T) * w).sum(axis=(2, 3)) - np.abs(centre)

@@ -20,9 +20,10 @@ from __future__ import annotations
 from fractions import Fraction
 
 from beamlang.engine.extrema import candidates, derivative_of
-from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _value
+from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _taylor2, _value
 from beamlang.engine.moving.bounds import _Best, _line_bound
-from beamlang.engine.moving.boxes import interior_bounds
+from beamlang.engine.moving.boxes import cell_bounds, interior_bounds
+from beamlang.engine.moving.floats import FloatCells, at_x, line_bound
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -35,7 +36,7 @@ from beamlang.engine.moving.cells import (
     group_offsets,
 )
 from beamlang.engine.moving.found import Critical, Envelope
-from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for
+from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for, reaction_terms
 from beamlang.engine.roots import roots_in
 from beamlang.engine.solve import Curves, Solution, Target, curves_with
 from beamlang.engine.statics import region_bounds
@@ -58,6 +59,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
     static = tuple(scaled(ld, k) for k, ld in static_loads)
+    floats = FloatCells(kernels, target, factor)
     for rev in directions(load):
         offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
@@ -74,20 +76,33 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
                 best.note(key, c)
         for pa, pb in zip(events, events[1:]):
             on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
-            for cell in _cells(sol.xs, offsets, on):
+            here = _cells(sol.xs, offsets, on)
+            bounds = _cell_bounds(floats, here, offsets, pa, pb, sol.xs)
+            for k, cell in enumerate(here):
                 cells += 1
+                mid = (sol.xs[cell.s] + sol.xs[cell.s + 1]) / 2
                 for q in QUANTITIES:
+                    b = bounds.get((k, q))
+                    if b is not None and not best.wanted((q,), *b, mid):
+                        continue  # nothing in the cell, edges included, can beat the values found
                     f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
             for x0 in fixed_x:  # influence lines of the fixed points: one polynomial in p per interval
                 cell = _cell_at(sol.xs, offsets, on, x0)
                 for q in ("v", "theta", "M"):
+                    arrays = floats.cell(q, cell, offsets)
+                    if arrays is not None and not best.wanted(((q, x0), q), *line_bound(
+                            [(1.0, *at_x(arrays, x0)[:1], 0.0, at_x(arrays, x0)[1])], pa, pb), x0):
+                        continue
                     f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
                                                   best, ((q, x0), q))
             for j, sp in enumerate(member.supports):
                 for kind in ("R", "Rm"):
+                    terms = reaction_terms(kernels, kind, j, target, on, offsets, factor)
+                    if not best.wanted(((kind, j),), *line_bound(terms, pa, pb)):
+                        continue
                     g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
                     at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
                                                     ((kind, j),))
@@ -168,7 +183,7 @@ def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -
     M, the largest |theta| and |V|, |v| in each span (float bounds with a safety margin, `boxes`). The values
     found only grow, so a cell that cannot beat those found before the first search never can."""
     mids = [(xs[cell.s] + xs[cell.s + 1]) / 2 for _, _, _, cell, *_ in inner]
-    bounds = interior_bounds([_box(*i[1:6], xs) for i in inner], SPLITS,
+    bounds = interior_bounds([_box(*i[1:6], xs, True) for i in inner], SPLITS,
                              lambda k, hi, lo: best.wanted((inner[k][0],), hi, lo, mids[k]))
     searched = 0
     for (q, f, offsets, cell, pa, pb, rev), bound, mid in zip(inner, bounds, mids):
@@ -181,11 +196,32 @@ def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -
     return searched
 
 
-def _box(f: Bi, offsets, cell: _Cell, pa, pb, xs) -> tuple:
-    """A cell's polynomial, its bounding box in floats and the offsets of its force lines (None: a segment end)."""
+def _cell_bounds(floats: FloatCells, here: list[_Cell], offsets, pa, pb, xs) -> dict:
+    """(cell index, quantity) -> (hi, lo) of f over the parts of the cell's box (2 x 2) that meet the cell."""
+    import numpy as np
+    keys, arrays, items = [], [], []
+    for k, cell in enumerate(here):
+        for q in QUANTITIES:
+            a = floats.cell(q, cell, offsets)
+            if a is not None:
+                keys.append((k, q))
+                arrays.append(a)
+                items.append(_box(None, offsets, cell, pa, pb, xs))
+    if not keys:
+        return {}
+    C, A = np.array([a[0] for a in arrays]), np.array([a[1] for a in arrays])
+    return dict(zip(keys, cell_bounds(C, A, items, 2)))
+
+
+def _box(f: Bi | None, offsets, cell: _Cell, pa, pb, xs, local: bool = False) -> tuple:
+    """A cell's polynomial, its bounding box in floats and the offsets of its force lines (None: a segment end);
+    `local`: all of them about the box's centre (f shifted exactly), where float bounds are tight."""
     (x1, x2), (x3, x4) = _x_range(xs, offsets, cell, pa), _x_range(xs, offsets, cell, pb)
-    side = [None if i is None else float(offsets[i]) for i in (cell.left, cell.right)]
-    return (f, float(min(x1, x3)), float(max(x2, x4)), float(pa), float(pb), *side)
+    xa, xb = min(x1, x3), max(x2, x4)
+    xc, pc = ((xa + xb) / 2, (pa + pb) / 2) if local else (Q(0), Q(0))
+    side = [None if i is None else float(offsets[i] + pc - xc) for i in (cell.left, cell.right)]
+    g = _taylor2(f, xc, pc) if local else f
+    return (g, float(xa - xc), float(xb - xc), float(pa - pc), float(pb - pc), *side)
 
 
 def _cell_interior(f: Bi, xs, offsets, cell: _Cell, pa, pb, rev) -> list[Critical]:
