@@ -73,13 +73,26 @@ class FloatCells:
         return self._static[(q, s)]
 
 
-def at_x(arrays, x0) -> tuple[list[float], list[float]]:
-    """The line x = x0 of a cell's float arrays: coefficients in p and their magnitudes."""
-    x, ax = float(x0), abs(float(x0))
-    C, A = arrays
-    g = [sum(C[i, j] * x**i for i in range(SHAPE[0])) for j in range(SHAPE[1])]
-    m = [sum(A[i, j] * ax**i for i in range(SHAPE[0])) for j in range(SHAPE[1])] 
-    return g, [v * (1 + 1e-12) for v in m]
+def lines_at(arrays: list, x0s: list, pa, pb) -> list[tuple[float, float]]:
+    """(hi, lo) over p in [pa, pb] of each cell's float arrays on its line x = x0 (all lines at once): the
+    Taylor form at the middle, widened by MARGIN times the terms' size."""
+    import numpy as np
+    if not arrays:
+        return []
+    x = np.array([float(x0) for x0 in x0s])
+    C, A = np.array([a[0] for a in arrays]), np.array([a[1] for a in arrays])
+    g = np.einsum("ni,nij->nj", x[:, None] ** np.arange(SHAPE[0]), C)
+    m = np.einsum("ni,nij->nj", np.abs(x)[:, None] ** np.arange(SHAPE[0]), A) * (1 + 1e-12)
+    a, b = float(pa), float(pb)
+    mid, half = (a + b) / 2, (b - a) / 2
+    half += 4e-16 * (abs(mid) + half)
+    J = SHAPE[1]
+    B = np.array([[comb(j, k) * mid ** (j - k) if j >= k else 0.0 for j in range(J)] for k in range(J)])
+    T = g @ B.T
+    spread = (np.abs(T[:, 1:]) * half ** np.arange(1, J)).sum(axis=1)
+    size = (m * (abs(mid) + half) ** np.arange(J)).sum(axis=1)
+    slack = MARGIN * (size + spread) + 1e-300
+    return list(zip((T[:, 0] + spread + slack).tolist(), (T[:, 0] - spread - slack).tolist()))
 
 
 def line_bound(terms, pa, pb) -> tuple[float, float]:
@@ -99,3 +112,55 @@ def line_bound(terms, pa, pb) -> tuple[float, float]:
     spread = sum(abs(tk) * half**k for k, tk in enumerate(t) if k)
     slack = MARGIN * (size + spread) + 1e-300
     return t[0] + spread + slack, t[0] - spread - slack
+
+
+def critical_bounds(g, pa, pb, n: int = 8) -> tuple[float, float] | None:
+    """(hi, lo) of g over the parts of [pa, pb] (n of them) where g' can vanish, None when it cannot in any:
+    from g's exact Taylor form at pa, in floats, each bound widened by MARGIN times its terms' size."""
+    import numpy as np
+    c = g.taylor(pa).coeffs
+    if len(c) < 2:
+        return None
+    a = np.array([float(k) for k in c])
+    m = len(a)
+    width = float(pb - pa)
+    h0 = (np.arange(n) + 0.5) * width / n
+    half = width / (2 * n) * (1 + 1e-15) + 4e-16 * (h0 + width / (2 * n))
+    e = np.arange(m)[None, :] - np.arange(m)[:, None]
+    binom = np.array([[comb(i, k) for i in range(m)] for k in range(m)], dtype=float)
+    powers = h0[:, None] ** np.arange(m)
+    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (parts, k, i)
+    T = B @ a  # Taylor coefficients of g at each part's centre
+    reach = (h0 + half)[:, None] ** np.arange(m)
+    hk = half[:, None] ** np.arange(m)
+    spread = (np.abs(T[:, 1:]) * hk[:, 1:]).sum(axis=1)
+    slack = MARGIN * ((np.abs(a) * reach).sum(axis=1) + spread) + 1e-300
+    D = T[:, 1:] * np.arange(1, m)  # g' about each centre
+    d_spread = (np.abs(D[:, 1:]) * hk[:, 1:m - 1]).sum(axis=1)
+    d_slack = MARGIN * ((np.abs(a[1:]) * np.arange(1, m) * reach[:, :m - 1]).sum(axis=1) + d_spread) + 1e-300
+    keep = (D[:, 0] - d_spread - d_slack <= 0) & (D[:, 0] + d_spread + d_slack >= 0)
+    if not keep.any():
+        return None
+    return float((T[keep, 0] + spread[keep] + slack[keep]).max()), float((T[keep, 0] - spread[keep] - slack[keep]).min())
+
+
+def piece_bounds(pieces, xs) -> list[tuple[float, float]]:
+    """(hi, lo) of each exact piece k of a piecewise polynomial over [xs[k], xs[k+1]] (floats, Taylor form at
+    the middle, widened by MARGIN times the terms' size), all pieces at once."""
+    import numpy as np
+    m = max((len(p.coeffs) for p in pieces), default=0)
+    if m == 0:
+        return [(1e-300, -1e-300)] * len(pieces)
+    P = np.array([[float(c) for c in p.coeffs] + [0.0] * (m - len(p.coeffs)) for p in pieces])
+    a, b = np.array([float(x) for x in xs[:-1]]), np.array([float(x) for x in xs[1:]])
+    mid, half = (a + b) / 2, (b - a) / 2
+    half = half + 4e-16 * (np.abs(mid) + half)
+    e = np.arange(m)[None, :] - np.arange(m)[:, None]
+    binom = np.array([[comb(i, k) for i in range(m)] for k in range(m)], dtype=float)
+    powers = mid[:, None] ** np.arange(m)
+    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (pieces, k, i)
+    T = np.einsum("nki,ni->nk", B, P)
+    spread = (np.abs(T[:, 1:]) * half[:, None] ** np.arange(1, m)).sum(axis=1)
+    size = (np.abs(P) * (np.abs(mid) + half)[:, None] ** np.arange(m)).sum(axis=1)
+    slack = MARGIN * (size + spread) + 1e-300
+    return list(zip((T[:, 0] + spread + slack).tolist(), (T[:, 0] - spread - slack).tolist()))

@@ -19,11 +19,11 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.engine.extrema import candidates, derivative_of
+from beamlang.engine.extrema import derivative_of
 from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _taylor2, _value
-from beamlang.engine.moving.bounds import _Best, _line_bound
+from beamlang.engine.moving.bounds import _Best
 from beamlang.engine.moving.boxes import cell_bounds, interior_bounds
-from beamlang.engine.moving.floats import FloatCells, at_x, line_bound
+from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at, piece_bounds
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -88,16 +88,17 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
                     f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
-            for x0 in fixed_x:  # influence lines of the fixed points: one polynomial in p per interval
-                cell = _cell_at(sol.xs, offsets, on, x0)
-                for q in ("v", "theta", "M"):
-                    arrays = floats.cell(q, cell, offsets)
-                    if arrays is not None and not best.wanted(((q, x0), q), *line_bound(
-                            [(1.0, *at_x(arrays, x0)[:1], 0.0, at_x(arrays, x0)[1])], pa, pb), x0):
-                        continue
-                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
-                    at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
-                                                  best, ((q, x0), q))
+            lines = [(x0, q, cell) for x0, cell in ((x0, _cell_at(sol.xs, offsets, on, x0)) for x0 in fixed_x)
+                     for q in ("v", "theta", "M")]
+            arrays = [floats.cell(q, cell, offsets) for _, q, cell in lines]
+            known = [k for k, a in enumerate(arrays) if a is not None]
+            line_bounds = dict(zip(known, lines_at([arrays[k] for k in known], [lines[k][0] for k in known], pa, pb)))
+            for k, (x0, q, cell) in enumerate(lines):  # influence lines of the fixed points: polynomials in p
+                if k in line_bounds and not best.wanted(((q, x0), q), *line_bounds[k], x0):
+                    continue
+                f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
+                                              best, ((q, x0), q))
             for j, sp in enumerate(member.supports):
                 for kind in ("R", "Rm"):
                     terms = reaction_terms(kernels, kind, j, target, on, offsets, factor)
@@ -138,20 +139,31 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
 
 
 def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
+    """Every segment end and, in a segment whose float bound could beat the values found, every zero of the
+    derivative (`extrema.candidates`, pruned) of each response with the group standing at p."""
     for q in QUANTITIES:
         c = _curve(curves, q)
         d = curves.slope if q == "v" else (curves.V if q == "M" else derivative_of(c))
-        for cand in candidates(c, d, Q(0), L):
-            crit = Critical(cand.value, cand.x, p, rev, "group standing", cand.root is None)
-            found[q].append(crit)
-            best.note(q, crit)
+        for k, (piece, (hi, lo)) in enumerate(zip(c.pieces, piece_bounds(c.pieces, c.xs))):
+            a, b = c.xs[k], c.xs[k + 1]
+            if a < 0 or b > L:
+                continue
+            found_here = [Critical(piece(a), a, p, rev, "group standing", True)]
+            if best.wanted((q,), hi, lo, (a + b) / 2):
+                found_here += [Critical(piece(r.x), r.x, p, rev, "group standing", r.exact is not None)
+                               for r in roots_in(d.pieces[k], a, b)]
+            found_here.append(Critical(piece(b), b, p, rev, "group standing", True))
+            for crit in found_here:
+                found[q].append(crit)
+                best.note(q, crit)
 
 
 def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
     """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
     response along a line of the plane; the interior only where its bound could beat what `best` holds."""
     out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
-    if g.degree >= 2 and best.wanted(keys, *_line_bound(g, pa, pb), x_mid):
+    bound = critical_bounds(g, pa, pb) if g.degree >= 2 else None  # where g' can vanish
+    if bound is not None and best.wanted(keys, *bound, x_mid):
         for r in roots_in(g.derivative(), pa, pb):
             out.append(Critical(g(r.x), x_of(r.x), r.x, rev, how, r.exact is not None))
     for c in out:
