@@ -28,12 +28,27 @@ def array(f: Bi):
     return out
 
 
+def interpolated(units, columns) -> tuple | None:
+    """The cubic in xi through four samples, coefficient by coefficient in x, in floats: `kernels.field`'s
+    interpolation from the same Lagrange basis (units[m][j]) and sample pieces, with the magnitudes of the
+    summed terms; None when too large."""
+    import numpy as np
+    width = max(len(c) for c in columns)
+    if width > SHAPE[0]:
+        return None
+    Y = np.array([[float(v) for v in c] + [0.0] * (width - len(c)) for c in columns])  # (samples, x degree)
+    U = np.array([[float(u) for u in row] for row in units])  # (samples, xi degree)
+    K, A = np.zeros(SHAPE), np.zeros(SHAPE)
+    K[:width], A[:width] = Y.T @ U, np.abs(Y).T @ np.abs(U) * (1 + 1e-15)
+    return K, A
+
+
 def shifted(K, d: float):
-    """K(x, p + d) from K(x, xi) in floats, and the magnitudes of the terms summed into each coefficient."""
+    """K(x, p + d) from (K(x, xi), its magnitudes) in floats, and the magnitudes of the terms summed."""
     import numpy as np
     J = SHAPE[1]
     B = np.array([[comb(j, k) * d ** (j - k) if j >= k else 0.0 for k in range(J)] for j in range(J)])
-    return K @ B, np.abs(K) @ np.abs(B) * (1 + 1e-15)
+    return K[0] @ B, K[1] @ np.abs(B) * (1 + 1e-15)
 
 
 class FloatCells:

@@ -58,13 +58,7 @@ class _Kernels:
         """K_q on x segment s for a unit force in segment t; side 'L' (x < xi) or 'R' when s == t."""
         key = (q, s, t, side)
         if key not in self._cache:
-            pieces = []
-            for xi, curves in self.samples(t):
-                k = s if s < t else s + 1  # the unit force adds one breakpoint inside segment t
-                if s == t:
-                    k = t if side == "L" else t + 1
-                pieces.append(_curve(curves, q).pieces[k])
-            self._cache[key] = _interpolate_xi(self.basis(t), pieces)
+            self._cache[key] = _interpolate_xi(self.basis(t), self._pieces(q, s, t, side))
         return self._cache[key]
 
     def shifted(self, q: str, s: int, t: int, side: str, d: Fraction) -> Bi:
@@ -75,14 +69,29 @@ class _Kernels:
         return self._cache[key]
 
     def shifted_float(self, q: str, s: int, t: int, side: str, d: Fraction):
-        """`shifted` in floats (`floats.array`, shifted by d in floats) with a bound of its terms' magnitudes,
-        or None when too large."""
+        """`shifted` in floats with a bound of its terms' magnitudes (`floats.shifted`), or None when too large."""
         key = ("df", q, s, t, side, d)
         if key not in self._cache:
-            from beamlang.engine.moving.floats import array, shifted
-            K = self._cache.setdefault(("ff", q, s, t, side), array(self.field(q, s, t, side)))
+            from beamlang.engine.moving.floats import shifted
+            K = self.field_float(q, s, t, side)
             self._cache[key] = None if K is None else shifted(K, float(d))
         return self._cache[key]
+
+    def field_float(self, q: str, s: int, t: int, side: str):
+        """`field` interpolated in floats from the same samples (no exact kernel is made for a cell that is
+        only bounded), with the magnitudes of the terms summed into each coefficient; None when too large."""
+        key = ("ff", q, s, t, side)
+        if key not in self._cache:
+            from beamlang.engine.moving.floats import interpolated
+            units = self.basis(t)[0]
+            self._cache[key] = interpolated(units, [p.coeffs for p in self._pieces(q, s, t, side)[:4]])
+        return self._cache[key]
+
+    def _pieces(self, q: str, s: int, t: int, side: str) -> list[Poly]:
+        k = s if s < t else s + 1  # the unit force adds one breakpoint inside segment t
+        if s == t:
+            k = t if side == "L" else t + 1
+        return [_curve(curves, q).pieces[k] for _, curves in self.samples(t)]
 
     def reaction_float(self, kind: str, j: int, t: int) -> list[float]:
         key = ("rf", kind, j, t)
