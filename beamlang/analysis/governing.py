@@ -31,7 +31,10 @@ def ties(items, target: Fraction, absolute: bool, length: Fraction) -> tuple["Cr
     """Every candidate whose value ties with `target` (its magnitude, when `absolute`: a mirrored slope or shear
     has the other sign), one per distinct (place, group position, direction), ordered by x, then position."""
     size = abs(target)
-    tied = [c for c in items if abs((abs(c.value) if absolute else c.value) - (size if absolute else target))
+    goal, tol = float(size if absolute else target), 2 * float(SAME) * float(size) + 1e-300
+    near = [c for c in items if abs((abs(float(c.value)) if absolute else float(c.value)) - goal) <= tol]  # a float
+    # pre-filter wider than the exact test (the rounding of both values is far below SAME), then the exact test
+    tied = [c for c in near if abs((abs(c.value) if absolute else c.value) - (size if absolute else target))
             <= SAME * size]
     return distinct(tied, length)
 

@@ -31,7 +31,7 @@ def array(f: Bi):
 def interpolated(units, columns) -> tuple | None:
     """The cubic in xi through four samples, coefficient by coefficient in x, in floats: `kernels.field`'s
     interpolation from the same Lagrange basis (units[m][j]) and sample pieces, with the magnitudes of the
-    summed terms; None when too large."""
+    summed terms' rounding folded in (A >= |K|, and MARGIN * A above the rounding); None when too large."""
     import numpy as np
     width = max(len(c) for c in columns)
     if width > SHAPE[0]:
@@ -39,16 +39,22 @@ def interpolated(units, columns) -> tuple | None:
     Y = np.array([[float(v) for v in c] + [0.0] * (width - len(c)) for c in columns])  # (samples, x degree)
     U = np.array([[float(u) for u in row] for row in units])  # (samples, xi degree)
     K, A = np.zeros(SHAPE), np.zeros(SHAPE)
-    K[:width], A[:width] = Y.T @ U, np.abs(Y).T @ np.abs(U) * (1 + 1e-15)
+    K[:width] = Y.T @ U
+    # the sums' rounding is below 1e-15 times the summed magnitudes: 1e-6 of them, times MARGIN, covers it
+    A[:width] = np.abs(K[:width]) + 1e-6 * (np.abs(Y).T @ np.abs(U))
     return K, A
 
 
-def shifted(K, d: float):
-    """K(x, p + d) from (K(x, xi), its magnitudes) in floats, and the magnitudes of the terms summed."""
+def shift_matrix(d: float):
+    """B with K(x, p + d) = K(x, xi) @ B in floats, and |B| with the rounding of the product folded in: the
+    magnitudes of the terms summed are (|K| @ |B|)."""
     import numpy as np
     J = SHAPE[1]
     B = np.array([[comb(j, k) * d ** (j - k) if j >= k else 0.0 for k in range(J)] for j in range(J)])
-    return K[0] @ B, K[1] @ np.abs(B) * (1 + 1e-15)
+    return B, np.abs(B) * (1 + 1e-15)
+
+
+QS = {"v": 0, "theta": 1, "M": 2, "V": 3}  # the order of kernels.QUANTITIES
 
 
 class FloatCells:
@@ -60,32 +66,38 @@ class FloatCells:
         self._cells: dict = {}
 
     def cell(self, q: str, cell: _Cell, offsets):
-        key = (q, cell, offsets)
+        both = self.cells(cell, offsets)
+        return None if both is None else (both[0][QS[q]], both[1][QS[q]])
+
+    def cells(self, cell: _Cell, offsets):
+        """(C, A) of every quantity on the cell, arrays (quantity, x degree, p degree), or None."""
+        key = (cell, offsets)
         if key not in self._cells:
-            self._cells[key] = self._make(q, cell, offsets)
+            self._cells[key] = self._make(cell, offsets)
         return self._cells[key]
 
-    def _make(self, q: str, cell: _Cell, offsets):
+    def _make(self, cell: _Cell, offsets):
         import numpy as np
-        s = self._static_of(q, cell.s)
+        s = self._static_of(cell.s)
         if s is None:
             return None
-        C, A = s[0].copy(), np.abs(s[0])
+        C, A = s.copy(), np.abs(s)
         for i, t, side in forces_on(cell, offsets):
-            K = self.kernels.shifted_float(q, cell.s, t, side, offsets[i])
-            if K is None:
+            K = [self.kernels.shifted_float(q, cell.s, t, side, offsets[i]) for q in QS]
+            if any(k is None for k in K):
                 return None
             w = self.factor * float(self.kernels.load.forces[i])
-            C += w * K[0]
-            A += abs(w) * K[1]
+            C += w * np.array([k[0] for k in K])
+            A += abs(w) * np.array([k[1] for k in K])
         return C, A
 
-    def _static_of(self, q: str, s: int):
-        if (q, s) not in self._static:
-            piece = _curve(self.target.curves, q).pieces[s]
-            a = array({(i, 0): c for i, c in enumerate(piece.coeffs) if c})
-            self._static[(q, s)] = None if a is None else (a,)
-        return self._static[(q, s)]
+    def _static_of(self, s: int):
+        import numpy as np
+        if s not in self._static:
+            rows = [array({(i, 0): c for i, c in enumerate(_curve(self.target.curves, q).pieces[s].coeffs) if c})
+                    for q in QS]
+            self._static[s] = None if any(r is None for r in rows) else np.array(rows)
+        return self._static[s]
 
 
 def lines_at(arrays: list, x0s: list, pa, pb) -> list[tuple[float, float]]:
@@ -132,31 +144,35 @@ def line_bound(terms, pa, pb) -> tuple[float, float]:
 def critical_bounds(g, pa, pb, n: int = 8) -> tuple[float, float] | None:
     """(hi, lo) of g over the parts of [pa, pb] (n of them) where g' can vanish, None when it cannot in any:
     from g's exact Taylor form at pa, in floats, each bound widened by MARGIN times its terms' size."""
-    import numpy as np
-    c = g.taylor(pa).coeffs
-    if len(c) < 2:
+    a = [float(k) for k in g.taylor(pa).coeffs]
+    if len(a) < 2:
         return None
-    a = np.array([float(k) for k in c])
-    m = len(a)
     width = float(pb - pa)
-    h0 = (np.arange(n) + 0.5) * width / n
-    half = width / (2 * n) * (1 + 1e-15) + 4e-16 * (h0 + width / (2 * n))
-    e = np.arange(m)[None, :] - np.arange(m)[:, None]
-    binom = np.array([[comb(i, k) for i in range(m)] for k in range(m)], dtype=float)
-    powers = h0[:, None] ** np.arange(m)
-    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (parts, k, i)
-    T = B @ a  # Taylor coefficients of g at each part's centre
-    reach = (h0 + half)[:, None] ** np.arange(m)
-    hk = half[:, None] ** np.arange(m)
-    spread = (np.abs(T[:, 1:]) * hk[:, 1:]).sum(axis=1)
-    slack = MARGIN * ((np.abs(a) * reach).sum(axis=1) + spread) + 1e-300
-    D = T[:, 1:] * np.arange(1, m)  # g' about each centre
-    d_spread = (np.abs(D[:, 1:]) * hk[:, 1:m - 1]).sum(axis=1)
-    d_slack = MARGIN * ((np.abs(a[1:]) * np.arange(1, m) * reach[:, :m - 1]).sum(axis=1) + d_spread) + 1e-300
-    keep = (D[:, 0] - d_spread - d_slack <= 0) & (D[:, 0] + d_spread + d_slack >= 0)
-    if not keep.any():
-        return None
-    return float((T[keep, 0] + spread[keep] + slack[keep]).max()), float((T[keep, 0] - spread[keep] - slack[keep]).min())
+    hi = lo = None
+    for part in range(n):
+        h0, half = (part + 0.5) * width / n, width / (2 * n)
+        half += 4e-16 * (h0 + half)  # the part's float ends rounded outward
+        t = _taylor(a, h0)
+        reach = h0 + half
+        d_spread = sum(abs(k * tk) * half ** (k - 1) for k, tk in enumerate(t) if k > 1)
+        d_size = sum(abs(k * ak) * reach ** (k - 1) for k, ak in enumerate(a) if k)
+        d_slack = MARGIN * (d_size + d_spread) + 1e-300
+        if abs(t[1]) > d_spread + d_slack:
+            continue  # g' keeps one sign on this part
+        spread = sum(abs(tk) * half**k for k, tk in enumerate(t) if k)
+        slack = MARGIN * (sum(abs(ak) * reach**k for k, ak in enumerate(a)) + spread) + 1e-300
+        top, bottom = t[0] + spread + slack, t[0] - spread - slack
+        hi, lo = (top, bottom) if hi is None else (max(hi, top), min(lo, bottom))
+    return None if hi is None else (hi, lo)
+
+
+def _taylor(a: list[float], h: float) -> list[float]:
+    """The coefficients of a polynomial (ascending) about h, in floats."""
+    out = list(a)
+    for i in range(len(out) - 1):
+        for j in range(len(out) - 2, i - 1, -1):
+            out[j] += h * out[j + 1]
+    return out
 
 
 def piece_bounds(pieces, xs) -> list[tuple[float, float]]:

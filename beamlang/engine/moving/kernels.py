@@ -72,9 +72,10 @@ class _Kernels:
         """`shifted` in floats with a bound of its terms' magnitudes (`floats.shifted`), or None when too large."""
         key = ("df", q, s, t, side, d)
         if key not in self._cache:
-            from beamlang.engine.moving.floats import shifted
+            from beamlang.engine.moving.floats import shift_matrix
             K = self.field_float(q, s, t, side)
-            self._cache[key] = None if K is None else shifted(K, float(d))
+            B = self._cache.setdefault(("B", d), shift_matrix(float(d)))
+            self._cache[key] = None if K is None else (K[0] @ B[0], K[1] @ B[1])
         return self._cache[key]
 
     def field_float(self, q: str, s: int, t: int, side: str):

@@ -213,15 +213,15 @@ def _cell_bounds(floats: FloatCells, here: list[_Cell], offsets, pa, pb, xs) -> 
     import numpy as np
     keys, arrays, items = [], [], []
     for k, cell in enumerate(here):
-        for q in QUANTITIES:
-            a = floats.cell(q, cell, offsets)
-            if a is not None:
-                keys.append((k, q))
-                arrays.append(a)
-                items.append(_box(None, offsets, cell, pa, pb, xs))
+        a = floats.cells(cell, offsets)
+        if a is not None:
+            box = _box(None, offsets, cell, pa, pb, xs)
+            keys += [(k, q) for q in QUANTITIES]
+            arrays.append(a)
+            items += [box] * len(QUANTITIES)
     if not keys:
         return {}
-    C, A = np.array([a[0] for a in arrays]), np.array([a[1] for a in arrays])
+    C, A = np.concatenate([a[0] for a in arrays]), np.concatenate([a[1] for a in arrays])
     return dict(zip(keys, cell_bounds(C, A, items, 2)))
 
 
