@@ -5,6 +5,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from math import floor
 from typing import TYPE_CHECKING
 
 from beamlang.engine.extrema import SAME
@@ -43,12 +44,16 @@ def distinct(items, length: Fraction) -> tuple["Critical", ...]:
     """One candidate per place and group position (the same point found from two cells, or by two routes,
     counts once; an exact one is kept before a refined one)."""
     eps = NEAR * length
+    width = 2 * float(eps)  # two places within eps of each other (exactly) fall in the same or adjacent buckets
     out: list = []
+    kept: dict[tuple, list] = {}  # (direction, bucket of x, bucket of position) -> the candidates kept there
     for c in sorted(items, key=lambda c: (c.x, c.reversed, c.position, not c.exact)):
-        if any(o.reversed == c.reversed and abs(o.x - c.x) <= eps and abs(o.position - c.position) <= eps
-               for o in out):
+        bx, bp = floor(float(c.x) / width), floor(float(c.position) / width)
+        near = (o for i in (-1, 0, 1) for j in (-1, 0, 1) for o in kept.get((c.reversed, bx + i, bp + j), ()))
+        if any(abs(o.x - c.x) <= eps and abs(o.position - c.position) <= eps for o in near):
             continue
         out.append(c)
+        kept.setdefault((c.reversed, bx, bp), []).append(c)
     return tuple(out)
 
 
