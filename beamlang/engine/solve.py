@@ -192,10 +192,18 @@ def curves_with(solution: Solution, loads: tuple[Load, ...]) -> Curves:
     """Point loads and moments anywhere (breakpoints added where needed) on the member: exact curves."""
     member = solution.member
     xs = tuple(sorted(set(solution.xs) | {ld.x for ld in loads if isinstance(ld, (PointLoad, MomentLoad))}))
-    if xs == solution.xs:
-        return _solve_loads(member, xs, solution.EI, solution.primary, loads).curves
-    EI = stiffness(member, xs)
-    return _solve_loads(member, xs, EI, _primary(member, xs, EI), loads).curves
+    EI = solution.EI if xs == solution.xs else stiffness(member, xs)
+    if _is_banded(member, solution.primary):  # the curves alone: no primary beam for the compatibility text
+        (V, M, theta, v), reactions = solve_banded(member, xs, EI, loads, prescribed(member, loads))
+        return Curves(V, M, theta, v, reactions)
+    # the solution's primary beam serves any finer grid: its statics, kinematics and flexibility (support
+    # displacements under unit redundants) do not depend on where the segments end
+    return _solve_loads(member, xs, EI, solution.primary, loads).curves
+
+
+def _is_banded(member: Member, primary: Primary) -> bool:
+    """Many redundants and bending only: the banded stiffness form solves the member."""
+    return len(primary.redundants) >= BANDED_FROM and not member.shear_deformation
 
 
 def _sum(curves: list[Curves], member: Member, xs) -> Curves:
@@ -281,7 +289,7 @@ def _displacement(member: Member, r: Restraint, c: Curves) -> Fraction:
 
 
 def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
-    if len(primary.redundants) >= BANDED_FROM and not member.shear_deformation:  # the banded form is bending only
+    if _is_banded(member, primary):  # the banded form is bending only
         return _banded(member, xs, EI, primary, loads)
     base = _on_primary(member, xs, EI, primary, list(loads))
     D0 = tuple(_displacement(member, r, base) for r in primary.redundants)

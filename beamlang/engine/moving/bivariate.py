@@ -44,35 +44,74 @@ def _d(f: Bi, var: int) -> Bi:
     return {k: c for k, c in out.items() if c}
 
 
+def _powers(x, n: int) -> list:
+    out = [Q(1)]
+    for _ in range(n):
+        out.append(out[-1] * x)
+    return out
+
+
 def _value(f: Bi, x: Fraction, p: Fraction) -> Fraction:
-    return sum((c * x**i * p**j for (i, j), c in f.items()), Q(0))
+    xp = _powers(x, max((i for i, _ in f), default=0))
+    pp = _powers(p, max((j for _, j in f), default=0))
+    return sum((c * xp[i] * pp[j] for (i, j), c in f.items()), Q(0))
 
 
 def _at_x(f: Bi, x: Fraction) -> Poly:
     """f(x0, p) as a polynomial in p."""
+    xp = _powers(x, max((i for i, _ in f), default=0))
     coeffs: dict[int, Fraction] = {}
     for (i, j), c in f.items():
-        coeffs[j] = coeffs.get(j, Q(0)) + c * x**i
-    return Poly.of(*[coeffs.get(j, 0) for j in range(max(coeffs, default=-1) + 1)])
+        coeffs[j] = coeffs.get(j, Q(0)) + c * xp[i]
+    return Poly(_trim_q([coeffs.get(j, Q(0)) for j in range(max(coeffs, default=-1) + 1)]))
 
 
 def _at_p(f: Bi, p: Fraction) -> Poly:
     """f(x, p0) as a polynomial in x."""
+    pp = _powers(p, max((j for _, j in f), default=0))
     coeffs: dict[int, Fraction] = {}
     for (i, j), c in f.items():
-        coeffs[i] = coeffs.get(i, Q(0)) + c * p**j
-    return Poly.of(*[coeffs.get(i, 0) for i in range(max(coeffs, default=-1) + 1)])
+        coeffs[i] = coeffs.get(i, Q(0)) + c * pp[j]
+    return Poly(_trim_q([coeffs.get(i, Q(0)) for i in range(max(coeffs, default=-1) + 1)]))
 
 
 def _on_diagonal(f: Bi, d: Fraction) -> Poly:
-    """f(p + d, p) as a polynomial in p."""
-    total = Poly()
+    """f(p + d, p) as a polynomial in p: (p + d)^i = sum_k C(i, k) p^k d^(i-k)."""
+    dp = _powers(d, max((i for i, _ in f), default=0))
+    coeffs: dict[int, Fraction] = {}
     for (i, j), c in f.items():
-        term = Poly.of(*([0] * j + [c]))
-        for _ in range(i):
-            term = term * Poly.of(d, 1)
-        total = total + term
-    return total
+        for k, b in enumerate(_binomials(i)):
+            coeffs[k + j] = coeffs.get(k + j, Q(0)) + c * b * dp[i - k]
+    return Poly(_trim_q([coeffs.get(k, Q(0)) for k in range(max(coeffs, default=-1) + 1)]))
+
+
+def _trim_q(coeffs: list) -> tuple:
+    while coeffs and not coeffs[-1]:
+        coeffs.pop()
+    return tuple(coeffs)
+
+
+def _taylor2(f: Bi, xc: Fraction, pc: Fraction) -> Bi:
+    """f(xc + u, pc + w) as a polynomial in (u, w) (exact): its coefficients are small where the cell is, so
+    float bounds of it are tight."""
+    out: Bi = {}
+    for i, col in enumerate(_in_x(f)):  # f = sum_i x^i P_i(p): each P_i at pc + w
+        for j, c in enumerate(_shift1(col.coeffs, pc)):
+            if c:
+                out[(i, j)] = c
+    rows: dict[int, list] = {}
+    for (i, j), c in out.items():
+        rows.setdefault(j, [Q(0)] * (max(i for i, _ in out) + 1))[i] = c
+    return {(i, j): c for j, row in rows.items() for i, c in enumerate(_shift1(row, xc)) if c}
+
+
+def _shift1(coeffs, a) -> list:
+    out = list(coeffs)
+    n = len(out)
+    for i in range(n - 1):
+        for j in range(n - 2, i - 1, -1):
+            out[j] += a * out[j + 1]
+    return out
 
 
 def _in_x(f: Bi) -> list[Poly]:

@@ -19,9 +19,11 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.engine.extrema import candidates, derivative_of
-from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _value
-from beamlang.engine.moving.bounds import _Best, _bound, _line_bound, _no_critical_point
+from beamlang.engine.extrema import derivative_of
+from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _taylor2, _value
+from beamlang.engine.moving.bounds import _Best
+from beamlang.engine.moving.boxes import cell_bounds, interior_bounds
+from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at, piece_bounds
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -34,7 +36,7 @@ from beamlang.engine.moving.cells import (
     group_offsets,
 )
 from beamlang.engine.moving.found import Critical, Envelope
-from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for
+from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for, reaction_terms
 from beamlang.engine.roots import roots_in
 from beamlang.engine.solve import Curves, Solution, Target, curves_with
 from beamlang.engine.statics import region_bounds
@@ -57,6 +59,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
     static = tuple(scaled(ld, k) for k, ld in static_loads)
+    floats = FloatCells(kernels, target, factor)
     for rev in directions(load):
         offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
@@ -73,20 +76,34 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
                 best.note(key, c)
         for pa, pb in zip(events, events[1:]):
             on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
-            for cell in _cells(sol.xs, offsets, on):
+            here = _cells(sol.xs, offsets, on)
+            bounds = _cell_bounds(floats, here, offsets, pa, pb, sol.xs)
+            for k, cell in enumerate(here):
                 cells += 1
+                mid = (sol.xs[cell.s] + sol.xs[cell.s + 1]) / 2
                 for q in QUANTITIES:
+                    b = bounds.get((k, q))
+                    if b is not None and not best.wanted((q,), *b, mid):
+                        continue  # nothing in the cell, edges included, can beat the values found
                     f = _cell_poly(kernels, target, q, cell, offsets, factor)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
-            for x0 in fixed_x:  # influence lines of the fixed points: one polynomial in p per interval
-                cell = _cell_at(sol.xs, offsets, on, x0)
-                for q in ("v", "theta", "M"):
-                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
-                    at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
-                                                  best, ((q, x0), q))
+            lines = [(x0, q, cell) for x0, cell in ((x0, _cell_at(sol.xs, offsets, on, x0)) for x0 in fixed_x)
+                     for q in ("v", "theta", "M")]
+            arrays = [floats.cell(q, cell, offsets) for _, q, cell in lines]
+            known = [k for k, a in enumerate(arrays) if a is not None]
+            line_bounds = dict(zip(known, lines_at([arrays[k] for k in known], [lines[k][0] for k in known], pa, pb)))
+            for k, (x0, q, cell) in enumerate(lines):  # influence lines of the fixed points: polynomials in p
+                if k in line_bounds and not best.wanted(((q, x0), q), *line_bounds[k], x0):
+                    continue
+                f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
+                                              best, ((q, x0), q))
             for j, sp in enumerate(member.supports):
                 for kind in ("R", "Rm"):
+                    terms = reaction_terms(kernels, kind, j, target, on, offsets, factor)
+                    if not best.wanted(((kind, j),), *line_bound(terms, pa, pb)):
+                        continue
                     g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
                     at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
                                                     ((kind, j),))
@@ -122,20 +139,31 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
 
 
 def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
+    """Every segment end and, in a segment whose float bound could beat the values found, every zero of the
+    derivative (`extrema.candidates`, pruned) of each response with the group standing at p."""
     for q in QUANTITIES:
         c = _curve(curves, q)
         d = curves.slope if q == "v" else (curves.V if q == "M" else derivative_of(c))
-        for cand in candidates(c, d, Q(0), L):
-            crit = Critical(cand.value, cand.x, p, rev, "group standing", cand.root is None)
-            found[q].append(crit)
-            best.note(q, crit)
+        for k, (piece, (hi, lo)) in enumerate(zip(c.pieces, piece_bounds(c.pieces, c.xs))):
+            a, b = c.xs[k], c.xs[k + 1]
+            if a < 0 or b > L:
+                continue
+            found_here = [Critical(piece(a), a, p, rev, "group standing", True)]
+            if best.wanted((q,), hi, lo, (a + b) / 2):
+                found_here += [Critical(piece(r.x), r.x, p, rev, "group standing", r.exact is not None)
+                               for r in roots_in(d.pieces[k], a, b)]
+            found_here.append(Critical(piece(b), b, p, rev, "group standing", True))
+            for crit in found_here:
+                found[q].append(crit)
+                best.note(q, crit)
 
 
 def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
     """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
     response along a line of the plane; the interior only where its bound could beat what `best` holds."""
     out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
-    if g.degree >= 2 and best.wanted(keys, *_line_bound(g, pa, pb), x_mid):
+    bound = critical_bounds(g, pa, pb) if g.degree >= 2 else None  # where g' can vanish
+    if bound is not None and best.wanted(keys, *bound, x_mid):
         for r in roots_in(g.derivative(), pa, pb):
             out.append(Critical(g(r.x), x_of(r.x), r.x, rev, how, r.exact is not None))
     for c in out:
@@ -158,21 +186,54 @@ def _cell_edges(f: Bi, q: str, xs, offsets, cell: _Cell, pa, pb, rev, best: "_Be
     return out
 
 
+SPLITS = (8, 4)  # each box that can hold a critical point split 8 x 8, then each such part 4 x 4
+
+
 def _interiors(found: dict[str, list[Critical]], inner: list, xs, best: _Best) -> int:
-    """Search the interior of every cell whose float bound (with a safety margin) could beat the values
-    already found: the largest and smallest of v and M, the largest |theta| and |V|, |v| in each span."""
+    """Search the interior of every cell where a part of its box could hold a critical point (df/dx and df/dp
+    both able to vanish there) whose value could beat those already found: the largest and smallest of v and
+    M, the largest |theta| and |V|, |v| in each span (float bounds with a safety margin, `boxes`). The values
+    found only grow, so a cell that cannot beat those found before the first search never can."""
+    mids = [(xs[cell.s] + xs[cell.s + 1]) / 2 for _, _, _, cell, *_ in inner]
+    bounds = interior_bounds([_box(*i[1:6], xs, True) for i in inner], SPLITS,
+                             lambda k, hi, lo: best.wanted((inner[k][0],), hi, lo, mids[k]))
     searched = 0
-    for q, f, offsets, cell, pa, pb, rev in inner:
-        mid = (xs[cell.s] + xs[cell.s + 1]) / 2
-        if not all(best.wanted((q,), *_bound(f, xs, offsets, cell, pa, pb, n), mid) for n in (1, 4)):
-            continue
-        if _no_critical_point(f, xs, offsets, cell, pa, pb):
+    for (q, f, offsets, cell, pa, pb, rev), bound, mid in zip(inner, bounds, mids):
+        if bound is None or not (best.wanted((q,), *bound[:2], mid) and best.wanted((q,), *bound[2:], mid)):
             continue
         searched += 1
         for c in _cell_interior(f, xs, offsets, cell, pa, pb, rev):
             found[q].append(c)
             best.note(q, c)
     return searched
+
+
+def _cell_bounds(floats: FloatCells, here: list[_Cell], offsets, pa, pb, xs) -> dict:
+    """(cell index, quantity) -> (hi, lo) of f over the parts of the cell's box (2 x 2) that meet the cell."""
+    import numpy as np
+    keys, arrays, items = [], [], []
+    for k, cell in enumerate(here):
+        a = floats.cells(cell, offsets)
+        if a is not None:
+            box = _box(None, offsets, cell, pa, pb, xs)
+            keys += [(k, q) for q in QUANTITIES]
+            arrays.append(a)
+            items += [box] * len(QUANTITIES)
+    if not keys:
+        return {}
+    C, A = np.concatenate([a[0] for a in arrays]), np.concatenate([a[1] for a in arrays])
+    return dict(zip(keys, cell_bounds(C, A, items, 2)))
+
+
+def _box(f: Bi | None, offsets, cell: _Cell, pa, pb, xs, local: bool = False) -> tuple:
+    """A cell's polynomial, its bounding box in floats and the offsets of its force lines (None: a segment end);
+    `local`: all of them about the box's centre (f shifted exactly), where float bounds are tight."""
+    (x1, x2), (x3, x4) = _x_range(xs, offsets, cell, pa), _x_range(xs, offsets, cell, pb)
+    xa, xb = min(x1, x3), max(x2, x4)
+    xc, pc = ((xa + xb) / 2, (pa + pb) / 2) if local else (Q(0), Q(0))
+    side = [None if i is None else float(offsets[i] + pc - xc) for i in (cell.left, cell.right)]
+    g = _taylor2(f, xc, pc) if local else f
+    return (g, float(xa - xc), float(xb - xc), float(pa - pc), float(pb - pc), *side)
 
 
 def _cell_interior(f: Bi, xs, offsets, cell: _Cell, pa, pb, rev) -> list[Critical]:
