@@ -190,6 +190,32 @@ def test_a_members_set_sheets_are_its_own_sheets_with_the_set_number_added(built
             assert _size(whole, s) == _size(pdf, k), (pdf.name, k)
 
 
+@poppler
+def test_the_set_number_lands_in_the_calc_set_cell_when_the_title_block_rows_wrap(tmp_path):
+    text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
+    long = " ".join(["a long name that wraps"] * 6)
+    src = tmp_path / "src"
+    src.mkdir()
+    (src / "l.beam").write_text(text.replace('"Workshop door lintel"', f'"{long}"')
+                                .replace('project "Demo garden studio"', f'project "{long}"'), encoding="utf-8")
+    assert main(["build", str(src), "-o", str(tmp_path / "out")]) == 0
+    word = re.compile(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)">([^<]*)<')
+    pages = subprocess.run(["pdftotext", "-bbox", str(tmp_path / "out" / "calc-set.pdf"), "-"], check=True,
+                           capture_output=True, text=True).stdout.split("</page>")[:-1]
+    own = subprocess.run(["pdftotext", "-bbox", str(tmp_path / "out" / "L-4" / "L-4.pdf"), "-"], check=True,
+                         capture_output=True, text=True).stdout.split("</page>")[:-1]
+    assert len(pages) == len(own) + 1
+    for s, page in enumerate(pages[1:], start=2):
+        words = [(float(x), float(top), float(bottom), w) for x, top, bottom, w in word.findall(page)]
+        label = next(i for i, (*_box, w) in enumerate(words) if w == "CALC" and words[i + 1][3] == "SET")
+        number = next(i for i, (*_box, w) in enumerate(words) if w == "Set" and words[i + 1][3] == "sheet")
+        assert [w for *_box, w in words[number:number + 5]] == ["Set", "sheet", str(s), "of", str(len(pages))]
+        assert abs(words[number][0] - words[label][0]) < 0.5, s  # the value's column: the label's
+        assert 0 < words[number][1] - words[label][2] < 4, s  # its line: the one below the label
+        block = next(top for _x, top, _bottom, w in words if w == "PROJECT")
+        assert len({top for _x, top, _bottom, w in words if w == "wraps" and top > block}) == 4, s  # rows wrap
+
+
 def _size(pdf: Path, k: int) -> str:
     info = subprocess.run(["pdfinfo", "-f", str(k), "-l", str(k), str(pdf)], check=True, capture_output=True,
                           text=True).stdout

@@ -15,7 +15,7 @@ from pathlib import Path
 from beamlang import __version__
 from beamlang.report.pdf import member_info
 from beamlang.report.pdf.markup import string, text
-from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date, typst_paper
+from beamlang.report.pdf.sheet import Info, bl_member, body_size, compile_pdf, document, iso_date, typst_paper
 from beamlang.report.tex import cell, md
 
 SET_PDF = "calc-set.pdf"
@@ -102,8 +102,8 @@ def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, list[tu
     total = contents_sheets + sum(counts)
     files = [string(f"/{r['folder']}/{r['folder']}.pdf") for r in records]
     members = "".join(
-        f"#for k in range(1, {n + 1}) {{ bl-set-sheet({file}, "
-        f"{typst_paper(r['paper'])}, {member_info(_Member(r)).typst()}, k, {n}, {first - 1} + k, {total}) }}\n"
+        f"#bl-set-sheets({file}, {typst_paper(r['paper'])}, {body_size(r['paper'])}.width, "
+        f"{member_info(_Member(r)).typst()}, {n}, {first}, {total})\n"
         for r, file, n, (first, _last) in zip(records, files, counts, sheets))
     return document(contents + members, paper, title, date, in_set=True), sheets, total
 
