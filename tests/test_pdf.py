@@ -1,6 +1,7 @@
 """The PDF sheets, read back from the built files with poppler (pdftotext, pdfinfo) and typst's own layout query:
 a title block with the right "Sheet k of N" on every sheet, nothing past the right margin, tables kept on one
-sheet, every formula typeset as math, fixed dates, byte-identical rebuilds."""
+sheet, every formula typeset as math, fixed dates, byte-identical rebuilds; the calc set's member sheets are the
+members' own sheets with the set sheet number added."""
 
 from __future__ import annotations
 
@@ -39,8 +40,8 @@ def _members(out: Path):
         yield item, folder, folder / f"{item.member.mark}.pdf"
 
 
-def _pages(pdf: Path) -> list[str]:
-    text = subprocess.run(["pdftotext", "-layout", str(pdf), "-"], check=True, capture_output=True, text=True).stdout
+def _pages(pdf: Path, mode: str = "-layout") -> list[str]:
+    text = subprocess.run(["pdftotext", mode, str(pdf), "-"], check=True, capture_output=True, text=True).stdout
     return text.split("\f")[:-1]
 
 
@@ -169,6 +170,56 @@ def test_the_index_lists_every_member_with_its_governing_ratio_and_set_sheets(bu
         contents = " ".join(" ".join(p.split()) for p in pages[:record["members"][0]["sheets"][0] - 1])
         assert item.member.mark in contents and f"{worst:.3f}" in contents and f"{first} to {last}" in contents
     assert len(listed) == len(EXAMPLES)
+
+
+@poppler
+def test_a_members_set_sheets_are_its_own_sheets_with_the_set_number_added(built):
+    import json
+    record = json.loads((built / "index.json").read_text(encoding="utf-8"))
+    whole = built / "calc-set.pdf"
+    in_set = _pages(whole, "-raw")  # content order: the embedded sheet's text, then what the set draws over it
+    listed = {m["mark"]: m["sheets"] for m in record["members"]}
+    for item, _folder, pdf in _members(built):
+        own = _pages(pdf, "-raw")
+        first, last = listed[item.member.mark]
+        assert last - first + 1 == len(own)
+        for k, page in enumerate(own, start=1):
+            s = first + k - 1
+            assert "Set sheet" not in page and "single member" not in page, (pdf.name, k)  # nothing to contradict
+            assert in_set[s - 1] == page + f"Set sheet {s} of {record['sheets']}\n", (pdf.name, k, s)
+            assert _size(whole, s) == _size(pdf, k), (pdf.name, k)
+
+
+@poppler
+def test_the_set_number_lands_in_the_calc_set_cell_when_the_title_block_rows_wrap(tmp_path):
+    text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
+    long = " ".join(["a long name that wraps"] * 6)
+    src = tmp_path / "src"
+    src.mkdir()
+    (src / "l.beam").write_text(text.replace('"Workshop door lintel"', f'"{long}"')
+                                .replace('project "Demo garden studio"', f'project "{long}"'), encoding="utf-8")
+    assert main(["build", str(src), "-o", str(tmp_path / "out")]) == 0
+    word = re.compile(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)">([^<]*)<')
+    pages = subprocess.run(["pdftotext", "-bbox", str(tmp_path / "out" / "calc-set.pdf"), "-"], check=True,
+                           capture_output=True, text=True).stdout.split("</page>")[:-1]
+    own = subprocess.run(["pdftotext", "-bbox", str(tmp_path / "out" / "L-4" / "L-4.pdf"), "-"], check=True,
+                         capture_output=True, text=True).stdout.split("</page>")[:-1]
+    assert len(pages) == len(own) + 1
+    for s, page in enumerate(pages[1:], start=2):
+        words = [(float(x), float(top), float(bottom), w) for x, top, bottom, w in word.findall(page)]
+        label = next(i for i, (*_box, w) in enumerate(words) if w == "CALC" and words[i + 1][3] == "SET")
+        number = next(i for i, (*_box, w) in enumerate(words) if w == "Set" and words[i + 1][3] == "sheet")
+        assert [w for *_box, w in words[number:number + 5]] == ["Set", "sheet", str(s), "of", str(len(pages))]
+        assert abs(words[number][0] - words[label][0]) < 0.5, s  # the value's column: the label's
+        assert 0 < words[number][1] - words[label][2] < 4, s  # its line: the one below the label
+        block = next(top for _x, top, _bottom, w in words if w == "PROJECT")
+        assert len({top for _x, top, _bottom, w in words if w == "wraps" and top > block}) == 4, s  # rows wrap
+
+
+def _size(pdf: Path, k: int) -> str:
+    info = subprocess.run(["pdfinfo", "-f", str(k), "-l", str(k), str(pdf)], check=True, capture_output=True,
+                          text=True).stdout
+    return re.search(rf"Page\s+{k} size:\s+(.*)", info).group(1)
 
 
 def test_an_unchanged_member_is_not_rebuilt(tmp_path, capsys):

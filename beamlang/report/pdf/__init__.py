@@ -1,7 +1,8 @@
 """PDF: a member's calc-package Markdown + figures -> <mark>.pdf sheets; members -> the calc set with contents.
 
-`member_pdf` typesets one member; `set_pdf` (in `calcset.py`) the whole project. The Markdown is the one source:
-`markup.py` converts it, `math.py` its formulas, `sheet.py` adds the title block and runs typst."""
+`member_pdf` typesets one member; `write_set` (in `calcset.py`) makes the project's set from the members' PDFs.
+The Markdown is the one source: `markup.py` converts it, `math.py` its formulas, `sheet.py` adds the title block
+and runs typst."""
 
 from __future__ import annotations
 
@@ -62,12 +63,12 @@ def pdf_figures(svgs: dict[str, str]) -> dict[str, str]:
     return {key: svg.replace(f'font-family="{FONT}"', 'font-family="DejaVu Sans Mono"') for key, svg in svgs.items()}
 
 
-def member_body(member, markdown: str, paper: str, prefix: str = "", options: Options = Options()) -> str:
-    """One member's `bl-member` call: its title-block facts, paper and converted Markdown (figure keys prefixed),
-    with the revision table before the summary and the values changed since the previous revision marked."""
+def member_body(member, markdown: str, paper: str, options: Options = Options()) -> str:
+    """One member's `bl-member` call: its title-block facts, paper and converted Markdown, with the revision table
+    before the summary and the values changed since the previous revision marked."""
     revisions = revision_table(options.revisions)
     mark = options.revisions[-1].revision if options.revisions and options.marked else ""
-    body = to_typst_markup(markdown, lambda src: prefix + src, revisions, frozenset(options.marked), mark)
+    body = to_typst_markup(markdown, revisions, frozenset(options.marked), mark)
     return bl_member(member_info(member), paper, body)
 
 

@@ -2,7 +2,8 @@
 
 The set PDF opens with a contents sheet (every member, its section, governing check and ratio, status and its
 sheets in the set), then every member's sheets; each sheet is numbered within its member and through the set.
-It is typeset from the packages on disk, so members that an incremental build left alone are in it too."""
+It is made from the packages on disk (the contents typeset, every member sheet embedded from the member's own PDF),
+so members that an incremental build left alone are in it too."""
 
 from __future__ import annotations
 
@@ -12,14 +13,15 @@ import re
 from pathlib import Path
 
 from beamlang import __version__
-from beamlang.report.pdf import Options, Revision, member_body, pdf_figures
+from beamlang.report.pdf import member_info
 from beamlang.report.pdf.markup import string, text
-from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date
+from beamlang.report.pdf.sheet import Info, bl_member, body_size, compile_pdf, document, iso_date, typst_paper
 from beamlang.report.tex import cell, md
 
 SET_PDF = "calc-set.pdf"
 SET_RECORD = "index.json"
 _PAGES = re.compile(rb"/Type/Pages/Count (\d+)")
+_PASSES = 4
 COLUMNS = ("member", "title", "section", "governing check", "ratio", "status", "sheets in the set")
 
 
@@ -28,7 +30,7 @@ def _records(out: Path, folders: list[str]) -> list[dict]:
 
 
 class _Member:
-    """What `member_body` needs of a member, read back from its record."""
+    """What `member_info` needs of a member, read back from its record."""
 
     def __init__(self, rec: dict) -> None:
         self.mark, self.title, self.fields = rec["mark"], rec["title"], tuple(rec["fields"].items())
@@ -48,14 +50,12 @@ def _ratio(rec: dict) -> str:
     return "-" if rec["governing"] is None else f"{rec['governing']['ratio']:.3f}"
 
 
-def _contents(records: list[dict]) -> str:
+def _contents(records: list[dict], sheets: list[tuple[int, int]]) -> str:
     rows = []
-    for i, rec in enumerate(records, start=1):
+    for rec, (first, last) in zip(records, sheets):
         gov = rec["governing"]["check"] if rec["governing"] else "-"
-        sheets = (f"context {{ let a = query(<bl-start>).at({i}).location().page(); "
-                  f"let b = query(<bl-end>).at({i}).location().page(); [#a to #b] }}")
         rows.append(", ".join(f"[{text(v)}]" for v in (rec["mark"], rec["title"], rec["section"], gov,
-                                                      _ratio(rec), _status(rec))) + f", [#{sheets}]")
+                                                      _ratio(rec), _status(rec), f"{first} to {last}")))
     header = ", ".join(f"[{text(c)}]" for c in COLUMNS)
     n = len(records)
     summary = (f"{n} member{'s' * (n != 1)}; {sum(_status(r) == 'PASS' for r in records)} pass every check, "
@@ -68,24 +68,44 @@ _CAUTION = ("Each member's package states its assumptions, what it does not chec
             "reviewed by a qualified licensed engineer against the governing local code.")
 
 
-def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, dict[str, str]]:
-    """The set's Typst source and its figures (keys prefixed by the member's folder)."""
+def _ranges(first: int, counts: list[int]) -> list[tuple[int, int]]:
+    ranges = []
+    for n in counts:
+        ranges.append((first, first + n - 1))
+        first += n
+    return ranges
+
+
+def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, list[tuple[int, int]], int]:
+    """The set's Typst source (it reads the members' PDFs by their path under `out`, the typst root), each
+    member's first and last sheet in the set and the set's sheet count.
+
+    The contents are typeset alone until the sheet count they assume is the count they take (the numbers they
+    list rarely change it; a second pass settles it); then every member sheet is embedded whole, as drawn."""
     dates = sorted(d for r in records if (d := r["fields"].get("date", "")) and iso_date(d))
     info = Info(project=_common(records, "project"), job=_common(records, "job"), mark="Calc set",
                 title="contents", by=_common(records, "by"), checked=_common(records, "checked"),
                 date=dates[-1] if dates else "", revision="", tool=f"beamlang {__version__}")
-    body = [bl_member(info, paper, _contents(records))]
-    figures: dict[str, str] = {}
-    for rec in records:
-        folder = out / rec["folder"]
-        markdown = (folder / f"{rec['folder']}.md").read_text(encoding="utf-8")
-        for svg in sorted((folder / "figures").glob("*.svg")):
-            figures[f"{rec['folder']}/figures/{svg.name}"] = svg.read_text(encoding="utf-8")
-        options = Options(revisions=tuple(Revision(r[0], r[1], r[2], tuple(r[3])) for r in rec["revisions"]),
-                          marked=tuple(rec["marked"]))
-        body.append(member_body(_Member(rec), markdown, rec["paper"], prefix=f"{rec['folder']}/", options=options))
     date = iso_date(dates[-1]) if dates else None
-    return document("".join(body), paper, f"Calc set: {info.project}", date, in_set=True), pdf_figures(figures)
+    title = f"Calc set: {info.project}"
+    counts = [page_count((out / r["folder"] / f"{r['folder']}.pdf").read_bytes()) for r in records]
+    contents_sheets = 1
+    for _ in range(_PASSES):
+        sheets = _ranges(contents_sheets + 1, counts)
+        contents = bl_member(info, paper, _contents(records, sheets))
+        found = page_count(compile_pdf(document(contents, paper, title, date, in_set=True), {}))
+        if found == contents_sheets:
+            break
+        contents_sheets = found
+    else:
+        raise RuntimeError(f"the contents' sheet count did not settle in {_PASSES} passes")
+    total = contents_sheets + sum(counts)
+    files = [string(f"/{r['folder']}/{r['folder']}.pdf") for r in records]
+    members = "".join(
+        f"#bl-set-sheets({file}, {typst_paper(r['paper'])}, {body_size(r['paper'])}.width, "
+        f"{member_info(_Member(r)).typst()}, {n}, {first}, {total})\n"
+        for r, file, n, (first, _last) in zip(records, files, counts, sheets))
+    return document(contents + members, paper, title, date, in_set=True), sheets, total
 
 
 def index_markdown(records: list[dict], sheets: list[tuple[int, int]], link: str) -> str:
@@ -108,18 +128,6 @@ def page_count(pdf: bytes) -> int:
     return int(found[0])
 
 
-def sheet_ranges(out: Path, records: list[dict], set_pdf: bytes) -> list[tuple[int, int]]:
-    """Each member's first and last sheet in the set: its own PDF's sheets follow the contents (the set repeats
-    every member's sheets on their own paper, so the counts are the same)."""
-    counts = [page_count((out / r["folder"] / f"{r['folder']}.pdf").read_bytes()) for r in records]
-    first = page_count(set_pdf) - sum(counts) + 1
-    ranges = []
-    for n in counts:
-        ranges.append((first, first + n - 1))
-        first += n
-    return ranges
-
-
 def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
     """index.md, index.html, index.json and calc-set.pdf for the packages in `folders` (names under `out`);
     nothing is written when the members and the paper are those of the last set (index.json's key)."""
@@ -131,9 +139,10 @@ def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
             return []
     except (OSError, ValueError, KeyError):
         pass
-    source, figures = set_source(out, records, paper)
-    pdf = compile_pdf(source, figures)
-    sheets = sheet_ranges(out, records, pdf)
+    source, sheets, total = set_source(out, records, paper)
+    pdf = compile_pdf(source, {}, root=out)
+    if page_count(pdf) != total:
+        raise RuntimeError(f"the set has {page_count(pdf)} sheets, not the contents' and the members' {total}")
     index = {"key": key, "paper": paper, "sheets": page_count(pdf),
              "members": [{"mark": r["mark"], "folder": r["folder"], "section": r["section"],
                           "governing": r["governing"], "status": _status(r), "sheets": list(s)}

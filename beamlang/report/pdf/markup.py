@@ -53,19 +53,19 @@ def estimate_mm(cells: list[list[str]]) -> float:
     return height
 
 
-def to_typst_markup(markdown: str, figure_key, before_summary: str = "", changed: frozenset[int] = frozenset(),
+def to_typst_markup(markdown: str, before_summary: str = "", changed: frozenset[int] = frozenset(),
                     mark: str = "") -> str:
-    """The whole document body; `figure_key(src)` names the sys.inputs entry holding that figure's SVG;
+    """The whole document body; a figure's path in the Markdown names the sys.inputs entry holding its SVG;
     `before_summary` is Typst placed before the first section; the table rows, formulas and paragraphs that start
     on a line of `changed` (lines of the Markdown, from 1) get a margin mark naming revision `mark`."""
     from beamlang.report.html import parsed
     tokens = parsed(markdown)
-    return _Writer(tokens, figure_key, before_summary, changed, mark).blocks(0, len(tokens))
+    return _Writer(tokens, before_summary, changed, mark).blocks(0, len(tokens))
 
 
 class _Writer:
-    def __init__(self, tokens, figure_key, before: str, changed: frozenset[int], mark: str) -> None:
-        self.tokens, self.figure_key = tokens, figure_key
+    def __init__(self, tokens, before: str, changed: frozenset[int], mark: str) -> None:
+        self.tokens = tokens
         self.before, self.changed, self.mark = before, changed, mark
 
     def blocks(self, start: int, stop: int) -> str:
@@ -169,7 +169,7 @@ class _Writer:
             elif kind in ("softbreak", "hardbreak"):
                 out.append(" " if kind == "softbreak" else " \\\n")
             elif kind == "image":
-                out.append(f"#bl-figure({string(self.figure_key(child.attrs['src']))}, "
+                out.append(f"#bl-figure({string(child.attrs['src'])}, "
                            f"{string(child.content)})")
             else:
                 raise ValueError(f"no Typst rule for inline Markdown token {kind}")
