@@ -162,7 +162,15 @@ def _run_build(args: argparse.Namespace) -> int:
     out = Path(args.out)
     jobs = max(1, args.jobs)
     settings = (args.since, args.paper, args.force)
-    if jobs > 1 and len(loaded) > 1:
+    fresh = [_fresh(item, out, settings) for item in loaded]  # up-to-date packages need no worker
+    stale = [item for item, done in zip(loaded, fresh) if done is None]
+
+    def in_order(built):
+        built = iter(built)
+        for done in fresh:
+            yield done if done is not None else next(built)
+
+    if jobs > 1 and len(stale) > 1:
         import multiprocessing
         from concurrent.futures import ProcessPoolExecutor
         # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
@@ -170,10 +178,10 @@ def _run_build(args: argparse.Namespace) -> int:
         methods = multiprocessing.get_all_start_methods()
         context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
         with ProcessPoolExecutor(max_workers=jobs, mp_context=context) as pool:
-            outcomes = _progress(pool.map(_build_one, loaded, [out] * len(loaded), [settings] * len(loaded)),
+            outcomes = _progress(in_order(pool.map(_build_one, stale, [out] * len(stale), [settings] * len(stale))),
                                  len(loaded))
     else:
-        outcomes = _progress((_build_one(item, out, settings) for item in loaded), len(loaded))
+        outcomes = _progress(in_order(_build_one(item, out, settings) for item in stale), len(loaded))
     if any(Path(p).is_dir() for p in args.paths) and outcomes and not errors:
         from beamlang.report.package import folder_name
         from beamlang.report.pdf.calcset import write_set
@@ -196,21 +204,42 @@ def _progress(outcomes, n: int) -> list[tuple[str, int, int, bool]]:
     return done
 
 
-def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[str, int, int, bool]:
-    """One member's package (runs in a worker process with --jobs); skipped when its record shows the same
-    input, versions and options (never with --since, whose section depends on the repository)."""
+def _key(item, paper) -> tuple[str, str | None]:
+    """(the build key of a member's package, its PDF's fallback date): what an up-to-date package recorded."""
     from beamlang.language.frontend import recorded_name
-    from beamlang.report.package import build_key, folder_name, tidy, up_to_date, write_package
+    from beamlang.report.package import build_key
     from beamlang.report.pdf import Options
-    from beamlang.tools.history import commits, fallback_date, revisions
-    since, paper, force = settings
+    from beamlang.tools.history import commits, fallback_date
     date = None if dict(item.member.fields).get("date") else fallback_date(item.path)
     options = Options(paper=paper, fallback_date=date)
-    key = build_key(item.source.text, repr((recorded_name(item), options, commits(item.path))))
-    record = None if (since or force) else up_to_date(out, item.member.mark, key)
-    if record is not None:
-        tidy(out / folder_name(item.member.mark))
-        return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
+    return build_key(item.source.text, repr((recorded_name(item), options, commits(item.path)))), date
+
+
+def _fresh(item, out: Path, settings: tuple, key: str | None = None) -> tuple[str, int, int, bool] | None:
+    """The outcome of a package whose record shows the same input, versions and options (its hidden leftovers
+    tidied), else None: it is to be built (always with --since, whose section depends on the repository, and
+    with --force)."""
+    from beamlang.report.package import folder_name, tidy, up_to_date
+    since, paper, force = settings
+    if since or force:
+        return None
+    record = up_to_date(out, item.member.mark, key or _key(item, paper)[0])
+    if record is None:
+        return None
+    tidy(out / folder_name(item.member.mark))
+    return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
+
+
+def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[str, int, int, bool]:
+    """One member's package (runs in a worker process with --jobs), unless it is up to date (`_fresh`)."""
+    from beamlang.report.package import write_package
+    from beamlang.report.pdf import Options
+    from beamlang.tools.history import revisions
+    since, paper, _force = settings
+    key, date = _key(item, paper)
+    done = _fresh(item, out, settings, key)
+    if done is not None:
+        return done
     from beamlang.pipeline import analyse_loaded
     a = analyse_loaded(item)
     rows, previous = revisions(item, a)

@@ -84,7 +84,7 @@ def parse_recovering(source: Source) -> tuple[s.Document, tuple[Diagnostic, ...]
 def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.Line | None:
     indented = text[:1] in (" ", "\t")
     try:
-        tree = _parser().parse(text)
+        tree = _tree(text)
     except UnexpectedInput as exc:
         errors.error(*_explain(source, number, text, exc))
         return None
@@ -94,6 +94,13 @@ def _parse_line(source: Source, number: int, text: str, errors: Collector) -> s.
     except VisitError as exc:  # a bug of ours inside the transformer, never the user's
         raise exc.orig_exc from exc
     return s.Line(number, indented, statement, comment)
+
+
+@lru_cache(maxsize=4096)
+def _tree(text: str):
+    """One line's parse tree, kept: the members of a project repeat many lines word for word (materials,
+    sections, supports), and the tree depends on the text alone (the transformer builds new statements)."""
+    return _parser().parse(text)
 
 
 def _explain(source: Source, number: int, text: str, exc: UnexpectedInput) -> tuple[Span, str, str | None]:
