@@ -36,6 +36,12 @@ _BODY_MM, _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = (176.0, 230.0), 2.0, 5.0, 2.0
 _MATH_CHAR_MM = 1.2 * 9.5 * 25.4 / 72
 
 
+# A paragraph right before a table or display formula stays on its sheet when it ends in a colon (a caption) or
+# is at most this long (a sentence introducing it: "The sums of the load curves; x in m."), so that neither it nor
+# the heading above it is left at the foot of a sheet.
+LEAD_CHARACTERS = 240
+
+
 def surely_fits(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
     auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
@@ -102,7 +108,8 @@ class _Writer:
     def _paragraph(self, i: int, end: int) -> str:
         body = (self._flag() if self._marked(self.tokens[i]) else "") + self.inline(self.tokens[i + 1])
         nxt = self.tokens[end + 1] if end + 1 < len(self.tokens) else None
-        if nxt is not None and nxt.type in ("table_open", "math_block") and body.rstrip().endswith("\\:"):
+        lead = body.rstrip().endswith("\\:") or len(self.tokens[i + 1].content) <= LEAD_CHARACTERS
+        if nxt is not None and nxt.type in ("table_open", "math_block") and lead:
             return f"\n#bl-lead[{body}]\n"  # a caption line: kept on the sheet of what it introduces
         return f"\n{body}\n"
 
