@@ -195,3 +195,19 @@ class Piecewise:
             pieces.append(q)
             value = q(self.xs[k + 1])
         return Piecewise(self.xs, tuple(pieces))
+
+
+def runs(curves: Sequence["Piecewise"], keep: frozenset = frozenset()) -> list[tuple[int, Fraction, Fraction]]:
+    """(first segment, start, end) of each run of neighbouring segments where every curve (all on one grid) has
+    the same piece, never joined across an x in `keep`."""
+    xs = curves[0].xs
+    out: list[tuple[int, Fraction, Fraction]] = []
+    previous = None
+    for k in range(len(xs) - 1):
+        pieces = tuple(c.pieces[k] for c in curves)
+        if pieces == previous and xs[k] not in keep:
+            out[-1] = (out[-1][0], out[-1][1], xs[k + 1])
+        else:
+            out.append((k, xs[k], xs[k + 1]))
+        previous = pieces
+    return out

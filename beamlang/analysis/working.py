@@ -7,14 +7,13 @@ import math
 from fractions import Fraction
 
 from beamlang.analysis.results import factored_loads
-from beamlang.engine.extrema import runs
 from beamlang.engine.moving import standing_case, standing_loads
 from beamlang.engine.roots import square_free
 from beamlang.engine.solve import Solution, curves_with, load_solution, prescribed
 from beamlang.engine.statics import formula_ends
 from beamlang.engine.symbolic import load_formula, worth_deriving
 from beamlang.model import Load, Member
-from beamlang.poly import Piecewise, Poly
+from beamlang.poly import Piecewise, Poly, runs
 
 FLOOR = 1e-12  # cross-check differences below this are float noise and are reported as this bound
 
@@ -59,8 +58,8 @@ def standing_value(sol: Solution, target, result, field: str, kind: str,
 
 
 def search_runs(member: Member, curve, derivative) -> list:
-    """(first segment, start, end) of each run of one formula the extremum search examined (`extrema.runs`)."""
-    return runs(curve, derivative, formula_ends(member))
+    """(first segment, start, end) of each run of one formula the extremum search examined (`extrema.candidates`)."""
+    return runs((curve, derivative), formula_ends(member))
 
 
 def root_factor(poly: Poly) -> Poly:

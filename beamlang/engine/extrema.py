@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
-from beamlang.poly import Piecewise, Poly
+from beamlang.poly import Piecewise, Poly, runs
 from beamlang.engine.roots import Root, roots_in
 
 SAME = Fraction(1, 10**12)  # two maxima within this relative difference are the same (symmetry)
@@ -38,29 +38,17 @@ class Candidate:
     segment: int
 
 
-def runs(curve: Piecewise, derivative: Piecewise, keep: frozenset | None) -> list[tuple[int, Fraction, Fraction]]:
-    """(first segment, start, end) of each run of neighbouring segments where the curve and its derivative have
-    the same formula, never merged across an x in `keep` (ends, supports, hinges, section changes: where a
-    region or stretch is bounded); `keep=None` merges nothing. A breakpoint of another case's load is not an end
-    of this curve's formula, so it is not examined as one."""
-    out: list[tuple[int, Fraction, Fraction]] = []
-    previous = None
-    for k, pieces in enumerate(zip(curve.pieces, derivative.pieces)):
-        a, b = curve.xs[k], curve.xs[k + 1]
-        if keep is not None and pieces == previous and a not in keep:
-            out[-1] = (out[-1][0], out[-1][1], b)
-        else:
-            out.append((k, a, b))
-        previous = pieces
-    return out
-
-
 def candidates(curve: Piecewise, derivative: Piecewise, lo: Fraction, hi: Fraction,
                keep: frozenset | None = None) -> list[Candidate]:
-    """Both one-sided values at every end of a formula's run in [lo, hi] (`runs`), and every interior zero of
-    the derivative."""
+    """Both one-sided values at every end of a formula's run in [lo, hi], and every interior zero of the
+    derivative. A run (`poly.runs`) joins neighbouring segments where the curve and its derivative have the same
+    formula, never across an x in `keep` (ends, supports, hinges, section changes: where a region or stretch is
+    bounded): a breakpoint of another case's load is not an end of this curve's formula, so it is not examined
+    as one. `keep=None` examines every segment."""
     out: list[Candidate] = []
-    for k, a, b in runs(curve, derivative, keep):
+    segments = ([(k, curve.xs[k], curve.xs[k + 1]) for k in range(len(curve.pieces))] if keep is None else
+                runs((curve, derivative), keep))
+    for k, a, b in segments:
         if a < lo or b > hi:
             continue
         p = curve.pieces[k]

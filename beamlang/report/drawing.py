@@ -6,6 +6,7 @@ import math
 from fractions import Fraction
 
 from beamlang.analysis.display import convert, number
+from beamlang.poly import runs
 
 SAMPLES_PER_MEMBER, SAMPLES_MIN, SAMPLES_PER_RUN = 160, 6, 40  # points of a drawn curve (`sample`)
 CURVE = "#1f4e79"
@@ -53,7 +54,8 @@ def sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
     factor = convert(Fraction(1), unit)
     length = curve.xs[-1] - curve.xs[0]
     xs, ys = [], []
-    for p, a, b in _runs(curve):
+    for k, a, b in runs((curve,)):
+        p = curve.pieces[k]
         coeffs = [float(c * factor) for c in reversed(p.taylor(a).coeffs)]
         n = min(SAMPLES_PER_RUN, max(SAMPLES_MIN, math.ceil(SAMPLES_PER_MEMBER * float((b - a) / length))))
         step = float(b - a) / n
@@ -64,18 +66,6 @@ def sample(curve, unit: str) -> tuple[list[Fraction], list[float]]:
                 y = y * h + c
             ys.append(y)
     return xs, ys
-
-
-def _runs(curve) -> list[tuple[object, Fraction, Fraction]]:
-    """(piece, start, end) with neighbouring segments of the same formula joined."""
-    out: list[tuple[object, Fraction, Fraction]] = []
-    for k, p in enumerate(curve.pieces):
-        a, b = curve.xs[k], curve.xs[k + 1]
-        if out and out[-1][0] == p:
-            out[-1] = (p, out[-1][1], b)
-        else:
-            out.append((p, a, b))
-    return out
 
 
 def changes(m, u: dict) -> list[float]:

@@ -29,10 +29,10 @@ def formula_lines(a: Analysis, ld: Load, before: dict | None = None, where: str 
     segments, names = general_formula(m, ld)
     same = tuple(expr for _start, _end, expr in segments), tuple(names)
     if before is not None and same in before:
-        line, values, where = before[same]
+        line, values, there = before[same]
         changed = [name for name, value in names.items() if values[name] != value]
         listed = ", ".join(_value(m, ld, name, names[name], a.units, units) for name in changed) or "no symbol"
-        return [f"Its general formula is that of the load of line {line} ({where}), segment by segment (this "
+        return [f"Its general formula is that of the load of line {line} ({there}), segment by segment (this "
                 f"load's segment ends in the table below), with {listed}; every other symbol as there.", ""]
     if before is not None:
         before[same] = (ld.span.line, dict(names), where)

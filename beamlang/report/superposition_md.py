@@ -4,10 +4,11 @@ compatibility equations, the superposed curves."""
 from __future__ import annotations
 
 from beamlang.analysis.display import convert, scaled, working_units
-from beamlang.analysis.working import formulas_shown, general_formula, load_deflection, settlements
+from beamlang.analysis.working import formulas_shown, load_deflection, settlements
 from beamlang.language.fmt import statement_text
 from beamlang.model import LineLoad
 from beamlang.pipeline import Analysis
+from beamlang.poly import runs as merged
 from beamlang.report.sections import vector
 from beamlang.report.selfweight import self_weight_lines
 from beamlang.report.formula_md import formula_lines
@@ -49,16 +50,9 @@ def _dot(unit: str) -> str:
     return unit.replace("*", "·")
 
 
-def runs(xs, *curves):
+def runs(*curves):
     """(start, end, pieces) with neighbouring segments merged where every curve has the same formula."""
-    out = []
-    for k in range(len(xs) - 1):
-        pieces = tuple(c.pieces[k] for c in curves)
-        if out and out[-1][2] == pieces:
-            out[-1] = (out[-1][0], xs[k + 1], pieces)
-        else:
-            out.append((xs[k], xs[k + 1], pieces))
-    return out
+    return [(start, end, tuple(c.pieces[k] for c in curves)) for k, start, end in merged(curves)]
 
 
 def x_range(start, end, length: str = "m") -> str:
@@ -69,7 +63,6 @@ def x_range(start, end, length: str = "m") -> str:
 def each_load(a: Analysis, t, shown: dict | None = None) -> list[str]:
     if not t.loads:  # only a moving group: its response is the envelope below, not one elastic curve
         return []
-    m = a.loaded.member
     w = working_units(a.units)
     L, d = w["length"], w["deflection"]
     symbolic = formulas_shown(a.solution)
@@ -81,7 +74,6 @@ def each_load(a: Analysis, t, shown: dict | None = None) -> list[str]:
                  "than two redundants: they run to many lines.) ") +
              f"v(x) in {d} with x in {L}, coefficients shown to six significant digits (computed exactly). "
              "The case curve is their sum.", ""]
-    xs = a.solution.xs
     shown = {} if shown is None else shown  # the general formulas written out before (formula_lines)
     for ld in t.loads:
         deflection = load_deflection(a.solution, ld)
@@ -92,7 +84,7 @@ def each_load(a: Analysis, t, shown: dict | None = None) -> list[str]:
         if symbolic:
             lines += formula_lines(a, ld, shown, f"case {md(t.name)}")
         lines += [f"| segment (x in {L}) | v(x) in {d} |", "|---|---|"]
-        for start, end, (p,) in runs(xs, deflection):
+        for start, end, (p,) in runs(deflection):
             lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(p, L, d))}$ |")
         lines.append("")
     return lines
@@ -127,30 +119,29 @@ def compatibility(a: Analysis, t) -> list[str]:
 
 
 def superposed(a: Analysis, t) -> list[str]:
-    xs = a.solution.xs
     c = t.curves
     w = working_units(a.units)
     L, F, M, d = w["length"], w["force"], w["moment"], w["deflection"]
     lines = ["### Superposed curves", "", f"The sums of the load curves; x in {L}.", "",
              f"| segment | V(x) in {F} | M(x) in {_dot(M)} |", "|---|---|---|"]
-    for start, end, (V, Mx) in runs(xs, c.V, c.M):
+    for start, end, (V, Mx) in runs(c.V, c.M):
         lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(V, L, F))}$ | ${poly(scaled(Mx, L, M))}$ |")
     if c.vs is not None:
-        return lines + _with_shear(xs, c, L, d)
+        return lines + _with_shear(c, L, d)
     lines += ["", f"θ(x) is the slope dv/dx in rad (v and x taken in the same unit); x in {L}.", "",
               f"| segment | θ(x) in rad | v(x) in {d} |", "|---|---|---|"]
-    for start, end, (theta, v) in runs(xs, c.theta, c.v):
+    for start, end, (theta, v) in runs(c.theta, c.v):
         lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(theta, L, 'rad'))}$ | ${poly(scaled(v, L, d))}$ |")
     return lines + [""]
 
 
-def _with_shear(xs, c, L: str, d: str) -> list[str]:
+def _with_shear(c, L: str, d: str) -> list[str]:
     """θ, then the deflection's bending and shear parts side by side, and their sum."""
     lines = ["", f"θ(x) is the rotation of the cross-section in rad; the deflection v(x) is its bending part "
              f"v_b(x) plus its shear part v_s(x); x in {L}.", "",
              f"| segment | θ(x) in rad | v_b(x) in {d} | v_s(x) in {d} | v(x) in {d} |", "|---|---|---|---|---|"]
     vb = c.v + c.vs * -1
-    for start, end, (theta, b, sh, v) in runs(xs, c.theta, vb, c.vs, c.v):
+    for start, end, (theta, b, sh, v) in runs(c.theta, vb, c.vs, c.v):
         lines.append(f"| {x_range(start, end, L)} | ${poly(scaled(theta, L, 'rad'))}$ | ${poly(scaled(b, L, d))}$ | "
                      f"${poly(scaled(sh, L, d))}$ | ${poly(scaled(v, L, d))}$ |")
     return lines + [""]
