@@ -162,15 +162,18 @@ def _run_build(args: argparse.Namespace) -> int:
     out = Path(args.out)
     jobs = max(1, args.jobs)
     settings = (args.since, args.paper, args.force)
-    fresh = [_fresh(item, out, settings) for item in loaded]  # up-to-date packages need no worker
-    stale = [item for item, done in zip(loaded, fresh) if done is None]
+    keys = [_key(item, args.paper) for item in loaded]
+    # up-to-date packages need no worker (never with --since, whose section depends on the repository, nor --force)
+    fresh = [None if (args.since or args.force) else _fresh(item, out, key) for item, (key, _) in zip(loaded, keys)]
+    items = [item for item, done in zip(loaded, fresh) if done is None]
+    known = [key for key, done in zip(keys, fresh) if done is None]
 
     def in_order(built):
         built = iter(built)
         for done in fresh:
             yield done if done is not None else next(built)
 
-    if jobs > 1 and len(stale) > 1:
+    if jobs > 1 and len(items) > 1:
         import multiprocessing
         from concurrent.futures import ProcessPoolExecutor
         # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
@@ -178,10 +181,11 @@ def _run_build(args: argparse.Namespace) -> int:
         methods = multiprocessing.get_all_start_methods()
         context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
         with ProcessPoolExecutor(max_workers=jobs, mp_context=context) as pool:
-            outcomes = _progress(in_order(pool.map(_build_one, stale, [out] * len(stale), [settings] * len(stale))),
-                                 len(loaded))
+            outcomes = _progress(in_order(pool.map(_build_one, items, known, [out] * len(items),
+                                                   [settings] * len(items))), len(loaded))
     else:
-        outcomes = _progress(in_order(_build_one(item, out, settings) for item in stale), len(loaded))
+        outcomes = _progress(in_order(map(_build_one, items, known, [out] * len(items), [settings] * len(items))),
+                             len(loaded))
     if any(Path(p).is_dir() for p in args.paths) and outcomes and not errors:
         from beamlang.report.package import folder_name
         from beamlang.report.pdf.calcset import write_set
@@ -215,32 +219,24 @@ def _key(item, paper) -> tuple[str, str | None]:
     return build_key(item.source.text, repr((recorded_name(item), options, commits(item.path)))), date
 
 
-def _fresh(item, out: Path, settings: tuple, key: str | None = None) -> tuple[str, int, int, bool] | None:
-    """The outcome of a package whose record shows the same input, versions and options (its hidden leftovers
-    tidied), else None: it is to be built (always with --since, whose section depends on the repository, and
-    with --force)."""
+def _fresh(item, out: Path, key: str) -> tuple[str, int, int, bool] | None:
+    """The outcome of a package whose record shows the same key (its hidden leftovers tidied), else None."""
     from beamlang.report.package import folder_name, tidy, up_to_date
-    since, paper, force = settings
-    if since or force:
-        return None
-    record = up_to_date(out, item.member.mark, key or _key(item, paper)[0])
+    record = up_to_date(out, item.member.mark, key)
     if record is None:
         return None
     tidy(out / folder_name(item.member.mark))
     return (out / folder_name(item.member.mark)).as_posix(), record["passed"], record["checks"], False
 
 
-def _build_one(item, out: Path, settings: tuple = (None, None, False)) -> tuple[str, int, int, bool]:
-    """One member's package (runs in a worker process with --jobs), unless it is up to date (`_fresh`)."""
+def _build_one(item, known: tuple[str, str | None], out: Path, settings: tuple) -> tuple[str, int, int, bool]:
+    """One member's package (runs in a worker process with --jobs); `known` is its `_key`."""
+    from beamlang.pipeline import analyse_loaded
     from beamlang.report.package import write_package
     from beamlang.report.pdf import Options
     from beamlang.tools.history import revisions
     since, paper, _force = settings
-    key, date = _key(item, paper)
-    done = _fresh(item, out, settings, key)
-    if done is not None:
-        return done
-    from beamlang.pipeline import analyse_loaded
+    key, date = known
     a = analyse_loaded(item)
     rows, previous = revisions(item, a)
     options = Options(paper=paper, fallback_date=date, revisions=rows)
