@@ -74,8 +74,8 @@ def test_the_estimate_turns_away_a_tall_table():
 
 
 def test_a_display_called_small_is_never_wider_than_the_text():
-    from beamlang.report.pdf.markup import _BODY_MM, _MATH_CHAR_MM
-    most = int(_BODY_MM[0] / _MATH_CHAR_MM)
+    from beamlang.report.pdf.markup import _MATH_CHAR_MM, body_mm
+    most = int(body_mm()[0] / _MATH_CHAR_MM)
     awkward = ["W" * most, "=".join(["W"] * ((most + 1) // 2)), "M + " * (most // 4), "\\frac{W}{W}" * (most // 11)]
     markdown = "\n".join(f"$$\n{tex[:most - 3]}\n$$\n" for tex in awkward)
     member = load(sorted((ROOT / "examples").glob("*.beam"))[0]).member
@@ -85,8 +85,8 @@ def test_a_display_called_small_is_never_wider_than_the_text():
     source = source.replace("// A figure:", probe + "// A figure:", 1)
     widths = [item["value"] for item in query(source, {}, "<w>")]
     assert len(widths) == len(awkward)
-    assert max(widths) <= _BODY_MM[0] * 72 / 25.4, widths
-    assert max(widths) >= 0.5 * _BODY_MM[0] * 72 / 25.4  # the sample reaches across the text
+    assert max(widths) <= body_mm()[0] * 72 / 25.4, widths
+    assert max(widths) >= 0.5 * body_mm()[0] * 72 / 25.4  # the sample reaches across the text
 
 
 def test_a_long_general_formula_is_broken_into_lines_of_the_same_sum():

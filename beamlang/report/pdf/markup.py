@@ -8,6 +8,7 @@ tables, display formulas and figures call the functions of `template.typ` (`bl-t
 from __future__ import annotations
 
 import math
+from functools import lru_cache
 
 from beamlang.report.pdf.math import to_typst
 
@@ -29,7 +30,7 @@ def string(s: str) -> str:
 # table's 8 pt, one line more than that gives, a tall line (superscripts) and the cell insets. On tables made
 # to be awkward (tests/test_pdf_estimates.py) it is 1.8 to 3.3 times the measured height. A table it cannot
 # place is measured by the typesetter (bl-table), which costs another layout of it; most tables never need it.
-_BODY_MM, _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = (176.0, 230.0), 2.0, 5.0, 2.0, 2.5
+_CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = 2.0, 5.0, 2.0, 2.5
 # A display formula surely fits the text width when its TeX source does at 1.2 em of the 9.5 pt body per
 # character: no glyph with the space math puts around a relation is wider, and the source has at least one
 # character per glyph drawn. A longer one is measured and shrunk to the width where needed (bl-display).
@@ -42,16 +43,23 @@ _MATH_CHAR_MM = 1.2 * 9.5 * 25.4 / 72
 LEAD_CHARACTERS = 240
 
 
+@lru_cache(maxsize=1)
+def body_mm() -> tuple[float, float]:
+    """The smaller text width and height of the sheets (`sheet.PAPERS` less `sheet.MARGINS`), in mm."""
+    from beamlang.report.pdf.sheet import MARGINS, PAPERS  # sheet imports this module
+    return min(w for w, _ in PAPERS.values()) - MARGINS[0], min(h for _, h in PAPERS.values()) - MARGINS[1]
+
+
 def surely_fits(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
     auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
     a narrower one holds each of its cells on one line."""
-    return estimate_mm(cells) <= 0.9 * _BODY_MM[1]
+    return estimate_mm(cells) <= 0.9 * body_mm()[1]
 
 
 def estimate_mm(cells: list[list[str]]) -> float:
     """The over-estimate of a table's height in mm (`surely_fits`)."""
-    usable = _BODY_MM[0] / len(cells[0]) - _INSET_MM
+    usable = body_mm()[0] / len(cells[0]) - _INSET_MM
     height = 0.0
     for row in cells:
         lines = max((1 + math.ceil(len(c) * _CHAR_MM / usable) for c in row), default=1)
@@ -147,7 +155,7 @@ class _Writer:
 
     def _math_block(self, i: int, end: int) -> str:
         tex = self.tokens[i].content
-        small = ", small: true" if len(tex) * _MATH_CHAR_MM <= _BODY_MM[0] else ""
+        small = ", small: true" if len(tex) * _MATH_CHAR_MM <= body_mm()[0] else ""
         flag = f", mark: {string(self.mark)}" if self._marked(self.tokens[i]) else ""
         return f"\n#bl-display($ {to_typst(tex)} ${small}{flag})\n"
 
