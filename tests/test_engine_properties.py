@@ -12,7 +12,7 @@ from beamlang.model import LineLoad, MomentLoad, PointLoad
 from beamlang.engine.roots import roots_in
 from beamlang.poly import Poly
 from beamlang.engine.statics import resultant
-from beamlang.engine.fem import MIN_ELEMENT, fe_nodes
+from beamlang.engine.fem import MIN_ELEMENT, element_stiffness, fe_nodes
 from engine_helpers import analyse_text, member_text, result
 from strategies import members
 
@@ -62,6 +62,16 @@ def test_finite_elements_agree(text):
     nodes = fe_nodes(member, ())
     short = min(right - left for left, right in zip(nodes, nodes[1:])) < member.length * MIN_ELEMENT
     assert all(r.cross_check < (1e-8 if short else 1e-9) for r in a.results)
+
+
+@settings(max_examples=100, deadline=None)
+@given(st.lists(st.tuples(st.floats(1e-3, 1e3), st.floats(0, 10), st.floats(1e-3, 50)), min_size=1, max_size=8))
+def test_stacked_element_stiffnesses_are_each_element_own(elements):
+    # the cross-check assembles every element's matrix at once: bit for bit the matrix of each element alone
+    EI, phi, l = (np.array(v, dtype=np.longdouble) for v in zip(*elements))
+    stacked = element_stiffness(EI, phi, l)
+    for k in range(len(l)):
+        assert np.array_equal(stacked[k], element_stiffness(EI[k], phi[k], l[k]))
 
 
 def test_finite_elements_stay_accurate_beside_a_very_short_element():

@@ -49,7 +49,6 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
     Precision: the stiffness matrix is ill-conditioned when a very short element sits in a long
     member (condition number about (longest / shortest element)^3), so `fe_nodes` avoids such
     elements; the matrix is assembled in extended precision and solved with iterative refinement."""
-    n = len(xs)
     x = np.array([_ld(v) for v in xs], dtype=np.longdouble)
     hinge_at = {h.x for h in member.hinges}
     v_dof, left, right, count = [], [], [], 0
@@ -60,16 +59,14 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
         count = right[-1] + 1
     K = np.zeros((count, count), dtype=np.longdouble)
     F = np.zeros(count, dtype=np.longdouble)
-    phis = []
-    for e in range(n - 1):
-        l = x[e + 1] - x[e]
-        stretch = member.stretch_at((xs[e] + xs[e + 1]) / 2)
-        EI = _ld(stretch.EI)
-        phi = 12 * EI / (_ld(stretch.GA) * l * l) if member.shear_deformation else np.longdouble(0)
-        phis.append(phi)
-        k = element_stiffness(EI, phi, l)
-        dofs = [v_dof[e], right[e], v_dof[e + 1], left[e + 1]]
-        K[np.ix_(dofs, dofs)] += k
+    l = x[1:] - x[:-1]
+    stretches = [member.stretch_at((a + b) / 2) for a, b in zip(xs, xs[1:])]
+    EI = np.array([_ld(st.EI) for st in stretches], dtype=np.longdouble)
+    phis = (12 * EI / (np.array([_ld(st.GA) for st in stretches], dtype=np.longdouble) * l * l)
+            if member.shear_deformation else np.zeros(len(l), dtype=np.longdouble))
+    dofs = np.array([[v_dof[e], right[e], v_dof[e + 1], left[e + 1]] for e in range(len(l))], dtype=np.intp)
+    # every element's 4 x 4 block added in element order (np.add.at adds repeated entries one by one)
+    np.add.at(K, (dofs[:, :, None], dofs[:, None, :]), element_stiffness(EI, phis, l))
     index = {v: i for i, v in enumerate(xs)}
     for factor, load in loads:
         _add_load(F, _ld(factor), load, x, (v_dof, left, right), phis)
@@ -97,14 +94,19 @@ def nodal_solution(member: Member, xs, loads) -> tuple[np.ndarray, np.ndarray]:
 
 
 def element_stiffness(EI, phi, l) -> np.ndarray:
-    """The 4 x 4 stiffness of one element (v1, theta1, v2, theta2): Hermite when phi = 0, else shear-flexible."""
-    return EI / (l**3 * (1 + phi)) * np.array([[12, 6 * l, -12, 6 * l], [6 * l, (4 + phi) * l * l, -6 * l, (2 - phi) * l * l],
-                                               [-12, -6 * l, 12, -6 * l], [6 * l, (2 - phi) * l * l, -6 * l, (4 + phi) * l * l]])
+    """The 4 x 4 stiffness of one element (v1, theta1, v2, theta2): Hermite when phi = 0, else shear-flexible.
+    Given arrays of the elements' EI, phi and l, one 4 x 4 matrix per element (stacked along the first axis)."""
+    one = np.ones_like(l)
+    k = np.array([[12 * one, 6 * l, -12 * one, 6 * l], [6 * l, (4 + phi) * l * l, -6 * l, (2 - phi) * l * l],
+                  [-12 * one, -6 * l, 12 * one, -6 * l], [6 * l, (2 - phi) * l * l, -6 * l, (4 + phi) * l * l]])
+    scale = EI / (l**3 * (1 + phi))
+    if k.ndim == 2:
+        return scale * k
+    return scale[:, None, None] * np.moveaxis(k, -1, 0)
 
 
 def _ld(value) -> np.longdouble:
     """A Fraction in extended precision (numerator and denominator converted separately)."""
-    value = Fraction(value)
     return np.longdouble(int(value.numerator)) / np.longdouble(int(value.denominator))
 
 
