@@ -11,7 +11,7 @@ from beamlang.exact import Q
 from typing import Iterable, Sequence
 
 Number = Fraction | int
-RATIONAL = (Fraction, int, type(Q(0)))  # exact numbers (the others are symbolic.Sym or floats)
+RATIONAL = (type(Q(0)), int, Fraction)  # exact numbers (the others are symbolic.Sym or floats)
 ZERO = Q(0)
 
 

@@ -12,7 +12,7 @@ from hypothesis import strategies as st
 from beamlang.engine import roots
 from beamlang.engine.extrema import candidates, largest, largest_abs
 from beamlang.engine.moving import bivariate
-from beamlang.exact import Q
+from beamlang.exact import Q, fraction
 from beamlang.poly import Piecewise, Poly, to_flint_poly
 
 rationals = st.builds(lambda n, d: Q(n, d), st.integers(-10**6, 10**6), st.integers(1, 10**4))
@@ -107,3 +107,36 @@ def test_conversions_keep_every_digit():
     c = Q(3**90, 7**40)
     p = Poly.of(c, -c, Fraction(1, 3))
     assert roots.from_flint_poly(to_flint_poly(p)) == p
+
+
+def _every_guess(q, lo, hi, at, rational):
+    """The reference recognition of rational roots: a small-denominator guess tried on every narrow bracket,
+    whatever q's rational roots are (what `_rational_guess` did before it was told them)."""
+    if hi - lo > roots.GUESS_WIDTH:
+        return None
+    c = fraction(at + (lo + hi) / 2).limit_denominator(10**12)
+    return c if lo <= c - at <= hi and q(c - at) == 0 else None
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials())
+def test_rational_roots_are_those_sympy_finds(p):
+    import sympy
+    if p.degree < 1:
+        return
+    x = sympy.Symbol("x")
+    q = roots.square_free(p)
+    expected = sympy.Poly([sympy.Rational(int(c.numerator), int(c.denominator)) for c in reversed(q.coeffs)], x)
+    found = roots.rational_roots(q)
+    assert sorted(found) == sorted(Fraction(int(r.p), int(r.q)) for r in expected.ground_roots())
+    assert all(q(r) == 0 for r in found)
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials(), small, st.integers(1, 200))
+def test_roots_are_identical_when_every_bracket_is_guessed(p, a, width):
+    b = a + Q(width, 7)
+    with pytest.MonkeyPatch.context() as patch:
+        patch.setattr(roots, "_rational_guess", _every_guess)
+        reference = shape(roots.roots_in(p, a, b))
+    assert shape(roots.roots_in(p, a, b)) == reference

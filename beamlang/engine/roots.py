@@ -7,9 +7,12 @@ from dataclasses import dataclass
 from fractions import Fraction
 
 from beamlang.exact import Q, fraction
-from beamlang.poly import Poly, from_flint_poly, to_flint, to_flint_poly
+from beamlang.poly import Poly, from_flint, from_flint_poly, to_flint, to_flint_poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
+ONE, ZERO = Q(1), Q(0)
+FLOOR = Q(1, 10**6)  # |x| below this is refined as if it were this
+GUESS_WIDTH = Q(1, 10**9)  # from this width on, a small-denominator rational root is looked for
 
 
 @dataclass(frozen=True, slots=True)
@@ -28,7 +31,7 @@ class Root:
 
 
 def _monic(p: Poly) -> Poly:
-    return p * (Fraction(1) / abs(p.coeffs[-1])) if p else p
+    return p * (ONE / abs(p.coeffs[-1])) if p else p
 
 
 def gcd(a: Poly, b: Poly) -> Poly:
@@ -92,7 +95,7 @@ def _quadratic(q: Poly, width: Fraction, at: Fraction, p: Poly) -> list[Root] | 
             S = math.isqrt(nd << (2 * k))  # sqrt(nd) * 2**k lies in [S, S + 1)
             lo_r, hi_r = Q(S, d << k), Q(S + 1, d << k)
             lo, hi = ((-B + lo_r) / 2, (-B + hi_r) / 2) if sign > 0 else ((-B - hi_r) / 2, (-B - lo_r) / 2)
-            tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+            tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
             if hi - lo <= tol:
                 break
             k *= 2
@@ -143,14 +146,17 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
         h = -q.coeffs[0] / q.coeffs[1]
         return [Root(a + h, a + h, a + h, p)] if 0 < h < width else []
     found: list[Root] = []
-    stack = [(Fraction(0), width)]
+    rational: list[tuple] = []  # q's rational roots, found on the first refinement
+    stack = [(ZERO, width)]
     while stack:
         lo, hi = stack.pop()
         n = _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)
         if n == 0:
             continue
         if n == 1 and q(lo) != 0:
-            found.append(_refine(q, lo, hi, a, p))
+            if not rational:
+                rational.append(rational_roots(q))
+            found.append(_refine(q, lo, hi, a, p, rational[0]))
             continue
         mid = (lo + hi) / 2
         if q(mid) == 0:
@@ -162,19 +168,26 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
 def _may_vanish(c: Poly, width: Fraction) -> bool:
     """False when the polynomial (in h, the Taylor form at the segment start) surely has no root for
     0 <= h <= width: |c0| exceeds the bound of the rest."""
-    rest, power = Fraction(0), Fraction(1)
+    rest, power = ZERO, ONE
     for ck in c.coeffs[1:]:
         power *= width
         rest += abs(ck) * power
     return bool(c.coeffs) and abs(c.coeffs[0]) <= rest
 
 
-def _refine(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
-    """Narrow a simple root of q (in h = x - at) to below |x| * 2**-56, exactly verified; a Root in x."""
+def rational_roots(q: Poly) -> tuple[Fraction, ...]:
+    """The rational roots of q, from its factors of degree 1 over the rationals (FLINT's exact factoring)."""
+    return tuple(from_flint(-f.coeffs()[0] / f.coeffs()[1]) for f, _ in to_flint_poly(q).factor()[1]
+                 if f.degree() == 1)
+
+
+def _refine(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly, rational: tuple) -> Root:
+    """Narrow a simple root of q (in h = x - at) to below |x| * 2**-56, exactly verified; a Root in x.
+    `rational` holds q's rational roots: only they can be recognised."""
     tight = _float_bracket(q, lo, hi, at)
     if tight is not None:
         lo, hi = tight
-    return _bisect(q, lo, hi, at, p)
+    return _bisect(q, lo, hi, at, p, rational)
 
 
 def _float_bracket(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> tuple[Fraction, Fraction] | None:
@@ -200,8 +213,8 @@ def _float_bracket(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> tuple[F
         x = newton if a < newton < b else (a + b) / 2
     scale = max(abs(float(at) + x), abs(x), 1e-300)  # widths relative to x, not to h
     for bits in (REFINE_BITS + 1, 53, 48, 40, 30):  # floats lose digits to cancellation: widen until verified
-        width = Fraction(scale) * Fraction(1, 2**bits)
-        lo2, hi2 = max(lo, Fraction(x) - width), min(hi, Fraction(x) + width)
+        width = Q(scale) * Q(1, 2**bits)  # exact: a float converts to its own binary value
+        lo2, hi2 = max(lo, Q(x) - width), min(hi, Q(x) + width)
         f_lo, f_hi = q(lo2), q(hi2)
         if f_lo != 0 and f_hi != 0 and (f_lo > 0) != (f_hi > 0):
             return lo2, hi2
@@ -215,11 +228,11 @@ def _horner(coeffs: list[float], x: float) -> float:
     return acc
 
 
-def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
+def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly, rational: tuple) -> Root:
     """Bisect a simple root of q (in h = x - at) to full double precision in x; recognise small-denominator
     rational roots."""
     s_lo = q(lo) > 0
-    tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+    tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
     guessed = False
     while hi - lo > tol:
         mid = (lo + hi) / 2
@@ -230,18 +243,19 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
             lo = mid
         else:
             hi = mid
-        if not guessed and hi - lo < Fraction(1, 10**9):
+        if not guessed and hi - lo < GUESS_WIDTH:
             guessed = True
-            guess = _rational_guess(q, lo, hi, at)
+            guess = _rational_guess(q, lo, hi, at, rational)
             if guess is not None:
                 return Root(guess, guess, guess, p)
-    guess = _rational_guess(q, lo, hi, at)
+    guess = _rational_guess(q, lo, hi, at, rational)
     return Root(guess, guess, guess, p) if guess is not None else Root(at + lo, at + hi, None, p)
 
 
-def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> Fraction | None:
-    """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any."""
-    if hi - lo > Fraction(1, 10**9):
+def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, rational: tuple) -> Fraction | None:
+    """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any. Only one
+    of q's rational roots can be such a root: without one in [lo, hi] there is nothing to look for."""
+    if hi - lo > GUESS_WIDTH or not any(lo <= r <= hi for r in rational):
         return None
     c = fraction(at + (lo + hi) / 2).limit_denominator(10**12)
     return c if lo <= c - at <= hi and q(c - at) == 0 else None
