@@ -3,9 +3,8 @@
 from __future__ import annotations
 
 from bisect import bisect_left, bisect_right
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from fractions import Fraction
-from math import gcd
 
 from beamlang.exact import Q
 from typing import Iterable, Sequence
@@ -37,18 +36,10 @@ def from_flint_poly(f) -> "Poly":
 
 
 def _trim(coeffs: Iterable) -> tuple:
-    out = list(coeffs)
+    out = coeffs if isinstance(coeffs, list) else list(coeffs)
     while out and out[-1] == 0:
         out.pop()
     return tuple(out)
-
-
-def _integer_form(coeffs: tuple) -> tuple[int, list[int]]:
-    """(D, integer coefficients) with p = (sum of ints_i x^i) / D."""
-    D = 1
-    for c in coeffs:
-        D = D * c.denominator // gcd(D, c.denominator)
-    return D, [c.numerator * (D // c.denominator) for c in coeffs]
 
 
 @dataclass(frozen=True, slots=True)
@@ -59,7 +50,6 @@ class Poly:
     `symbolic.Sym` numbers to derive each load's formula in symbols."""
 
     coeffs: tuple = ()
-    _form: tuple | None = field(default=None, compare=False, repr=False)  # integer form, made on first use
 
     @staticmethod
     def of(*coeffs) -> "Poly":
@@ -78,10 +68,10 @@ class Poly:
         return bool(self.coeffs)
 
     def __add__(self, other: "Poly") -> "Poly":
-        n = max(len(self.coeffs), len(other.coeffs))
-        a = self.coeffs + (ZERO,) * (n - len(self.coeffs))
-        b = other.coeffs + (ZERO,) * (n - len(other.coeffs))
-        return Poly(_trim(x + y for x, y in zip(a, b)))
+        a, b = self.coeffs, other.coeffs
+        out = [x + y for x, y in zip(a, b)]  # then the longer one's own terms, each plus zero as if padded
+        out += [x + ZERO for x in a[len(b):]] if len(a) > len(b) else [ZERO + y for y in b[len(a):]]
+        return Poly(_trim(out))
 
     def __neg__(self) -> "Poly":
         return Poly(tuple(-c for c in self.coeffs))
@@ -103,33 +93,23 @@ class Poly:
     __rmul__ = __mul__
 
     def __call__(self, x):
-        if not isinstance(x, RATIONAL) or not self.coeffs or not isinstance(self.coeffs[-1], RATIONAL):
-            acc = 0
-            for c in reversed(self.coeffs):
-                acc = acc * x + c
-            return acc
-        return self._exact_at(x)
-
-    def _exact_at(self, x: Fraction) -> Fraction:
-        """Horner's rule on integers: p(n/d) = sum(c_i n^i d^(k-i)) / (D d^k), one Fraction at the end."""
-        form = self._form
-        if form is None:
-            form = _integer_form(self.coeffs)
-            object.__setattr__(self, "_form", form)  # a cache: the value of the polynomial does not change
-        D, ints = form
-        n, d = x.numerator, x.denominator
-        acc, dpow = ints[-1], 1
-        for c in reversed(ints[:-1]):
-            dpow *= d
-            acc = acc * n + c * dpow
-        return Q(acc, D * dpow)
+        """Horner's rule; an exact number at an exact x is the engine's rational (gmpy2's, whose own
+        arithmetic was measured faster here than Horner on integer numerators over a common denominator)."""
+        coeffs = self.coeffs
+        if not coeffs:
+            return 0
+        exact = isinstance(x, RATIONAL) and isinstance(coeffs[-1], RATIONAL)
+        acc = ZERO if exact else 0
+        for c in reversed(coeffs):
+            acc = acc * x + c
+        return acc
 
     def derivative(self) -> "Poly":
         return Poly(tuple(i * c for i, c in enumerate(self.coeffs) if i))
 
     def antiderivative(self, at=0, value=0) -> "Poly":
         """The antiderivative that equals `value` at x = `at`."""
-        raw = Poly(_trim((ZERO,) + tuple(c / (i + 1) for i, c in enumerate(self.coeffs))))
+        raw = Poly(_trim([ZERO] + [c / (i + 1) for i, c in enumerate(self.coeffs)]))
         return raw + Poly.of(value - raw(at))
 
     def taylor(self, a) -> "Poly":

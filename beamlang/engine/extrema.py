@@ -5,10 +5,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from fractions import Fraction
 
+from beamlang.exact import Q
 from beamlang.poly import Piecewise, Poly, runs
 from beamlang.engine.roots import Root, roots_in
 
-SAME = Fraction(1, 10**12)  # two maxima within this relative difference are the same (symmetry)
+SAME = Q(1, 10**12)  # two maxima within this relative difference are the same (symmetry)
 
 
 @dataclass(frozen=True, slots=True)
