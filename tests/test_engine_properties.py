@@ -11,7 +11,7 @@ from hypothesis import strategies as st
 from beamlang.model import LineLoad, MomentLoad, PointLoad
 from beamlang.engine.roots import roots_in
 from beamlang.poly import Poly
-from beamlang.engine.statics import resultant
+from beamlang.engine.statics import _changes, intensity, resultant
 from beamlang.engine.fem import MIN_ELEMENT, element_stiffness, fe_nodes
 from engine_helpers import analyse_text, member_text, result
 from strategies import members
@@ -202,3 +202,28 @@ def test_quadratic_roots_in_closed_form_agree_with_the_general_search(b, c, scal
         assert (r1.exact is None) == (r2.exact is None)
         assert abs(r1.x - r2.x) <= max(abs(r1.x), F(1, 10**6)) * F(1, 2**54)
         assert r1.lo <= r1.x <= r1.hi and p(r1.lo) * p(r1.hi) <= 0  # a true bracket of a root of p
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.tuples(*[st.fractions(-10**4, 10**4, max_denominator=1000)] * 3), st.integers(1, 10**4), st.booleans())
+def test_line_load_changes_are_the_integrals_of_its_intensity(values, width, uniform):
+    # the written-out changes of V and M against the reference: W and T integrated as polynomials
+    x1, w1, w2 = values
+    load = LineLoad(x1, x1 + F(width, 7), w1, w1 if uniform else w2, "linear", None)
+    x = Poly.of(0, 1)
+    w = intensity(load)
+    W, T = w.antiderivative(), (w * x).antiderivative()
+    inside_v = W - Poly.of(W(load.x1))
+    inside_m = x * inside_v - (T - Poly.of(T(load.x1)))
+    total = W(load.x2) - W(load.x1)
+    beyond_m = x * total - Poly.of(T(load.x2) - T(load.x1))
+    expected = [(load.x1, inside_v, inside_m), (load.x2, Poly.of(total) - inside_v, beyond_m - inside_m)]
+    assert _changes(load) == expected
+    assert resultant([load]) == (total, T(load.x2) - T(load.x1))
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.fractions(-10**4, 10**4, max_denominator=1000), st.fractions(-10**4, 10**4, max_denominator=1000))
+def test_point_load_changes_are_its_force_and_moment(at, force):
+    x = Poly.of(0, 1)
+    assert _changes(PointLoad(at, force, None)) == [(at, Poly.of(force), (x - Poly.of(at)) * force)]

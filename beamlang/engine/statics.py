@@ -6,7 +6,7 @@ from fractions import Fraction
 
 from beamlang.exact import Q
 from beamlang.model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad, Settlement
-from beamlang.poly import Piecewise, Poly
+from beamlang.poly import ZERO, Piecewise, Poly
 
 
 def breakpoints(member: Member) -> tuple[Fraction, ...]:
@@ -58,20 +58,27 @@ def resultant(loads: tuple[Load, ...] | list[Load]) -> tuple[Fraction, Fraction]
         elif isinstance(load, MomentLoad):
             moment += load.moment
         elif isinstance(load, LineLoad):
-            w = intensity(load)
-            W = w.antiderivative()
-            T = (w * Poly.of(0, 1)).antiderivative()
-            force += W(load.x2) - W(load.x1)
-            moment += T(load.x2) - T(load.x1)
+            _, _, W1, W2, T1, T2 = _line_terms(load)
+            force += W2 - W1
+            moment += T2 - T1
     return force, moment
+
+
+def _line_terms(load: LineLoad) -> tuple:
+    """(w0, w1, W(x1), W(x2), T(x1), T(x2)) of a line load w(t) = w0 + w1 t on [x1, x2], with W = w0 t + w1 t^2 / 2
+    and T = w0 t^2 / 2 + w1 t^3 / 3 the integrals of w and of t w from 0 (written out: the same exact values as
+    integrating the polynomials)."""
+    w0, w1 = (intensity(load).coeffs + (ZERO, ZERO))[:2]
+    W1, W2 = ((w1 / 2 * x + w0) * x for x in (load.x1, load.x2))
+    T1, T2 = ((w1 / 3 * x + w0 / 2) * x * x for x in (load.x1, load.x2))
+    return w0, w1, W1, W2, T1, T2
 
 
 def moment_left(loads, x) -> Fraction:
     """The bending moment at x from the loads left of x alone (sagging positive)."""
-    at = Poly.of(0, 1)
     total = Q(0)
     for load in loads:
-        for where, _, dm in _changes(load, at):
+        for where, _, dm in _changes(load):
             if where < x:
                 total += dm(x)
     return total
@@ -82,10 +89,9 @@ def shear_and_moment(xs: tuple[Fraction, ...], loads) -> tuple[Piecewise, Piecew
 
     One sweep from the left: each load changes the running V and M where it starts (and a line
     load again where it ends), so the cost grows with segments plus loads, not their product."""
-    x = Poly.of(0, 1)
     events: dict[Fraction, list[tuple[Poly, Poly]]] = {}
     for load in loads:
-        for at, dv, dm in _changes(load, x):
+        for at, dv, dm in _changes(load):
             events.setdefault(at, []).append((dv, dm))
     V, M, out_v, out_m = Poly(), Poly(), [], []
     for left in xs[:-1]:
@@ -96,19 +102,16 @@ def shear_and_moment(xs: tuple[Fraction, ...], loads) -> tuple[Piecewise, Piecew
     return Piecewise(xs, tuple(out_v)), Piecewise(xs, tuple(out_m))
 
 
-def _changes(load: Load, x: Poly) -> list[tuple[Fraction, Poly, Poly]]:
+def _changes(load: Load) -> list[tuple[Fraction, Poly, Poly]]:
     """(position, change of V, change of M) for everything right of that position."""
     if isinstance(load, PointLoad):
-        return [(load.x, Poly.of(load.force), (x - Poly.of(load.x)) * load.force)]
+        return [(load.x, Poly.of(load.force), Poly.of(-load.x * load.force, load.force))]  # F (x - x_F)
     if isinstance(load, MomentLoad):
         return [(load.x, Poly(), Poly.of(-load.moment))]
     if isinstance(load, Settlement):
         return []  # a prescribed movement carries no force; it enters through the support conditions
-    w = intensity(load)
-    W = w.antiderivative()
-    T = (w * x).antiderivative()
-    inside_v = W - Poly.of(W(load.x1))  # the part of the load from x1 to x
-    inside_m = x * inside_v - (T - Poly.of(T(load.x1)))
-    total = W(load.x2) - W(load.x1)  # beyond x2: the resultant
-    beyond_m = x * total - Poly.of(T(load.x2) - T(load.x1))
-    return [(load.x1, inside_v, inside_m), (load.x2, Poly.of(total) - inside_v, beyond_m - inside_m)]
+    # from x1 on, the part of the load from x1 to x: V gains W(x) - W(x1) and M gains x (W(x) - W(x1)) - (T(x) -
+    # T(x1)); from x2 on, these are replaced by the whole load's W(x2) - W(x1) and x (W(x2) - W(x1)) - (T(x2) - T(x1))
+    w0, w1, W1, W2, T1, T2 = _line_terms(load)
+    return [(load.x1, Poly.of(-W1, w0, w1 / 2), Poly.of(T1, -W1, w0 / 2, w1 / 6)),
+            (load.x2, Poly.of(W2, -w0, -w1 / 2), Poly.of(-T2, W2, -w0 / 2, -w1 / 6))]
