@@ -10,6 +10,7 @@ from typing import TYPE_CHECKING
 from beamlang.engine.extrema import Candidate, Located, candidates, derivative_of, largest, largest_abs
 from beamlang.engine.solve import Solution, Target
 from beamlang.engine.statics import formula_ends, region_bounds
+from beamlang.poly import ZERO
 
 if TYPE_CHECKING:  # moving.py imports this module's neighbours; it is loaded only for moving targets
     from beamlang.analysis.patterned import PatternResult
@@ -129,10 +130,10 @@ def _target(sol: Solution, t: Target, fe: dict, parts: dict | None = None) -> Ta
     m, c = sol.member, t.curves
     L = m.length
     keep = formula_ends(m)
-    defl = candidates(c.v, c.slope, Fraction(0), L, keep)
-    moment = candidates(c.M, c.V, Fraction(0), L, keep)
-    shear = candidates(c.V, derivative_of(c.V), Fraction(0), L, keep)
-    slope = candidates(c.theta, derivative_of(c.theta), Fraction(0), L, keep)
+    defl = candidates(c.v, c.slope, ZERO, L, keep)
+    moment = candidates(c.M, c.V, ZERO, L, keep)
+    shear = candidates(c.V, derivative_of(c.V), ZERO, L, keep)
+    slope = candidates(c.theta, derivative_of(c.theta), ZERO, L, keep)
     m_pos, m_neg, v_max = largest(moment, 1), largest(moment, -1), largest_abs(shear)
     return TargetResult(
         t.name, t.kind,

@@ -62,12 +62,15 @@ def candidates(curve: Piecewise, derivative: Piecewise, lo: Fraction, hi: Fracti
 
 def largest(cands: list[Candidate], sign: int) -> Located | None:
     """The candidate with the largest sign*value, if that is above zero; ties collect every place."""
-    best = max((c for c in cands), key=lambda c: sign * c.value, default=None)
-    if best is None or sign * best.value <= 0:
+    if not cands:
         return None
-    target = best.value
+    values = [c.value for c in cands]
+    target = max(values) if sign > 0 else min(values)
+    if sign * target <= 0:
+        return None
     floor = sign * float(target) * (1 - 1e-9)  # a float pre-filter, then the exact test
-    tied = [c for c in cands if sign * float(c.value) >= floor and abs(c.value - target) <= SAME * abs(target)]
+    tolerance = SAME * abs(target)
+    tied = [c for c, v in zip(cands, values) if sign * float(v) >= floor and abs(v - target) <= tolerance]
     first = min(tied, key=lambda c: c.x)
     side = first.side if _jumps(cands, first.x) else ""
     return Located(first.x, first.value, first.root, side, tuple(sorted({c.x for c in tied})))

@@ -13,9 +13,10 @@ import numpy as np
 from threadpoolctl import ThreadpoolController
 
 from beamlang.engine.statics import intensity
+from beamlang.exact import Q
 from beamlang.model import LineLoad, Member, MomentLoad, PointLoad, Settlement
 
-MIN_ELEMENT = Fraction(1, 500)  # of the member length; shorter elements would ruin the float solve
+MIN_ELEMENT = Q(1, 500)  # of the member length; shorter elements would ruin the float solve
 _BLAS: list[ThreadpoolController] = []  # made on first use: it scans the loaded libraries once
 
 
@@ -32,7 +33,7 @@ def fe_nodes(member: Member, xs) -> tuple[Fraction, ...]:
     breakpoint that is not closer than MIN_ELEMENT x L to a node already taken (loads between nodes
     become consistent nodal loads, for which Hermite elements stay exact at the nodes)."""
     tol = member.length * MIN_ELEMENT
-    nodes = sorted({Fraction(0), member.length, *(sp.x for sp in member.supports), *(h.x for h in member.hinges),
+    nodes = sorted({Q(0), member.length, *(sp.x for sp in member.supports), *(h.x for h in member.hinges),
                     *(st.x1 for st in member.stretches)})
     for x in xs:  # nodes stay sorted: only the neighbours of x can be too close
         k = bisect_left(nodes, x)
