@@ -9,7 +9,8 @@ choice is greedy in a preferred order (a linear matroid, so greedy always finds 
 from __future__ import annotations
 
 from dataclasses import dataclass
-from fractions import Fraction
+
+from beamlang.exact import Q
 
 
 @dataclass(frozen=True, slots=True)
@@ -45,8 +46,8 @@ def equilibrium_column(supports, hinge_xs, r: Restraint) -> list:
     from the part left of it (sagging positive; a counterclockwise couple lowers the moment to its right)."""
     x = supports[r.support].x
     if r.kind == "force":
-        return [Fraction(1), x] + [(h - x) if x < h else Fraction(0) for h in hinge_xs]
-    return [Fraction(0), Fraction(1)] + [Fraction(-1) if x < h else Fraction(0) for h in hinge_xs]
+        return [Q(1), x] + [(h - x) if x < h else Q(0) for h in hinge_xs]
+    return [Q(0), Q(1)] + [Q(-1) if x < h else Q(0) for h in hinge_xs]
 
 
 def keep(supports, hinge_xs, preferred: list[Restraint]) -> tuple[Restraint, ...]:

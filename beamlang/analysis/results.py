@@ -294,7 +294,8 @@ def _cross_check(sol: Solution, t: Target, fe: dict) -> float:
         v = sum(float(f) * fe[name][0] for f, name in t.terms)
         theta = sum(float(f) * fe[name][1] for f, name in t.terms)
         return relative_difference(sol.member, sol.xs, (), t.curves.v, t.curves.theta, (v, theta))
-    nodal = nodal_solution(sol.member, fe_nodes(sol.member, sol.xs), factored_loads(sol, t))
+    nodes = fe_nodes(sol.member, sol.xs)
+    nodal = nodal_solution(sol.member, nodes, factored_loads(sol, t))
     if t.kind == "case":
         fe[t.name] = nodal
-    return relative_difference(sol.member, sol.xs, (), t.curves.v, t.curves.theta, nodal)
+    return relative_difference(sol.member, sol.xs, (), t.curves.v, t.curves.theta, nodal, nodes)

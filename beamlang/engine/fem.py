@@ -178,10 +178,11 @@ def _add_load(F: np.ndarray, factor, load, x: np.ndarray, dofs, phis) -> None:
                     F[d] += q * n[k]
 
 
-def relative_difference(member: Member, xs, loads, v_exact, theta_exact, nodal=None) -> float:
+def relative_difference(member: Member, xs, loads, v_exact, theta_exact, nodal=None, nodes=None) -> float:
     """Largest nodal difference between the element solution and the exact curves, relative to the largest
-    value; `nodal` is the element solution at fe_nodes(member, xs) when the caller has it already."""
-    nodes = fe_nodes(member, xs)
+    value; `nodal` is the element solution at fe_nodes(member, xs) when the caller has it already (and
+    `nodes` those nodes)."""
+    nodes = fe_nodes(member, xs) if nodes is None else nodes
     v, theta = nodal if nodal is not None else nodal_solution(member, nodes, loads)
     ve = np.array([float(v_exact.at(p)) for p in nodes])
     te = np.array([float(theta_exact.at(p)) for p in nodes])
