@@ -227,3 +227,27 @@ def test_line_load_changes_are_the_integrals_of_its_intensity(values, width, uni
 def test_point_load_changes_are_its_force_and_moment(at, force):
     x = Poly.of(0, 1)
     assert _changes(PointLoad(at, force, None)) == [(at, Poly.of(force), (x - Poly.of(at)) * force)]
+
+
+@SETTINGS
+@given(members())
+def test_real_member_curves_are_the_primary_beam_under_loads_and_redundants(text):
+    # the curves are summed from the unit curves; the reference integrates the primary beam under the loads
+    # and the redundants found, with their reactions added where they were released
+    from beamlang.engine import solve as S
+    sol = analyse_text(text).solution
+    primary = sol.primary
+    if S._is_banded(sol.member, primary):
+        return
+    for t in sol.targets:
+        if t.kind != "case" or not t.solved.redundants:
+            continue
+        found = t.solved
+        acting = list(found.loads) + [S._unit(sol.member, r, x) for x, r in zip(found.redundants, primary.redundants)]
+        ref = S._on_primary(sol.member, sol.xs, sol.EI, primary, acting)
+        reactions = list(ref.reactions)
+        for x, r in zip(found.redundants, primary.redundants):
+            force, moment = reactions[r.support]
+            reactions[r.support] = (force + x, moment) if r.kind == "force" else (force, moment + x)
+        c = found.curves
+        assert (c.V, c.M, c.theta, c.v, c.vs, c.reactions) == (ref.V, ref.M, ref.theta, ref.v, ref.vs, tuple(reactions))

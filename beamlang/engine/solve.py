@@ -299,16 +299,26 @@ def _solve_loads(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ..
     X = linsolve(primary.flexibility, [t - d for t, d in zip(target, D0)]) if D0 else ()
     if not X:
         return LoadSolution(tuple(loads), base, D0, (), base)
-    # the real member: the primary beam under the loads and the redundants found (the same exact curves as
-    # base + sum of X_j times the unit curves, by linearity, for one more integration instead of many sums)
-    acting = list(loads) + [_unit(member, r, x_j) for x_j, r in zip(X, primary.redundants)]
-    total = _on_primary(member, xs, EI, primary, acting)
+    total = _real_member(member, xs, EI, primary, loads, base, X)
     reactions = list(total.reactions)
     for x_j, r in zip(X, primary.redundants):
         force, moment = reactions[r.support]
         reactions[r.support] = (force + x_j, moment) if r.kind == "force" else (force, moment + x_j)
     total = Curves(total.V, total.M, total.theta, total.v, tuple(reactions), total.vs)
     return LoadSolution(tuple(loads), base, D0, tuple(X), total)
+
+
+def _real_member(member: Member, xs, EI, primary: Primary, loads, base: Curves, X) -> Curves:
+    """The primary beam under the loads and the redundants found: on the primary's own grid base + sum of X_j
+    times the unit curves (made already for the flexibility; by linearity the same exact curves, and faster
+    than integrating again), on a finer grid (`curves_with`) the primary beam integrated under them all."""
+    if xs != primary.basis[1]:
+        acting = list(loads) + [_unit(member, r, x_j) for x_j, r in zip(X, primary.redundants)]
+        return _on_primary(member, xs, EI, primary, acting)
+    total = base
+    for x_j, unit in zip(X, primary.units):
+        total = total + unit.scaled(x_j)
+    return total
 
 
 def _banded(member: Member, xs, EI, primary: Primary, loads: tuple[Load, ...]) -> LoadSolution:
