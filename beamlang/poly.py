@@ -10,7 +10,8 @@ from beamlang.exact import Q
 from typing import Iterable, Sequence
 
 Number = Fraction | int
-RATIONAL = (type(Q(0)), int, Fraction)  # exact numbers (the others are symbolic.Sym or floats)
+MPQ = type(Q(0))
+RATIONAL = (MPQ, int, Fraction)  # exact numbers (the others are symbolic.Sym or floats)
 ZERO = Q(0)
 
 
@@ -99,6 +100,8 @@ class Poly:
         if not coeffs:
             return 0
         exact = isinstance(x, RATIONAL) and isinstance(coeffs[-1], RATIONAL)
+        if exact and type(x) is not MPQ:  # a Fraction (its parts may be gmpy2 integers, which mpq refuses) or int
+            x = Q(int(x.numerator), int(x.denominator))
         acc = ZERO if exact else 0
         for c in reversed(coeffs):
             acc = acc * x + c
