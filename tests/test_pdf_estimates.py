@@ -6,12 +6,12 @@ columns, many rows."""
 from __future__ import annotations
 
 import random
+from pathlib import Path
 
 from beamlang.language.frontend import load
 from beamlang.report.pdf import member_source
 from beamlang.report.pdf.markup import estimate_mm, surely_fits
-from beamlang.report.pdf.sheet import PAPERS, MARGINS, query
-from pathlib import Path
+from beamlang.report.pdf.sheet import MARGINS, PAPERS, query
 
 ROOT = Path(__file__).resolve().parents[1]
 FORMULAS = ["$-4.13886 \\times 10^{-5}\\,x^{3} + 0.000335248\\,x^{2} - 0.0016293 = 0$", "$x^{2}$",

@@ -86,7 +86,7 @@ def _column_widths(counts: list[list[float]]) -> list[float]:
         if len(narrow) == len(natural):
             return natural
         previous, fair = fair, (room - sum(narrow)) / (len(natural) - len(narrow))
-    return [w if w <= fair else fair for w in natural]
+    return [min(w, fair) for w in natural]
 
 
 # Inside `$...$` the TeX source is longer than what it draws: `\times 10^{-5}\,x^{3}` draws six glyphs. A
@@ -98,7 +98,7 @@ def _column_widths(counts: list[list[float]]) -> list[float]:
 _STRUCTURAL = frozenset({"frac", "dfrac", "tfrac", "mathrm", "mathit", "mathbf", "text", "textrm", "operatorname",
                          "left", "right", "big", "Big", "begin", "end", "displaystyle", "sqrt"})
 _SPACES = {",": 0.25, ":": 0.25, ";": 0.5, "!": 0.0, " ": 0.25, "quad": 2.0, "qquad": 4.0}
-_TOKEN = re.compile(r"\\([A-Za-z]+|.)|(.)", re.S)
+_TOKEN = re.compile(r"\\([A-Za-z]+|.)|(.)", re.DOTALL)
 
 
 def characters(cell: str) -> float:
