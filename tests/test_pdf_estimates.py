@@ -10,7 +10,7 @@ from pathlib import Path
 
 from beamlang.language.frontend import load
 from beamlang.report.pdf import member_source
-from beamlang.report.pdf.markup import estimate_mm, surely_fits
+from beamlang.report.pdf.markup import estimate_mm, surely_fits, surely_tall
 from beamlang.report.pdf.sheet import MARGINS, PAPERS, query
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -40,7 +40,7 @@ def _measured(markdown: str, paper: str) -> list:
     """(kind, height in pt) of every table, as the typesetter measures it, on the examples' first member."""
     member = load(sorted((ROOT / "examples").glob("*.beam"))[0]).member
     source = member_source(member, markdown).replace('#let bl-paper = "a4"', f'#let bl-paper = "{paper}"')
-    probe = ('\n#let bl-table(n, header, cells, small: false) = {\n  set text(size: 8pt, hyphenate: false)\n'
+    probe = ('\n#let bl-table(n, header, cells, small: false, tall: false) = {\n  set text(size: 8pt, hyphenate: false)\n'
              '  let t = table(columns: n, inset: (x: 3.5pt, y: 2.5pt), table.header(..header.map(c => strong(c))), '
              '..cells)\n  context [#metadata((small, measure(t, width: bl-size.get().width).height.pt())) <h>]\n}\n')
     source = source.replace("// A display formula", probe + "// A display formula", 1)
@@ -84,6 +84,27 @@ def test_narrow_columns_keep_their_width_and_wide_ones_share_the_rest():
     assert widths[0] == 4 * _CHAR_MM + _INSET_MM and widths[1] == widths[2] == (room - widths[0]) / 2
     assert _column_widths([[4, 5]]) == [4 * _CHAR_MM + _INSET_MM, 5 * _CHAR_MM + _INSET_MM]
     assert _column_widths([[100, 100, 100]]) == [room / 3] * 3
+
+
+def test_a_table_called_tall_is_taller_than_every_sheet():
+    """The least rows that make a table `tall`, of the shortest cells there are (one character, an inline formula
+    of one letter, an empty row among them), measured: taller than the text of A4 and US letter less bl-table's
+    room, so that the typesetter would have broken it too."""
+    shortest = [[".", "$x$"], ["", ""], ["1", "-"], ["$-$", "a"]]
+    tables = []
+    for k in range(4):
+        rows = [["a", "b"]]
+        while not surely_tall(rows):
+            rows.append(shortest[(len(rows) + k) % len(shortest)])
+        tables.append(rows)
+        assert not surely_tall(rows[:-1])
+    markdown = "\n".join("| " + " | ".join(t[0]) + " |\n|---|---|\n" + "\n".join("| " + " | ".join(r) + " |" for r in t[1:]) +
+                         "\n" for t in tables)
+    heights = [h for _small, h in _measured(markdown, "a4")]
+    least = (max(h for _, h in PAPERS.values()) - MARGINS[1] - 8) * 72 / 25.4
+    assert len(heights) == len(tables) and min(heights) > least, (heights, least)
+    assert min(heights) < 1.2 * least  # the bound is close: a table a little shorter is measured
+    assert not surely_tall([["a", "b"]] + [["1", "2"]] * 60)
 
 
 def test_the_estimate_turns_away_a_tall_table():

@@ -52,6 +52,20 @@ def body_mm() -> tuple[float, float]:
     return min(w for w, _ in PAPERS.values()) - MARGINS[0], min(h for _, h in PAPERS.values()) - MARGINS[1]
 
 
+# A table is surely taller than any sheet when even its rows at their least height are: a row with any text or
+# formula is at least its insets and one line at 8 pt (measured in Typst: 10.26 pt, 3.62 mm), an empty row its
+# insets (5 pt). `_ROOM_MM` is what bl-table leaves below a sheet's text height before it calls a table tall.
+_LEAST_ROW_MM, _EMPTY_ROW_MM, _ROOM_MM = 3.5, 1.7, 8.0
+
+
+def surely_tall(cells: list[list[str]]) -> bool:
+    """Whether a table of these cells' Markdown source is taller than the text of every sheet (A4 and US letter),
+    so that it breaks across sheets without being measured first."""
+    from beamlang.report.pdf.sheet import MARGINS, PAPERS
+    least = sum(_LEAST_ROW_MM if any(c.strip() for c in row) else _EMPTY_ROW_MM for row in cells)
+    return least > max(h for _, h in PAPERS.values()) - MARGINS[1] - _ROOM_MM
+
+
 def surely_fits(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
     auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
@@ -203,7 +217,7 @@ class _Writer:
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
-        small = ", small: true" if surely_fits(raw) else ""
+        small = ", small: true" if surely_fits(raw) else ", tall: true" if surely_tall(raw) else ""
         return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n){small})\n" if rows[1:] else \
             f"\n#bl-table({ncols}, ({header},), (){small})\n"
 
