@@ -165,7 +165,7 @@ def test_deflection_limit_is_drawn_at_its_allowed_value():
     ticks = [(float(t.get("y")) - 0.36 * 7, float(t.text.replace("\u2212", "-"))) for t in root.iter(f"{SVG}text")
              if t.get("text-anchor") == "end" and top <= float(t.get("y")) <= top + h + 3]
     (ya, va), (yb, vb) = ticks[0], ticks[-1]
-    dashed = [e for e in root.iter(f"{SVG}polyline") if e.get("stroke") == figures.MARK and e.get("stroke-dasharray")]
+    dashed = [e for e in root.iter(f"{SVG}polyline") if e.get("stroke") == drawing.MARK and e.get("stroke-dasharray")]
     assert len(dashed) == 1
     y = float(dashed[0].get("points").split()[0].split(",")[1])
     assert va + (y - ya) * (vb - va) / (yb - ya) == pytest.approx(-6000 / 360, abs=0.05)
