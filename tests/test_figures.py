@@ -189,5 +189,5 @@ def test_a_long_title_is_wrapped_inside_the_figure():
     root = ET.fromstring(fig.svg())
     texts = [t for t in root.iter(f"{SVG}text") if t.text and t.text.startswith(("word", "panel"))]
     assert len(texts) > 4  # several lines each
-    from beamlang.report.svgplot import text_width
+    from beamlang.report.svgtext import text_width
     assert all(float(t.get("x")) + text_width(t.text, float(t.get("font-size"))) <= 300.0 for t in texts)
