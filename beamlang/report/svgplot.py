@@ -293,7 +293,8 @@ def _item(item: tuple, f: _Frame, placed: list) -> tuple[str, bool]:
     if kind == "ellipse":
         _, xv, yv, rx, ry, face, edge, width = item
         return (f'<ellipse cx="{num(px(xv))}" cy="{num(py(yv))}" rx="{num(rx / (f.x1 - f.x0) * f.w)}" '
-                f'ry="{num(ry / (f.y1 - f.y0) * f.h)}" fill="{face}" stroke="{edge}" stroke-width="{num(width)}"/>\n'), True
+                f'ry="{num(ry / (f.y1 - f.y0) * f.h)}" fill="{face}" stroke="{edge}" '
+                f'stroke-width="{num(width)}"/>\n'), True
     if kind == "dot":
         _, xv, yv, size, face, edge, ew = item
         return (f'<circle cx="{num(px(xv))}" cy="{num(py(yv))}" r="{num(size / 2)}" fill="{face or "none"}" '
