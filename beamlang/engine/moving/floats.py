@@ -91,6 +91,11 @@ class FloatCells:
             A += abs(w) * np.array([k[1] for k in K])
         return C, A
 
+    def static(self, s: int):
+        """The target's static pieces on segment s in floats, (quantity, x degree), or None when too large."""
+        a = self._static_of(s)
+        return None if a is None else a[:, :, 0]
+
     def _static_of(self, s: int):
         import numpy as np
         if s not in self._static:
@@ -175,23 +180,22 @@ def _taylor(a: list[float], h: float) -> list[float]:
     return out
 
 
-def piece_bounds(pieces, xs) -> list[tuple[float, float]]:
-    """(hi, lo) of each exact piece k of a piecewise polynomial over [xs[k], xs[k+1]] (floats, Taylor form at
-    the middle, widened by MARGIN times the terms' size), all pieces at once."""
+def coefficient_bounds(P, M, a, b) -> list[tuple[float, float]]:
+    """(hi, lo) of each float polynomial (rows of P, ascending in x) over [a_k, b_k], with M >= |P| the
+    magnitudes of the terms summed into its coefficients: the Taylor form at the middle, widened by MARGIN
+    times the terms' size, all rows at once."""
     import numpy as np
-    m = max((len(p.coeffs) for p in pieces), default=0)
+    m = P.shape[1]
     if m == 0:
-        return [(1e-300, -1e-300)] * len(pieces)
-    P = np.array([[float(c) for c in p.coeffs] + [0.0] * (m - len(p.coeffs)) for p in pieces])
-    a, b = np.array([float(x) for x in xs[:-1]]), np.array([float(x) for x in xs[1:]])
+        return [(1e-300, -1e-300)] * len(P)
     mid, half = (a + b) / 2, (b - a) / 2
-    half = half + 4e-16 * (np.abs(mid) + half)
+    half = half + 4e-16 * (np.abs(mid) + half)  # the interval's float ends rounded outward
     e = np.arange(m)[None, :] - np.arange(m)[:, None]
     binom = np.array([[comb(i, k) for i in range(m)] for k in range(m)], dtype=float)
     powers = mid[:, None] ** np.arange(m)
-    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (pieces, k, i)
+    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (rows, k, i)
     T = np.einsum("nki,ni->nk", B, P)
     spread = (np.abs(T[:, 1:]) * half[:, None] ** np.arange(1, m)).sum(axis=1)
-    size = (np.abs(P) * (np.abs(mid) + half)[:, None] ** np.arange(m)).sum(axis=1)
+    size = (M * (np.abs(mid) + half)[:, None] ** np.arange(m)).sum(axis=1)
     slack = MARGIN * (size + spread) + 1e-300
     return list(zip((T[:, 0] + spread + slack).tolist(), (T[:, 0] - spread - slack).tolist()))

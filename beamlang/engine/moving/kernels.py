@@ -94,6 +94,29 @@ class _Kernels:
             k = t if side == "L" else t + 1
         return [_curve(curves, q).pieces[k] for _, curves in self.samples(t)]
 
+    def fields_float(self, s: int, t: int, side: str):
+        """`field_float` of v, theta, M and V stacked, arrays (quantity, x degree, xi degree), with E: MARGIN * E
+        bounds the error of the float kernel and of a few dozen float operations on it (A - |K| keeps the scale
+        of the interpolation's rounding, `floats.interpolated`; 1e-5 |K| covers the rest); None when too large."""
+        key = ("ff4", s, t, side)
+        if key not in self._cache:
+            import numpy as np
+            K = [self.field_float(q, s, t, side) for q in QUANTITIES]
+            if any(k is None for k in K):
+                self._cache[key] = None
+            else:
+                C, A = np.array([k[0] for k in K]), np.array([k[1] for k in K])
+                self._cache[key] = C, A - (1 - 1e-5) * np.abs(C)
+        return self._cache[key]
+
+    def line(self, q: str, x0: Fraction, t: int) -> Poly:
+        """K_q(x0, xi) for xi in segment t (x0 a breakpoint, the curve's value right of it: `Piecewise.at`)."""
+        key = ("l", q, x0, t)
+        if key not in self._cache:
+            values = [_curve(c, q).at(x0) for _, c in self.samples(t)]
+            self._cache[key] = Poly(_trim_q(_lagrange_checked(self.basis(t), values)))
+        return self._cache[key]
+
     def reaction_float(self, kind: str, j: int, t: int) -> list[float]:
         key = ("rf", kind, j, t)
         if key not in self._cache:

@@ -19,11 +19,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.engine.extrema import derivative_of
 from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _taylor2, _value
 from beamlang.engine.moving.bounds import _Best
 from beamlang.engine.moving.boxes import cell_bounds, interior_bounds
-from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at, piece_bounds
+from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -36,18 +35,20 @@ from beamlang.engine.moving.cells import (
     group_offsets,
 )
 from beamlang.engine.moving.found import Critical, Envelope
-from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for, reaction_terms
+from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _reaction_line, kernels_for, reaction_terms
+from beamlang.engine.moving.standing import reaction_at, standing, value_at
+from beamlang.engine.moving.standing import search as search_standing
 from beamlang.engine.roots import roots_in
-from beamlang.engine.solve import Curves, Solution, Target, curves_with
+from beamlang.engine.solve import Solution, Target
 from beamlang.engine.statics import region_bounds
 from beamlang.exact import Q
 from beamlang.model import LineLoad, Load, MomentLoad, PointLoad, Settlement
 from beamlang.poly import Poly
 
 
-def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, Load]]) -> Envelope:
-    """The envelope of `target`, whose moving load is found through the member; `static_loads` are its
-    factored static loads (for the group-standing configurations)."""
+def envelope(sol: Solution, target: Target) -> Envelope:
+    """The envelope of `target`, whose moving load is found through the member (its static curves, the
+    target's own, with the group's forces added by superposition of the unit-force kernels)."""
     member = sol.member
     factor, load = member.moving(target.name)
     kernels = kernels_for(sol, load)
@@ -58,20 +59,18 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     inner: list = []  # every cell's interior, searched once the edges have set the values to beat
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
-    static = tuple(scaled(ld, k) for k, ld in static_loads)
     floats = FloatCells(kernels, target, factor)
     for rev in directions(load):
         offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
-        for p in events:  # the group standing at every event: a static case, searched exactly
-            wheels = _wheels(load, offsets, p)
-            curves = curves_with(sol, static + tuple(PointLoad(x, factor * F, load.span) for x, F in wheels))
-            _standing(found, curves, member.length, p, rev, best)
-            standing = [((q, x0), Critical(_curve(curves, q).at(x0), x0, p, rev, "group standing", True))
-                        for x0 in fixed_x for q in ("v", "theta", "M")]
-            standing += [((kind, j), Critical(value, member.supports[j].x, p, rev, "group standing", True))
-                         for j, reaction in enumerate(curves.reactions) for kind, value in zip(("R", "Rm"), reaction)]
-            for key, c in standing:
+        for p in events:  # the group standing at every event: a static case, by superposition of the kernels
+            group = standing(floats, factor, _wheels(load, offsets, p))
+            search_standing(group, found, p, rev, best)
+            fixed = [((q, x0), Critical(value_at(group, q, x0), x0, p, rev, "group standing", True))
+                     for x0 in fixed_x for q in ("v", "theta", "M")]
+            fixed += [((kind, j), Critical(reaction_at(group, kind, j), sp.x, p, rev, "group standing", True))
+                      for j, sp in enumerate(member.supports) for kind in ("R", "Rm")]
+            for key, c in fixed:
                 at_fixed.setdefault(key, []).append(c)
                 best.note(key, c)
         for pa, pb in zip(events, events[1:]):
@@ -136,26 +135,6 @@ def _largest_abs(items) -> Critical | None:
 
 def _pair(items) -> tuple[Critical | None, Critical | None]:
     return max(items, key=lambda c: c.value, default=None), min(items, key=lambda c: c.value, default=None)
-
-
-def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
-    """Every segment end and, in a segment whose float bound could beat the values found, every zero of the
-    derivative (`extrema.candidates`, pruned) of each response with the group standing at p."""
-    for q in QUANTITIES:
-        c = _curve(curves, q)
-        d = curves.slope if q == "v" else (curves.V if q == "M" else derivative_of(c))
-        for k, (piece, (hi, lo)) in enumerate(zip(c.pieces, piece_bounds(c.pieces, c.xs))):
-            a, b = c.xs[k], c.xs[k + 1]
-            if a < 0 or b > L:
-                continue
-            found_here = [Critical(piece(a), a, p, rev, "group standing", True)]
-            if best.wanted((q,), hi, lo, (a + b) / 2):
-                found_here += [Critical(piece(r.x), r.x, p, rev, "group standing", r.exact is not None)
-                               for r in roots_in(d.pieces[k], a, b)]
-            found_here.append(Critical(piece(b), b, p, rev, "group standing", True))
-            for crit in found_here:
-                found[q].append(crit)
-                best.note(q, crit)
 
 
 def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
