@@ -10,6 +10,8 @@ from beamlang.exact import Q, fraction
 from beamlang.poly import Poly, from_flint_poly, to_flint, to_flint_poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
+FLOOR = Q(1, 10**6)  # the scale of that width near x = 0
+GUESS = Q(1, 10**9)  # an interval this narrow is tried for a small-denominator rational root
 
 
 @dataclass(frozen=True, slots=True)
@@ -28,7 +30,7 @@ class Root:
 
 
 def _monic(p: Poly) -> Poly:
-    return p * (Fraction(1) / abs(p.coeffs[-1])) if p else p
+    return p * (Q(1) / abs(p.coeffs[-1])) if p else p
 
 
 def gcd(a: Poly, b: Poly) -> Poly:
@@ -92,7 +94,7 @@ def _quadratic(q: Poly, width: Fraction, at: Fraction, p: Poly) -> list[Root] | 
             S = math.isqrt(nd << (2 * k))  # sqrt(nd) * 2**k lies in [S, S + 1)
             lo_r, hi_r = Q(S, d << k), Q(S + 1, d << k)
             lo, hi = ((-B + lo_r) / 2, (-B + hi_r) / 2) if sign > 0 else ((-B - hi_r) / 2, (-B - lo_r) / 2)
-            tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+            tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
             if hi - lo <= tol:
                 break
             k *= 2
@@ -143,7 +145,7 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
         h = -q.coeffs[0] / q.coeffs[1]
         return [Root(a + h, a + h, a + h, p)] if 0 < h < width else []
     found: list[Root] = []
-    stack = [(Fraction(0), width)]
+    stack = [(Q(0), width)]
     while stack:
         lo, hi = stack.pop()
         n = _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)
@@ -162,7 +164,7 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
 def _may_vanish(c: Poly, width: Fraction) -> bool:
     """False when the polynomial (in h, the Taylor form at the segment start) surely has no root for
     0 <= h <= width: |c0| exceeds the bound of the rest."""
-    rest, power = Fraction(0), Fraction(1)
+    rest, power = Q(0), Q(1)
     for ck in c.coeffs[1:]:
         power *= width
         rest += abs(ck) * power
@@ -200,8 +202,8 @@ def _float_bracket(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> tuple[F
         x = newton if a < newton < b else (a + b) / 2
     scale = max(abs(float(at) + x), abs(x), 1e-300)  # widths relative to x, not to h
     for bits in (REFINE_BITS + 1, 53, 48, 40, 30):  # floats lose digits to cancellation: widen until verified
-        width = Fraction(scale) * Fraction(1, 2**bits)
-        lo2, hi2 = max(lo, Fraction(x) - width), min(hi, Fraction(x) + width)
+        width = Q(scale) * Q(1, 2**bits)
+        lo2, hi2 = max(lo, Q(x) - width), min(hi, Q(x) + width)
         f_lo, f_hi = q(lo2), q(hi2)
         if f_lo != 0 and f_hi != 0 and (f_lo > 0) != (f_hi > 0):
             return lo2, hi2
@@ -219,7 +221,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
     """Bisect a simple root of q (in h = x - at) to full double precision in x; recognise small-denominator
     rational roots."""
     s_lo = q(lo) > 0
-    tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+    tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
     guessed = False
     while hi - lo > tol:
         mid = (lo + hi) / 2
@@ -230,7 +232,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
             lo = mid
         else:
             hi = mid
-        if not guessed and hi - lo < Fraction(1, 10**9):
+        if not guessed and hi - lo < GUESS:
             guessed = True
             guess = _rational_guess(q, lo, hi, at)
             if guess is not None:
@@ -241,7 +243,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
 
 def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> Fraction | None:
     """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any."""
-    if hi - lo > Fraction(1, 10**9):
+    if hi - lo > GUESS:
         return None
     c = fraction(at + (lo + hi) / 2).limit_denominator(10**12)
     return c if lo <= c - at <= hi and q(c - at) == 0 else None

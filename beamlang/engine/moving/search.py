@@ -44,6 +44,7 @@ from beamlang.engine.statics import region_bounds
 from beamlang.exact import Q
 from beamlang.model import LineLoad, Load, MomentLoad, PointLoad, Settlement
 from beamlang.poly import Poly
+from beamlang.stability import components
 
 
 def envelope(sol: Solution, target: Target) -> Envelope:
@@ -51,6 +52,7 @@ def envelope(sol: Solution, target: Target) -> Envelope:
     target's own, with the group's forces added by superposition of the unit-force kernels)."""
     member = sol.member
     factor, load = member.moving(target.name)
+    rate = Q(factor)  # in the engine's rational type, so products with the kernels stay in it (fast)
     kernels = kernels_for(sol, load)
     found: dict[str, list[Critical]] = {q: [] for q in QUANTITIES}
     fixed_x = tuple(sorted({sp.x for sp in member.supports} | {r.x for r in member.report_points}))
@@ -60,11 +62,12 @@ def envelope(sol: Solution, target: Target) -> Envelope:
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
     floats = FloatCells(kernels, target, factor)
+    own, still, moments = _fixed_keys(member)
     for rev in directions(load):
         offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
         for p in events:  # the group standing at every event: a static case, by superposition of the kernels
-            group = standing(floats, factor, _wheels(load, offsets, p))
+            group = standing(floats, rate, _wheels(load, offsets, p))
             search_standing(group, found, p, rev, best)
             fixed = [((q, x0), Critical(value_at(group, q, x0), x0, p, rev, "group standing", True))
                      for x0 in fixed_x for q in ("v", "theta", "M")]
@@ -77,6 +80,8 @@ def envelope(sol: Solution, target: Target) -> Envelope:
             on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
             here = _cells(sol.xs, offsets, on)
             bounds = _cell_bounds(floats, here, offsets, pa, pb, sol.xs)
+            made: dict = {}  # (quantity, cell) -> its polynomial, for the lines through the cell
+            fresh = _fresh_ends(load, offsets, on, pa, pb)
             for k, cell in enumerate(here):
                 cells += 1
                 mid = (sol.xs[cell.s] + sol.xs[cell.s + 1]) / 2
@@ -84,7 +89,7 @@ def envelope(sol: Solution, target: Target) -> Envelope:
                     b = bounds.get((k, q))
                     if b is not None and not best.wanted((q,), *b, mid):
                         continue  # nothing in the cell, edges included, can beat the values found
-                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                    f = made[(q, cell)] = _cell_poly(kernels, target, q, cell, offsets, rate)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
             lines = [(x0, q, cell) for x0, cell in ((x0, _cell_at(sol.xs, offsets, on, x0)) for x0 in fixed_x)
@@ -93,19 +98,20 @@ def envelope(sol: Solution, target: Target) -> Envelope:
             known = [k for k, a in enumerate(arrays) if a is not None]
             line_bounds = dict(zip(known, lines_at([arrays[k] for k in known], [lines[k][0] for k in known], pa, pb)))
             for k, (x0, q, cell) in enumerate(lines):  # influence lines of the fixed points: polynomials in p
-                if k in line_bounds and not best.wanted(((q, x0), q), *line_bounds[k], x0):
+                keys = own.get((q, x0), (q,))
+                if (q, x0) in still or k in line_bounds and not best.wanted(keys, *line_bounds[k], x0):
                     continue
-                f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                f = made.get((q, cell)) or _cell_poly(kernels, target, q, cell, offsets, rate)
                 at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
-                                              best, ((q, x0), q))
+                                              best, keys, ends=fresh)
             for j, sp in enumerate(member.supports):
-                for kind in ("R", "Rm"):
-                    terms = reaction_terms(kernels, kind, j, target, on, offsets, factor)
+                for kind in ("R", "Rm") if (j, "moment") in moments else ("R",):
+                    terms = reaction_terms(kernels, kind, j, target, on, offsets, rate)
                     if not best.wanted(((kind, j),), *line_bound(terms, pa, pb)):
                         continue
-                    g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
+                    g = _reaction_line(kernels, kind, j, target, on, offsets, rate)
                     at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
-                                                    ((kind, j),))
+                                                    ((kind, j),), ends=fresh)
     reactions = tuple(_pair(at_fixed[("R", j)]) for j in range(len(member.supports)))
     moments = tuple(_pair(at_fixed[("Rm", j)]) for j in range(len(member.supports)))
     slopes = tuple(_largest_abs(at_fixed[("theta", sp.x)]) for sp in member.supports)
@@ -137,10 +143,30 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
     return max(items, key=lambda c: c.value, default=None), min(items, key=lambda c: c.value, default=None)
 
 
-def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
+def _fixed_keys(member) -> tuple[dict, set, set]:
+    """What the lines through the fixed points must beat: their own extremes where the envelope reports them
+    (deflection at a report point, slope at a support; else those of the whole response only); the lines that
+    are constant (deflection at a rigid support: its prescribed movement, for every position); and the support
+    components with a moment (other supports' moment is zero for every position)."""
+    points, supports = {r.x for r in member.report_points}, {sp.x for sp in member.supports}
+    own = {("v", x): (("v", x), "v") for x in points} | {("theta", x): (("theta", x), "theta") for x in supports}
+    still = {("v", sp.x) for sp in member.supports if sp.kind != "spring"} - set(own)
+    return own, still, {(r.support, r.kind) for r in components(member.supports)}
+
+
+def _fresh_ends(load, offsets, on, pa, pb) -> tuple[Fraction, ...]:
+    """The ends of a p interval where a line through a fixed point takes a value the group standing there does
+    not: where a force of that standing is off the travel inside the interval (it steps on or off there). At the
+    other ends the responses at a fixed point and the reactions are continuous in p, so the line's limit is the
+    standing's value, found and noted already."""
+    return tuple(p for p in (pa, pb) if any(t is None and load.lo <= p + d <= load.hi for d, t in zip(offsets, on)))
+
+
+def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None, ends=None) -> list[Critical]:
     """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
-    response along a line of the plane; the interior only where its bound could beat what `best` holds."""
-    out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
+    response along a line of the plane; the interior only where its bound could beat what `best` holds. `ends`:
+    the ends to take (default both)."""
+    out = [Critical(g(p), x_of(p), p, rev, how, True) for p in ((pa, pb) if ends is None else ends)]
     bound = critical_bounds(g, pa, pb) if g.degree >= 2 else None  # where g' can vanish
     if bound is not None and best.wanted(keys, *bound, x_mid):
         for r in roots_in(g.derivative(), pa, pb):
