@@ -83,12 +83,12 @@ class FloatCells:
             return None
         C, A = s.copy(), np.abs(s)
         for i, t, side in forces_on(cell, offsets):
-            K = [self.kernels.shifted_float(q, cell.s, t, side, offsets[i]) for q in QS]
-            if any(k is None for k in K):
+            K = self.kernels.shifted_floats(cell.s, t, side, offsets[i])
+            if K is None:
                 return None
             w = self.factor * float(self.kernels.load.forces[i])
-            C += w * np.array([k[0] for k in K])
-            A += abs(w) * np.array([k[1] for k in K])
+            C += w * K[0]
+            A += abs(w) * K[1]
         return C, A
 
     def static(self, s: int):

@@ -68,14 +68,17 @@ class _Kernels:
             self._cache[key] = _shift_p(self.field(q, s, t, side), d)
         return self._cache[key]
 
-    def shifted_float(self, q: str, s: int, t: int, side: str, d: Fraction):
-        """`shifted` in floats with a bound of its terms' magnitudes (`floats.shifted`), or None when too large."""
-        key = ("df", q, s, t, side, d)
+    def shifted_floats(self, s: int, t: int, side: str, d: Fraction):
+        """`shifted` in floats for v, theta, M and V, stacked (quantity, x degree, p degree), with a bound of
+        its terms' magnitudes (`floats.shift_matrix`), or None when too large."""
+        key = ("df", s, t, side, d)
         if key not in self._cache:
+            import numpy as np
             from beamlang.engine.moving.floats import shift_matrix
-            K = self.field_float(q, s, t, side)
+            K = [self.field_float(q, s, t, side) for q in QUANTITIES]
             B = self._cache.setdefault(("B", d), shift_matrix(float(d)))
-            self._cache[key] = None if K is None else (K[0] @ B[0], K[1] @ B[1])
+            self._cache[key] = None if any(k is None for k in K) else (np.array([k[0] @ B[0] for k in K]),
+                                                                         np.array([k[1] @ B[1] for k in K]))
         return self._cache[key]
 
     def field_float(self, q: str, s: int, t: int, side: str):
