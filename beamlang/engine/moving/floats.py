@@ -6,6 +6,7 @@ bounds' margin (`boxes.MARGIN` times the terms' size) covers the rounding of the
 
 from __future__ import annotations
 
+from fractions import Fraction
 from math import comb
 
 from beamlang.engine.moving.bivariate import Bi
@@ -90,6 +91,12 @@ class FloatCells:
             C += w * K[0]
             A += abs(w) * K[1]
         return C, A
+
+    def static_at(self, q: str, x: Fraction) -> Fraction:
+        """The target's static q at x, exact (`Piecewise.at`: right of a breakpoint)."""
+        if (q, x) not in self._static:
+            self._static[(q, x)] = _curve(self.target.curves, q).at(x)
+        return self._static[(q, x)]
 
     def static(self, s: int):
         """The target's static pieces on segment s in floats, (quantity, x degree), or None when too large."""

@@ -44,7 +44,7 @@ def _segment(xs, x: Fraction) -> int:
 
 def value_at(st: Standing, q: str, x0: Fraction) -> Fraction:
     """v, theta or M at the breakpoint x0 (the value right of it, as `Piecewise.at`)."""
-    out = _curve(st.floats.target.curves, q).at(x0)
+    out = st.floats.static_at(q, x0)
     for xi, t, w in st.forces:
         out += w * st.floats.kernels.line(q, x0, t)(xi)
     return out
@@ -68,8 +68,9 @@ def search(st: Standing, found: dict, p: Fraction, rev: bool, best: _Best) -> No
         for k, ((a, b, s), part) in enumerate(zip(pieces, parts)):
             bound = bounds.get((k, qi))
             inside = bound is None or best.wanted((q,), *bound, (a + b) / 2)
-            if not inside and not (best.wanted((q,), *bound, a) or best.wanted((q,), *bound, b)):
-                continue
+            if not inside and (q not in best.parts or not (best.wanted((q,), *bound, a)
+                                                         or best.wanted((q,), *bound, b))):
+                continue  # (the ends differ from the middle only where q is checked per span or stretch)
             piece = _piece(st, q, s, part)
             here = [Critical(piece(a), a, p, rev, "group standing", True)]
             if inside:
