@@ -157,22 +157,32 @@ def critical_bounds(g, pa, pb, n: int = 8) -> tuple[float, float] | None:
     """(hi, lo) of g over the parts of [pa, pb] (n of them) where g' can vanish, None when it cannot in any:
     from g's exact Taylor form at pa, in floats, each bound widened by MARGIN times its terms' size."""
     a = [float(k) for k in g.taylor(pa).coeffs]
-    if len(a) < 2:
+    m = len(a)
+    if m < 2:
         return None
     width = float(pb - pa)
+    sizes = [abs(ak) for ak in a]
+    d_sizes = [abs(k * ak) for k, ak in enumerate(a)]
     hi = lo = None
     for part in range(n):
         h0, half = (part + 0.5) * width / n, width / (2 * n)
         half += 4e-16 * (h0 + half)  # the part's float ends rounded outward
         t = _taylor(a, h0)
         reach = h0 + half
-        d_spread = sum(abs(k * tk) * half ** (k - 1) for k, tk in enumerate(t) if k > 1)
-        d_size = sum(abs(k * ak) * reach ** (k - 1) for k, ak in enumerate(a) if k)
+        d_spread = d_size = 0.0  # the sums in plain loops (the same terms in the same order, quicker)
+        for k in range(2, m):
+            d_spread += abs(k * t[k]) * half ** (k - 1)
+        for k in range(1, m):
+            d_size += d_sizes[k] * reach ** (k - 1)
         d_slack = MARGIN * (d_size + d_spread) + 1e-300
         if abs(t[1]) > d_spread + d_slack:
             continue  # g' keeps one sign on this part
-        spread = sum(abs(tk) * half**k for k, tk in enumerate(t) if k)
-        slack = MARGIN * (sum(abs(ak) * reach**k for k, ak in enumerate(a)) + spread) + 1e-300
+        spread = size = 0.0
+        for k in range(1, m):
+            spread += abs(t[k]) * half**k
+        for k in range(m):
+            size += sizes[k] * reach**k
+        slack = MARGIN * (size + spread) + 1e-300
         top, bottom = t[0] + spread + slack, t[0] - spread - slack
         hi, lo = (top, bottom) if hi is None else (max(hi, top), min(lo, bottom))
     return None if hi is None else (hi, lo)

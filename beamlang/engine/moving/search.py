@@ -12,7 +12,7 @@ a polynomial in (x, p) on each cell of the (x, p) plane that the fixed breakpoin
 the lines x = p + d_i cut out. Its largest and smallest values over the whole plane are found without
 sampling: every cell's interior critical points (the resultant in x of df/dx and df/dp, whose real roots
 are isolated exactly), every edge's critical points (x fixed: influence lines; x = p + d_i: under a force;
-p fixed: the group standing still, solved and searched like any static case), and every corner.
+p fixed: the group standing still, built from the kernels and searched like a static case), and every corner.
 """
 
 from __future__ import annotations
