@@ -10,7 +10,7 @@ from unittest import mock
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from beamlang.engine.moving import bounds, search
+from beamlang.engine.moving import bounds, search, standing
 from engine_helpers import analyse_text, member_text
 
 FIELDS = ("reactions", "max_down", "max_up", "slope_max", "slope_at_supports", "moment_positive", "moment_negative",
@@ -40,9 +40,10 @@ def unpruned():
     everything = mock.patch.object(bounds._Best, "wanted", lambda self, *a, **k: True)
     interiors = mock.patch.object(search, "interior_bounds", lambda items, *a: [(INF, -INF, INF, -INF)] * len(items))
     lines = mock.patch.object(search, "critical_bounds", lambda g, pa, pb: (INF, -INF))
+    pieces = mock.patch.object(standing, "critical_bounds", lambda g, pa, pb: (INF, -INF))
     ends = mock.patch.object(search, "_fresh_ends", lambda load, offsets, on, pa, pb: (pa, pb))
     fixed = mock.patch.object(search, "_fixed_keys", lambda member: (_Every(), set(), _Every()))
-    with everything, interiors, lines, ends, fixed:
+    with everything, interiors, lines, pieces, ends, fixed:
         yield
 
 

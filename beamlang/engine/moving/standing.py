@@ -13,7 +13,7 @@ from fractions import Fraction
 
 from beamlang.engine.moving.bivariate import _at_p
 from beamlang.engine.moving.bounds import _Best
-from beamlang.engine.moving.floats import SHAPE, FloatCells, coefficient_bounds
+from beamlang.engine.moving.floats import SHAPE, FloatCells, coefficient_bounds, critical_bounds
 from beamlang.engine.moving.found import Critical
 from beamlang.engine.moving.kernels import QUANTITIES, _curve
 from beamlang.engine.roots import roots_in
@@ -59,9 +59,10 @@ def reaction_at(st: Standing, kind: str, j: int) -> Fraction:
 
 
 def search(st: Standing, found: dict, p: Fraction, rev: bool, best: _Best) -> None:
-    """Every segment end and, in a piece whose float bound could beat the values found, every zero of the
-    derivative of each response with the group standing at p; a piece whose bound beats neither the values
-    found nor a span's largest |v| at its ends is skipped whole (none of its values could change them)."""
+    """Every segment end and, in a piece whose float bound could beat the values found (over the parts where its
+    derivative can vanish, `floats.critical_bounds`), every zero of the derivative of each response with the
+    group standing at p; a piece whose bound beats neither the values found nor a span's largest |v| at its ends
+    is skipped whole (none of its values could change them)."""
     pieces, parts = _pieces(st)
     bounds = _bounds(st, pieces, parts)
     for qi, q in enumerate(QUANTITIES):
@@ -73,7 +74,8 @@ def search(st: Standing, found: dict, p: Fraction, rev: bool, best: _Best) -> No
                 continue  # (the ends differ from the middle only where q is checked per span or stretch)
             piece = _piece(st, q, s, part)
             here = [Critical(piece(a), a, p, rev, "group standing", True)]
-            if inside:
+            critical = critical_bounds(piece, a, b) if inside and piece.degree >= 2 else None
+            if critical is not None and best.wanted((q,), *critical, (a + b) / 2):  # where the slope can vanish
                 here += [Critical(piece(r.x), r.x, p, rev, "group standing", r.exact is not None)
                          for r in roots_in(piece.derivative(), a, b)]
             here.append(Critical(piece(b), b, p, rev, "group standing", True))
