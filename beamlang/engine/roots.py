@@ -10,6 +10,9 @@ from beamlang.exact import Q, fraction
 from beamlang.poly import Poly, from_flint_poly, to_flint, to_flint_poly
 
 REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-56 (beyond double precision)
+FLOOR = Q(1, 10**6)  # the scale of that width near x = 0
+GUESS = Q(1, 10**9)  # an interval this narrow is tried for a small-denominator rational root
+COUNT_FROM = 4  # from this degree roots are counted by Descartes' rule (below, the Sturm sequence is as quick)
 
 
 @dataclass(frozen=True, slots=True)
@@ -28,7 +31,7 @@ class Root:
 
 
 def _monic(p: Poly) -> Poly:
-    return p * (Fraction(1) / abs(p.coeffs[-1])) if p else p
+    return p * (Q(1) / abs(p.coeffs[-1])) if p else p
 
 
 def gcd(a: Poly, b: Poly) -> Poly:
@@ -92,7 +95,7 @@ def _quadratic(q: Poly, width: Fraction, at: Fraction, p: Poly) -> list[Root] | 
             S = math.isqrt(nd << (2 * k))  # sqrt(nd) * 2**k lies in [S, S + 1)
             lo_r, hi_r = Q(S, d << k), Q(S + 1, d << k)
             lo, hi = ((-B + lo_r) / 2, (-B + hi_r) / 2) if sign > 0 else ((-B - hi_r) / 2, (-B - lo_r) / 2)
-            tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+            tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
             if hi - lo <= tol:
                 break
             k *= 2
@@ -138,15 +141,20 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
         found = _quadratic(c * (1 / c.coeffs[-1]), width, a, p)  # leading coefficient +1 (not _monic's |.|)
         if found is not None:
             return found
-    q, seq = _square_free_sturm(_monic(c))
+    q = _monic(c)
+    if q.degree >= COUNT_FROM:
+        q, count = _square_free_counter(q)
+    else:
+        q, seq = _square_free_sturm(q)
+        count = lambda lo, hi: _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)  # noqa: E731
     if q.degree == 1:
         h = -q.coeffs[0] / q.coeffs[1]
         return [Root(a + h, a + h, a + h, p)] if 0 < h < width else []
     found: list[Root] = []
-    stack = [(Fraction(0), width)]
+    stack = [(Q(0), width)]
     while stack:
         lo, hi = stack.pop()
-        n = _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)
+        n = count(lo, hi)  # the distinct roots in (lo, hi)
         if n == 0:
             continue
         if n == 1 and q(lo) != 0:
@@ -159,10 +167,39 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
     return sorted(found, key=lambda r: r.x)
 
 
+def _square_free_counter(q: Poly):
+    """The square-free part of q (as `_square_free_sturm`'s, up to its sign, which no step of the search
+    depends on) and a function giving its number of distinct roots in an open interval (lo, hi): the same
+    numbers as Sturm's theorem, by Descartes' rule of signs instead (python-flint's exact polynomials), which
+    needs no Sturm sequence. The sign changes in the coefficients of (1 + t)^n q(lo + (hi - lo) t / (1 + t))
+    bound the roots in (lo, hi) and are their number when 0 or 1; above, the halves are counted (a root at the
+    middle counts one), which for a square-free q ends."""
+    import flint
+    f = to_flint_poly(q)
+    g = f.gcd(f.derivative())
+    if g.degree() > 0:
+        q = _monic(q.divmod(from_flint_poly(g))[0])
+        f = to_flint_poly(q)
+    one, known = flint.fmpq_poly([1, 1]), {}
+
+    def count(lo, hi) -> int:
+        if (lo, hi) not in known:
+            a, b = to_flint(lo), to_flint(hi)
+            g = f(flint.fmpq_poly([a, b - a]))
+            signs = [c > 0 for c in flint.fmpq_poly(list(reversed(g.coeffs())))(one).coeffs() if c != 0]
+            n = sum(1 for u, v in zip(signs, signs[1:]) if u != v)
+            if n > 1:
+                mid = (lo + hi) / 2
+                n = count(lo, mid) + (1 if q(mid) == 0 else 0) + count(mid, hi)
+            known[(lo, hi)] = n
+        return known[(lo, hi)]
+    return q, count
+
+
 def _may_vanish(c: Poly, width: Fraction) -> bool:
     """False when the polynomial (in h, the Taylor form at the segment start) surely has no root for
     0 <= h <= width: |c0| exceeds the bound of the rest."""
-    rest, power = Fraction(0), Fraction(1)
+    rest, power = Q(0), Q(1)
     for ck in c.coeffs[1:]:
         power *= width
         rest += abs(ck) * power
@@ -200,8 +237,8 @@ def _float_bracket(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> tuple[F
         x = newton if a < newton < b else (a + b) / 2
     scale = max(abs(float(at) + x), abs(x), 1e-300)  # widths relative to x, not to h
     for bits in (REFINE_BITS + 1, 53, 48, 40, 30):  # floats lose digits to cancellation: widen until verified
-        width = Fraction(scale) * Fraction(1, 2**bits)
-        lo2, hi2 = max(lo, Fraction(x) - width), min(hi, Fraction(x) + width)
+        width = Q(scale) * Q(1, 2**bits)
+        lo2, hi2 = max(lo, Q(x) - width), min(hi, Q(x) + width)
         f_lo, f_hi = q(lo2), q(hi2)
         if f_lo != 0 and f_hi != 0 and (f_lo > 0) != (f_hi > 0):
             return lo2, hi2
@@ -219,7 +256,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
     """Bisect a simple root of q (in h = x - at) to full double precision in x; recognise small-denominator
     rational roots."""
     s_lo = q(lo) > 0
-    tol = max(abs(at + lo), abs(at + hi), Fraction(1, 10**6)) / 2**REFINE_BITS
+    tol = max(abs(at + lo), abs(at + hi), FLOOR) / 2**REFINE_BITS
     guessed = False
     while hi - lo > tol:
         mid = (lo + hi) / 2
@@ -230,7 +267,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
             lo = mid
         else:
             hi = mid
-        if not guessed and hi - lo < Fraction(1, 10**9):
+        if not guessed and hi - lo < GUESS:
             guessed = True
             guess = _rational_guess(q, lo, hi, at)
             if guess is not None:
@@ -241,7 +278,7 @@ def _bisect(q: Poly, lo: Fraction, hi: Fraction, at: Fraction, p: Poly) -> Root:
 
 def _rational_guess(q: Poly, lo: Fraction, hi: Fraction, at: Fraction) -> Fraction | None:
     """A rational x with a small denominator inside (at + lo, at + hi) that is exactly a root, if any."""
-    if hi - lo > Fraction(1, 10**9):
+    if hi - lo > GUESS:
         return None
     c = fraction(at + (lo + hi) / 2).limit_denominator(10**12)
     return c if lo <= c - at <= hi and q(c - at) == 0 else None
