@@ -64,7 +64,7 @@ def _contents(records: list[dict], counts: list[int]) -> str:
     summary = (f"{n} member{'s' * (n != 1)}; {sum(_status(r) == 'PASS' for r in records)} pass every check, "
                f"{sum(_status(r) == 'FAIL' for r in records)} fail a check.")
     return (f"#heading(level: 1)[Calc set: contents]\n\n{text(summary)} {text(_CAUTION)}\n\n"
-            f"#bl-table({len(COLUMNS)}, ({header},), (\n  " + ",\n  ".join(rows) + ",\n))\n")
+            f"#bl-table({len(COLUMNS)}, breaks: true, ({header},), (\n  " + ",\n  ".join(rows) + ",\n))\n")
 
 
 def _after(counts: list[int]) -> list[int]:

@@ -17,6 +17,17 @@ from pathlib import Path
 NUMBER = "/BlSetNumber"  # the frame page's form XObject, in each member sheet's resources
 
 
+def _form(page):
+    """A frame page as a form XObject: its one content stream, as compressed, given the page's box and resources."""
+    import pikepdf
+    form = page.Contents
+    if not isinstance(form, pikepdf.Stream):
+        return pikepdf.Page(page).as_form_xobject()
+    form.Type, form.Subtype = pikepdf.Name.XObject, pikepdf.Name.Form
+    form.BBox, form.Resources = page.MediaBox, page.Resources
+    return form
+
+
 def _version(text: str) -> tuple[int, ...]:
     return tuple(int(part) for part in text.split("."))
 
@@ -39,7 +50,7 @@ def laid_over(frame: Callable[[], bytes], members: list[Path]) -> bytes:
         push, draw = out.make_stream(b"q\n"), out.make_stream(f"\nQ {NUMBER} Do\n".encode("ascii"))
         # the frame pages as form XObjects, copied in one call (one copy of the fonts they share)
         forms = out.copy_foreign(numbers.make_indirect(pikepdf.Array(
-            [page.as_form_xobject() for page in numbers.pages[contents:]])))
+            [_form(page.obj) for page in numbers.pages[contents:]])))
         for sheet, form in zip(out.pages, forms):
             page = sheet.obj
             own = page.Contents
