@@ -50,3 +50,14 @@ def test_several_stale_members_are_built_in_workers_even_with_one_job(tmp_path, 
     assert cli.main(["build", str(src / "lintel-propped.beam"), "-o", str(tmp_path / "out"), "--force"]) == 0
     assert calls == [2]  # a single member is built in this process
     assert "built " in capsys.readouterr().err
+
+
+def test_an_input_error_in_a_worker_reaches_the_building_process_whole():
+    import pickle
+
+    from beamlang.errors import BeamError, Diagnostic
+    from beamlang.source import Source, Span
+    source = Source("m.beam", "span 4 q\n")
+    error = BeamError([Diagnostic(Span("m.beam", 1, 8, 9), "unknown unit 'q'", "write m or ft")], source)
+    again = pickle.loads(pickle.dumps(error))
+    assert isinstance(again, BeamError) and again.render() == error.render() and "^" in again.render()
