@@ -176,7 +176,8 @@ def _run_build(args: argparse.Namespace) -> int:
     calls = [(item, key, out, settings) for item, key in zip(items, known)]
     # several stale members are built in worker processes, even with --jobs 1, so that each worker can be replaced
     # after MEMBERS_PER_WORKER of them (the typesetter's caches are never emptied); a single one is built here
-    built = _in_workers(_build_one, calls, jobs) if len(items) > 1 else (_build_one(*call) for call in calls)
+    from beamlang.tools.workers import in_workers
+    built = in_workers(_build_one, calls, jobs) if len(items) > 1 else (_build_one(*call) for call in calls)
     outcomes = _progress(in_order(built), len(loaded))
     if any(Path(p).is_dir() for p in args.paths) and outcomes and not errors:
         from beamlang.report.package import folder_name
@@ -186,27 +187,6 @@ def _run_build(args: argparse.Namespace) -> int:
     if errors or not found:
         return EXIT_INPUT
     return EXIT_OK if all(p == t for _, p, t, _b in outcomes) else EXIT_FAIL
-
-
-MEMBERS_PER_WORKER = 10  # members a build worker builds, on average, before fresh processes take over (DEVELOPERS.md)
-
-
-def _in_workers(function, calls: list[tuple], jobs: int):
-    """function(*call) for each call, in order, in `jobs` worker processes that are replaced after each batch of
-    jobs x MEMBERS_PER_WORKER calls (each batch has a pool of its own): a worker runs MEMBERS_PER_WORKER calls on
-    average and never more than its batch. (ProcessPoolExecutor's own max_tasks_per_child hangs with a backlog of
-    calls before Python 3.13, gh-115634.)"""
-    import multiprocessing
-    from concurrent.futures import ProcessPoolExecutor
-    # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
-    # inherits their locks held, which hung builds with --jobs
-    methods = multiprocessing.get_all_start_methods()
-    context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
-    size = jobs * MEMBERS_PER_WORKER
-    for start in range(0, len(calls), size):
-        batch = calls[start:start + size]
-        with ProcessPoolExecutor(max_workers=min(jobs, len(batch)), mp_context=context) as pool:
-            yield from pool.map(function, *zip(*batch))
 
 
 def _progress(outcomes, n: int) -> list[tuple[str, int, int, bool]]:

@@ -1,6 +1,6 @@
 """The build's worker processes: stale members are built in workers that are replaced after each batch of
-jobs x cli.MEMBERS_PER_WORKER members (the typesetter's caches grow with every compile and are never emptied), with
-the results in the members' order, for --jobs 1 as for --jobs 2."""
+jobs x workers.MEMBERS_PER_WORKER members (the typesetter's caches grow with every compile and are never
+emptied), with the results in the members' order, for --jobs 1 as for --jobs 2."""
 
 from __future__ import annotations
 
@@ -9,6 +9,7 @@ import os
 import pytest
 
 from beamlang import cli
+from beamlang.tools import workers
 
 
 def _pid_of(k: int) -> tuple[int, int]:
@@ -18,9 +19,9 @@ def _pid_of(k: int) -> tuple[int, int]:
 
 @pytest.mark.parametrize("jobs", [1, 2])
 def test_a_worker_is_replaced_after_the_stated_number_of_members(jobs, monkeypatch):
-    monkeypatch.setattr(cli, "MEMBERS_PER_WORKER", 3)
+    monkeypatch.setattr(workers, "MEMBERS_PER_WORKER", 3)
     n = 2 * jobs * 3 + 1  # two full batches and one call more
-    done = list(cli._in_workers(_pid_of, [(k,) for k in range(n)], jobs))
+    done = list(workers.in_workers(_pid_of, [(k,) for k in range(n)], jobs))
     assert [k for k, _pid in done] == list(range(n))  # in order
     pids = [pid for _k, pid in done]
     assert os.getpid() not in pids
@@ -42,8 +43,8 @@ def test_several_stale_members_are_built_in_workers_even_with_one_job(tmp_path, 
         (src / f"{name}.beam").write_text((root / "examples" / f"{name}.beam").read_text(encoding="utf-8"),
                                           encoding="utf-8")
     calls = []
-    real = cli._in_workers
-    monkeypatch.setattr(cli, "_in_workers", lambda function, batch, jobs: calls.append(len(batch)) or
+    real = workers.in_workers
+    monkeypatch.setattr(workers, "in_workers", lambda function, batch, jobs: calls.append(len(batch)) or
                         real(function, batch, jobs))
     assert cli.main(["build", str(src), "-o", str(tmp_path / "out")]) == 0
     assert calls == [2]
