@@ -1,10 +1,13 @@
 """The user's cache folder for what beamlang can keep between runs (the unit registry, derived formulas): the
 platform's user cache folder, or BEAMLANG_CACHE (a folder, or `off` for none). Everything kept there is
-rebuilt when missing or damaged; nothing in it is needed."""
+rebuilt when missing or damaged; nothing in it is needed. Each kind of thing kept has a folder per version of
+what it depends on (`formulas-<digest>`, `units-<versions>-<digest>`); when a new one is made, the folders of that
+kind beyond the few most recently used are removed (`make_folder`), so upgrades and edits do not pile up."""
 
 from __future__ import annotations
 
 import os
+import shutil
 import sys
 from pathlib import Path
 
@@ -32,3 +35,28 @@ def write_whole(path: Path, data: bytes) -> None:
         os.replace(tmp, path)
     finally:
         tmp.unlink(missing_ok=True)
+
+
+KEPT_VERSIONS = 4  # folders of one kind left in the cache: the newest, and a few that other installations may use
+
+
+def make_folder(folder: Path) -> None:
+    """Make `folder` (a cache folder named `<kind>-<version>`) if it is missing, then `retire_others`."""
+    if folder.is_dir():
+        return
+    folder.mkdir(parents=True, exist_ok=True)
+    retire_others(folder)
+
+
+def retire_others(folder: Path) -> None:
+    """Remove the folders of `folder`'s kind beside it but the `KEPT_VERSIONS` most recently changed (`folder`, just
+    made, among them); hidden folders (another process's, being filled) are left. Best effort: a folder that
+    cannot go stays, and one that goes is made again by whatever installation needs it."""
+    kind = folder.name.split("-", 1)[0] + "-"
+    try:
+        others = [p for p in folder.parent.iterdir() if p.is_dir() and p.name.startswith(kind) and p != folder]
+        others.sort(key=lambda p: (p.stat().st_mtime, p.name), reverse=True)
+    except OSError:
+        return
+    for old in others[KEPT_VERSIONS - 1:]:
+        shutil.rmtree(old, ignore_errors=True)

@@ -173,19 +173,12 @@ def _run_build(args: argparse.Namespace) -> int:
         for done in fresh:
             yield done if done is not None else next(built)
 
-    if jobs > 1 and len(items) > 1:
-        import multiprocessing
-        from concurrent.futures import ProcessPoolExecutor
-        # forkserver, not fork: this process already runs threads (BLAS, the PDF typesetter), and a forked child
-        # inherits their locks held, which hung builds with --jobs
-        methods = multiprocessing.get_all_start_methods()
-        context = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
-        with ProcessPoolExecutor(max_workers=jobs, mp_context=context) as pool:
-            outcomes = _progress(in_order(pool.map(_build_one, items, known, [out] * len(items),
-                                                   [settings] * len(items))), len(loaded))
-    else:
-        outcomes = _progress(in_order(map(_build_one, items, known, [out] * len(items), [settings] * len(items))),
-                             len(loaded))
+    calls = [(item, key, out, settings) for item, key in zip(items, known)]
+    # several stale members are built in worker processes, even with --jobs 1, so that each worker can be replaced
+    # after MEMBERS_PER_WORKER of them (the typesetter's caches are never emptied); a single one is built here
+    from beamlang.tools.workers import in_workers
+    built = in_workers(_build_one, calls, jobs) if len(items) > 1 else (_build_one(*call) for call in calls)
+    outcomes = _progress(in_order(built), len(loaded))
     if any(Path(p).is_dir() for p in args.paths) and outcomes and not errors:
         from beamlang.report.package import folder_name
         from beamlang.report.pdf.calcset import write_set

@@ -61,6 +61,9 @@ class BeamError(Exception):
     def render(self) -> str:
         return "\n".join(d.render(self.sources.get(d.span.file)) for d in self.diagnostics)
 
+    def __reduce__(self):  # whole through pickle, as a build worker hands it to the building process
+        return BeamError, (self.diagnostics, list(self.sources.values()))
+
 
 class Collector:
     """Gathers diagnostics so that all problems of a file are reported together."""

@@ -12,7 +12,7 @@ from hypothesis import HealthCheck, given, settings
 from beamlang.language.frontend import load
 from beamlang.pipeline import analyse, analyse_loaded
 from beamlang.report import figures
-from beamlang.report.svgplot import text_width
+from beamlang.report.svgtext import text_width
 from casefiles import CASES, EXAMPLES
 from engine_helpers import analyse_text
 from strategies import members

@@ -165,7 +165,7 @@ def test_deflection_limit_is_drawn_at_its_allowed_value():
     ticks = [(float(t.get("y")) - 0.36 * 7, float(t.text.replace("\u2212", "-"))) for t in root.iter(f"{SVG}text")
              if t.get("text-anchor") == "end" and top <= float(t.get("y")) <= top + h + 3]
     (ya, va), (yb, vb) = ticks[0], ticks[-1]
-    dashed = [e for e in root.iter(f"{SVG}polyline") if e.get("stroke") == figures.MARK and e.get("stroke-dasharray")]
+    dashed = [e for e in root.iter(f"{SVG}polyline") if e.get("stroke") == drawing.MARK and e.get("stroke-dasharray")]
     assert len(dashed) == 1
     y = float(dashed[0].get("points").split()[0].split(",")[1])
     assert va + (y - ya) * (vb - va) / (yb - ya) == pytest.approx(-6000 / 360, abs=0.05)
@@ -189,5 +189,5 @@ def test_a_long_title_is_wrapped_inside_the_figure():
     root = ET.fromstring(fig.svg())
     texts = [t for t in root.iter(f"{SVG}text") if t.text and t.text.startswith(("word", "panel"))]
     assert len(texts) > 4  # several lines each
-    from beamlang.report.svgplot import text_width
+    from beamlang.report.svgtext import text_width
     assert all(float(t.get("x")) + text_width(t.text, float(t.get("font-size"))) <= 300.0 for t in texts)

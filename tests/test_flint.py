@@ -1,5 +1,6 @@
 """python-flint against the own exact code it replaces: the same Sturm sequences, the same roots and
-extrema, the same resultants, on many random polynomials (the own code is the reference)."""
+extrema, the same resultants, on many random polynomials (the own code is the reference); Descartes' count
+before the Sturm sequence changes no root."""
 
 from __future__ import annotations
 
@@ -59,6 +60,34 @@ def test_roots_are_identical_with_either_sturm_sequence(p, a, width):
     assert shape(found) == shape(own(lambda: roots.roots_in(p, a, b)))
     for r in found:  # and they are roots: a sign change or an exact zero
         assert (r.exact is not None and p(r.exact) == 0) or (p(r.lo) > 0) != (p(r.hi) > 0)
+
+
+def sturm_only(fn):
+    """Run fn with Descartes' count left out: every interval counted by the Sturm sequence."""
+    with pytest.MonkeyPatch.context() as patch:
+        patch.setattr(roots, "COUNT_FROM", 10**9)
+        return fn()
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials(), small, st.integers(1, 200))
+def test_descartes_counts_leave_the_roots_unchanged(p, a, width):
+    b = a + Q(width, 7)
+    assert shape(roots.roots_in(p, a, b)) == shape(own(lambda: sturm_only(lambda: roots.roots_in(p, a, b))))
+
+
+@settings(max_examples=300, deadline=None)
+@given(polynomials(), small, st.integers(1, 200))
+def test_descartes_counts_are_the_sturm_counts(p, lo, width):
+    hi = lo + Q(width, 7)
+    if p.degree < 2:
+        return
+    q, count = roots._square_free_counter(roots._monic(p))  # as the search calls it
+    own_q = roots.square_free(p)
+    assert q.coeffs in (own_q.coeffs, (-own_q).coeffs)
+    seq = [to_flint_poly(c) for c in roots._own_sturm(own_q)]
+    for a, b in ((lo, hi), (lo, (lo + hi) / 2), ((lo + hi) / 2, hi)):
+        assert count(a, b) == roots._changes(seq, a) - roots._changes(seq, b) - (1 if q(b) == 0 else 0)
 
 
 @settings(max_examples=150, deadline=None)

@@ -75,3 +75,27 @@ def test_no_cache_when_it_is_off(monkeypatch, tmp_path):
     symbolic.load_formula(m, m.cases[0].loads[0])
     assert symbolic._store_path(("any",)) is None
     symbolic._DERIVED.clear()
+
+
+def test_a_new_version_folder_retires_all_but_the_most_recent_others(fresh):
+    """Folders of earlier versions (a newer beamlang, an edited engine) do not pile up: when this version's folder
+    is made, folders of the same kind but the newest few go; another kind's folders and hidden ones stay."""
+    import os
+
+    from beamlang.cache import KEPT_VERSIONS
+    fresh.mkdir(parents=True)
+    old = [fresh / f"formulas-old{k}" for k in range(6)]
+    for k, folder in enumerate(old):
+        folder.mkdir()
+        (folder / "x.pickle").write_bytes(b"")
+        os.utime(folder, (1_000_000 + k, 1_000_000 + k))  # old0 the least recently changed
+    keep = [fresh / "units-1-pint-2-abc", fresh / ".formulas-new.123"]
+    for folder in keep:
+        folder.mkdir()
+    m = _member()
+    symbolic.load_formula(m, m.cases[0].loads[0])
+    mine = [p for p in fresh.iterdir() if p.name.startswith("formulas-") and p not in old]
+    assert len(mine) == 1 and any(mine[0].iterdir())
+    left = sorted(p.name for p in fresh.iterdir() if p.name.startswith("formulas-old"))
+    assert left == [f"formulas-old{k}" for k in range(6 - (KEPT_VERSIONS - 1), 6)]
+    assert all(p.is_dir() for p in keep)

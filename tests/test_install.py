@@ -22,7 +22,7 @@ def test_wheel_contains_grammar_and_installed_copy_finds_it(tmp_path):
     target = tmp_path / "site"
     subprocess.run([sys.executable, "-m", "pip", "install", "--no-deps", "-q", "--target", str(target), str(wheel)],
                    check=True, cwd=tmp_path)
-    probe = ("import beamlang.language.parse as p; print(p.grammar_path()); "
+    probe = ("import beamlang.language.parse as p, beamlang.language.grammar as g; print(g.grammar_path()); "
              "from beamlang.source import Source; p.parse(Source('x', 'span 1 m\\n')); print('ok'); "
              "from beamlang.report.package import code_hash; print(code_hash())")
     out = subprocess.run([sys.executable, "-c", probe], cwd=tmp_path, capture_output=True, text=True,

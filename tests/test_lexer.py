@@ -15,7 +15,7 @@ from pygments.token import Comment, Error, Keyword, Name, Number, Operator, Stri
 
 from beamlang.language import vocabulary as v
 from beamlang.language.lexer import BeamLexer
-from beamlang.language.parse import grammar_path
+from beamlang.language.grammar import grammar_path
 from beamlang.report.highlight import CLASSES
 from casefiles import EXAMPLES
 from engine_helpers import analyse_text

@@ -10,7 +10,7 @@ from unittest import mock
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from beamlang.engine.moving import bounds, search
+from beamlang.engine.moving import bounds, search, standing
 from engine_helpers import analyse_text, member_text
 
 FIELDS = ("reactions", "max_down", "max_up", "slope_max", "slope_at_supports", "moment_positive", "moment_negative",
@@ -22,13 +22,28 @@ LAYOUTS = (["pin at 0 m", "roller at span"], ["pin at 0 m", "roller at 3 m", "ro
            ["fixed at 0 m", "roller at span"])
 
 
+class _Every:
+    """Every fixed point's line searched against its own extremes too, every support with a moment."""
+
+    def get(self, key, default=None):
+        return key, key[0]
+
+    def __contains__(self, item) -> bool:
+        return True
+
+
 @contextmanager
 def unpruned():
-    """Every float bound says 'could beat': each cell, line, segment and interior is searched exactly."""
+    """Every float bound says 'could beat': each cell, line, segment and interior is searched exactly; and every
+    line through a fixed point is built, with both ends (constant lines and the ends the group standing gives
+    too are not left out)."""
     everything = mock.patch.object(bounds._Best, "wanted", lambda self, *a, **k: True)
     interiors = mock.patch.object(search, "interior_bounds", lambda items, *a: [(INF, -INF, INF, -INF)] * len(items))
     lines = mock.patch.object(search, "critical_bounds", lambda g, pa, pb: (INF, -INF))
-    with everything, interiors, lines:
+    pieces = mock.patch.object(standing, "critical_bounds", lambda g, pa, pb: (INF, -INF))
+    ends = mock.patch.object(search, "_fresh_ends", lambda load, offsets, on, pa, pb: (pa, pb))
+    fixed = mock.patch.object(search, "_fixed_keys", lambda member: (_Every(), set(), _Every()))
+    with everything, interiors, lines, pieces, ends, fixed:
         yield
 
 

@@ -7,7 +7,8 @@ import pytest
 
 from beamlang.language import syntax as s
 from beamlang.language.frontend import load
-from beamlang.language.parse import grammar_path, parse
+from beamlang.language.grammar import grammar_path
+from beamlang.language.parse import parse
 from beamlang.source import Source
 from casefiles import EXAMPLES
 

@@ -191,6 +191,30 @@ def test_a_members_set_sheets_are_its_own_sheets_with_the_set_number_added(built
 
 
 @poppler
+def test_the_set_is_well_formed_vector_and_the_same_bytes_when_written_again(built, tmp_path):
+    import json
+
+    import pikepdf
+
+    from beamlang.report.pdf.calcset import write_set
+    whole = built / "calc-set.pdf"
+    with pikepdf.open(whole) as pdf:
+        assert pdf.check_pdf_syntax() == []  # qpdf's check: syntax, cross-references, every stream decodes
+        assert pdf.pdf_version == "1.7"
+    if shutil.which("qpdf"):
+        subprocess.run(["qpdf", "--check", str(whole)], check=True, capture_output=True)
+    images = subprocess.run(["pdfimages", "-list", str(whole)], check=True, capture_output=True, text=True).stdout
+    assert len(images.splitlines()) == 2  # the header only: no sheet is a picture, text and figures stay vector
+    record = json.loads((built / "index.json").read_text(encoding="utf-8"))
+    again = tmp_path / "again"
+    shutil.copytree(built, again)
+    (again / "index.json").unlink()
+    assert write_set(again, [m["folder"] for m in record["members"]], record["paper"])
+    assert (again / "calc-set.pdf").read_bytes() == whole.read_bytes()
+    assert (again / "index.json").read_bytes() == (built / "index.json").read_bytes()
+
+
+@poppler
 def test_the_set_number_lands_in_the_calc_set_cell_when_the_title_block_rows_wrap(tmp_path):
     text = (ROOT / "examples" / "lintel-propped.beam").read_text(encoding="utf-8")
     long = " ".join(["a long name that wraps"] * 6)

@@ -157,7 +157,7 @@ def _moving_target(sol: Solution, t: Target) -> TargetResult:
     from beamlang.analysis.governing import reaches, ties
     from beamlang.engine.moving import envelope
     m = sol.member
-    env = envelope(sol, t, factored_loads(sol, t))
+    env = envelope(sol, t)
     picked: list[tuple[str, object]] = []
     places: list[tuple[str, tuple]] = []
 

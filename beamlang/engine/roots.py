@@ -13,6 +13,7 @@ REFINE_BITS = 56  # isolating intervals are refined to a width below |x| * 2**-5
 ONE, ZERO = Q(1), Q(0)
 FLOOR = Q(1, 10**6)  # |x| below this is refined as if it were this
 GUESS_WIDTH = Q(1, 10**9)  # from this width on, a small-denominator rational root is looked for
+COUNT_FROM = 4  # from this degree roots are counted by Descartes' rule (below, the Sturm sequence is as quick)
 
 
 @dataclass(frozen=True, slots=True)
@@ -141,7 +142,12 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
         found = _quadratic(c * (1 / c.coeffs[-1]), width, a, p)  # leading coefficient +1 (not _monic's |.|)
         if found is not None:
             return found
-    q, seq = _square_free_sturm(_monic(c))
+    q = _monic(c)
+    if q.degree >= COUNT_FROM:
+        q, count = _square_free_counter(q)
+    else:
+        q, seq = _square_free_sturm(q)
+        count = lambda lo, hi: _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)  # noqa: E731
     if q.degree == 1:
         h = -q.coeffs[0] / q.coeffs[1]
         return [Root(a + h, a + h, a + h, p)] if 0 < h < width else []
@@ -150,7 +156,7 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
     stack = [(ZERO, width)]
     while stack:
         lo, hi = stack.pop()
-        n = _changes(seq, lo) - _changes(seq, hi) - (1 if q(hi) == 0 else 0)
+        n = count(lo, hi)  # the distinct roots in (lo, hi)
         if n == 0:
             continue
         if n == 1 and q(lo) != 0:
@@ -163,6 +169,35 @@ def roots_in(p: Poly, a: Fraction, b: Fraction) -> list[Root]:
             found.append(Root(a + mid, a + mid, a + mid, p))
         stack += [(lo, mid), (mid, hi)]
     return sorted(found, key=lambda r: r.x)
+
+
+def _square_free_counter(q: Poly):
+    """The square-free part of q (as `_square_free_sturm`'s, up to its sign, which no step of the search
+    depends on) and a function giving its number of distinct roots in an open interval (lo, hi): the same
+    numbers as Sturm's theorem, by Descartes' rule of signs instead (python-flint's exact polynomials), which
+    needs no Sturm sequence. The sign changes in the coefficients of (1 + t)^n q(lo + (hi - lo) t / (1 + t))
+    bound the roots in (lo, hi) and are their number when 0 or 1; above, the halves are counted (a root at the
+    middle counts one), which for a square-free q ends."""
+    import flint
+    f = to_flint_poly(q)
+    g = f.gcd(f.derivative())
+    if g.degree() > 0:
+        q = _monic(q.divmod(from_flint_poly(g))[0])
+        f = to_flint_poly(q)
+    one, known = flint.fmpq_poly([1, 1]), {}
+
+    def count(lo, hi) -> int:
+        if (lo, hi) not in known:
+            a, b = to_flint(lo), to_flint(hi)
+            g = f(flint.fmpq_poly([a, b - a]))
+            signs = [c > 0 for c in flint.fmpq_poly(list(reversed(g.coeffs())))(one).coeffs() if c != 0]
+            n = sum(1 for u, v in zip(signs, signs[1:]) if u != v)
+            if n > 1:
+                mid = (lo + hi) / 2
+                n = count(lo, mid) + (1 if q(mid) == 0 else 0) + count(mid, hi)
+            known[(lo, hi)] = n
+        return known[(lo, hi)]
+    return q, count
 
 
 def _may_vanish(c: Poly, width: Fraction) -> bool:

@@ -236,11 +236,12 @@ def _stored(key: tuple) -> list["_Derived"]:
 def _store(key: tuple, derived: list["_Derived"]) -> None:
     import pickle
 
-    from beamlang.cache import write_whole
+    from beamlang.cache import make_folder, write_whole
     path = _store_path(key)
     if path is None:
         return
     try:
+        make_folder(path.parent)
         write_whole(path, pickle.dumps(derived[-8:], protocol=pickle.HIGHEST_PROTOCOL))
     except OSError:  # a read-only or full cache: the formula was derived all the same
         pass

@@ -109,6 +109,8 @@ def _from_cache(folder):
     import tempfile
 
     import pint
+
+    from beamlang.cache import retire_others
     if folder.is_dir():
         return pint.UnitRegistry(non_int_type=Fraction, cache_folder=folder)
     folder.parent.mkdir(parents=True, exist_ok=True)
@@ -117,6 +119,7 @@ def _from_cache(folder):
         ureg = _checked(pint.UnitRegistry(non_int_type=Fraction, cache_folder=staging))
         try:
             os.rename(staging, folder)
+            retire_others(folder)
         except OSError:  # another process was first: its folder is as good
             pass
     finally:

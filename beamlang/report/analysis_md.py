@@ -213,7 +213,7 @@ def _points(a: Analysis, r) -> list[str]:
 
 
 def envelope(a: Analysis, figure: str) -> list[str]:
-    from beamlang.report.figures import envelope_targets
+    from beamlang.report.envelope_figure import envelope_targets
     u = a.units
     names = envelope_targets(a)
     rows = []

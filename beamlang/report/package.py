@@ -34,7 +34,7 @@ def build_key(source_text: str, options: str) -> str:
 def code_hash() -> str:
     """A hash of beamlang's own files (code, grammar, template, assets): an edited checkout is another tool."""
     root = Path(__file__).resolve().parents[1]
-    from beamlang.language.parse import grammar_path
+    from beamlang.language.grammar import grammar_path
     files = {p for p in root.rglob("*") if p.is_file() and p.suffix in (".py", ".typ", ".lark", ".woff")}
     # each file by its name and content, in an order that does not depend on where the files lie: a checkout
     # keeps the grammar beside the package, an installed wheel inside it, and both are the same tool

@@ -7,30 +7,27 @@ a common sans-serif; its width is estimated (GLYPH) only to leave room for label
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 from xml.sax.saxutils import escape
 
+from beamlang.report.svgtext import (
+    arrow,
+    clear,
+    dash_attrs,
+    label_box,
+    num,
+    point_list,
+    segment,
+    text_element,
+    text_width,
+)
 from beamlang.report.ticks import limits, nice_ticks, tick_labels
 
 FONT = "DejaVu Sans, Verdana, Arial, Helvetica, sans-serif"
-GLYPH = 0.6  # estimated average advance of a character, as a fraction of the font size (layout only)
 TICK = 3.5  # tick length, pt
 TICK_FONT = 7.0
 GRID = "#b0b0b0"
-DASHES = {"dotted": "1 1.6", "dashed": "3.7 1.6"}
 _SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
-
-
-def text_width(s: str, size: float) -> float:
-    """Estimated width of a (possibly multi-line) label."""
-    return GLYPH * size * max(len(line) for line in s.split("\n"))
-
-
-def _n(v: float) -> str:
-    """One coordinate: two decimals, no trailing zeros, no negative zero."""
-    s = f"{v:.2f}".rstrip("0").rstrip(".")
-    return "0" if s in ("-0", "") else s
 
 
 class Panel:
@@ -172,7 +169,7 @@ class Figure:
         if self.title:
             for line in _wrap(self.title, self.title_size, self.width - 12.0):
                 y += self.title_size + 2.0
-                body.append(_text(6.0, y, line, self.title_size, "black", "start"))
+                body.append(text_element(6.0, y, line, self.title_size, "black", "start"))
             y += 4.0
         last = self.panels[-1] if self.panels else None
         for k, p in enumerate(self.panels):
@@ -190,12 +187,12 @@ class Figure:
                     xlabel = (xlabel or "x") + _power(xexp)
             if xlabel:
                 y += 8.0 + 2.0
-                body.append(_text(left + plot_w / 2, y, xlabel, 8.0, "black", "middle"))
+                body.append(text_element(left + plot_w / 2, y, xlabel, 8.0, "black", "middle"))
             y += 8.0
         height = y
         head = (f'<?xml version="1.0" encoding="utf-8"?>\n'
-                f'<svg xmlns="http://www.w3.org/2000/svg" width="{_n(self.width)}pt" height="{_n(height)}pt" '
-                f'viewBox="0 0 {_n(self.width)} {_n(height)}" font-family="{FONT}">\n'
+                f'<svg xmlns="http://www.w3.org/2000/svg" width="{num(self.width)}pt" height="{num(height)}pt" '
+                f'viewBox="0 0 {num(self.width)} {num(height)}" font-family="{FONT}">\n'
                 f'<rect width="100%" height="100%" fill="white"/>\n')
         return head + "".join(body) + "</svg>\n"
 
@@ -206,7 +203,7 @@ def _header(body: list[str], p: Panel, left: float, plot_w: float, y: float) -> 
         text, size = p.title
         for line in _wrap(text, size, plot_w):
             y += size + 2.0
-            body.append(_text(left, y, line, size, "black", "start"))
+            body.append(text_element(left, y, line, size, "black", "start"))
         y += 2.0
     if p.legend:
         rows: list[list[tuple[float, tuple]]] = [[]]
@@ -223,11 +220,11 @@ def _header(body: list[str], p: Panel, left: float, plot_w: float, y: float) -> 
             for dx, (label, color, kind) in row:
                 sx = left + dx
                 if kind == "band":
-                    body.append(f'<rect x="{_n(sx)}" y="{_n(y - 6)}" width="14" height="6" fill="{color}" '
+                    body.append(f'<rect x="{num(sx)}" y="{num(y - 6)}" width="14" height="6" fill="{color}" '
                                 f'fill-opacity="0.15" stroke="none"/>\n')
                 else:
-                    body.append(_seg(sx, y - 3, sx + 14, y - 3, color, 1.2))
-                body.append(_text(sx + 18, y, label, 7.0, "black", "start"))
+                    body.append(segment(sx, y - 3, sx + 14, y - 3, color, 1.2))
+                body.append(text_element(sx + 18, y, label, 7.0, "black", "start"))
         y += 2.0
     return y + 4.0 if (p.title or p.legend) else y + 2.0
 
@@ -260,10 +257,10 @@ def _panel(body: list[str], p: Panel, box, xr, yt, ylabels, yexp, xt, xlabels, k
         text, inside = _item(item, f, placed)
         (clipped if inside else free).append(text)
     if p.axis:
-        body += [_seg(f.px(t), f.top, f.px(t), f.top + f.h, GRID, 0.8, ' stroke-opacity="0.3"') for t in xt]
-        body += [_seg(f.left, f.py(t), f.left + f.w, f.py(t), GRID, 0.8, ' stroke-opacity="0.3"') for t in yt]
-        body.append(f'<clipPath id="c{k}"><rect x="{_n(f.left)}" y="{_n(f.top)}" width="{_n(f.w)}" '
-                    f'height="{_n(f.h)}"/></clipPath>\n<g clip-path="url(#c{k})">\n')
+        body += [segment(f.px(t), f.top, f.px(t), f.top + f.h, GRID, 0.8, ' stroke-opacity="0.3"') for t in xt]
+        body += [segment(f.left, f.py(t), f.left + f.w, f.py(t), GRID, 0.8, ' stroke-opacity="0.3"') for t in yt]
+        body.append(f'<clipPath id="c{k}"><rect x="{num(f.left)}" y="{num(f.top)}" width="{num(f.w)}" '
+                    f'height="{num(f.h)}"/></clipPath>\n<g clip-path="url(#c{k})">\n')
         body += clipped + ["</g>\n"]
         body += _axes(f, p, xt, yt, ylabels, yexp, xlabels)
     else:
@@ -276,91 +273,58 @@ def _item(item: tuple, f: _Frame, placed: list) -> tuple[str, bool]:
     kind, px, py = item[0], f.px, f.py
     if kind == "line":
         _, xs, ys, color, width, dash, opacity = item
-        return (f'<polyline points="{_points(xs, ys, px, py)}" fill="none" stroke="{color}" '
-                f'stroke-width="{_n(width)}"{_dash(dash, opacity)} stroke-linejoin="round"/>\n'), True
+        return (f'<polyline points="{point_list(xs, ys, px, py)}" fill="none" stroke="{color}" '
+                f'stroke-width="{num(width)}"{dash_attrs(dash, opacity)} stroke-linejoin="round"/>\n'), True
     if kind == "polygon":
         _, xs, ys, fill, opacity, edge, width, _ = item
         attrs = f' fill-opacity="{opacity:g}"' if opacity != 1 else ""
         if edge:  # an edge of the fill's own colour fades with it
-            attrs += f' stroke="{edge}" stroke-width="{_n(width)}"'
+            attrs += f' stroke="{edge}" stroke-width="{num(width)}"'
             attrs += f' stroke-opacity="{opacity:g}"' if edge == fill and opacity != 1 else ""
         else:
             attrs += ' stroke="none"'
-        return f'<polygon points="{_points(xs, ys, px, py)}" fill="{fill}"{attrs}/>\n', True
+        return f'<polygon points="{point_list(xs, ys, px, py)}" fill="{fill}"{attrs}/>\n', True
     if kind == "hline":
         _, yv, color, width = item
-        return _seg(f.left, py(yv), f.left + f.w, py(yv), color, width), True
+        return segment(f.left, py(yv), f.left + f.w, py(yv), color, width), True
     if kind == "vline":
         _, xv, color, width, dash, opacity = item
-        return _seg(px(xv), f.top, px(xv), f.top + f.h, color, width, _dash(dash, opacity)), True
+        return segment(px(xv), f.top, px(xv), f.top + f.h, color, width, dash_attrs(dash, opacity)), True
     if kind == "ellipse":
         _, xv, yv, rx, ry, face, edge, width = item
-        return (f'<ellipse cx="{_n(px(xv))}" cy="{_n(py(yv))}" rx="{_n(rx / (f.x1 - f.x0) * f.w)}" '
-                f'ry="{_n(ry / (f.y1 - f.y0) * f.h)}" fill="{face}" stroke="{edge}" stroke-width="{_n(width)}"/>\n'), True
+        return (f'<ellipse cx="{num(px(xv))}" cy="{num(py(yv))}" rx="{num(rx / (f.x1 - f.x0) * f.w)}" '
+                f'ry="{num(ry / (f.y1 - f.y0) * f.h)}" fill="{face}" stroke="{edge}" '
+                f'stroke-width="{num(width)}"/>\n'), True
     if kind == "dot":
         _, xv, yv, size, face, edge, ew = item
-        return (f'<circle cx="{_n(px(xv))}" cy="{_n(py(yv))}" r="{_n(size / 2)}" fill="{face or "none"}" '
-                f'stroke="{edge}" stroke-width="{_n(ew)}"/>\n'), False
+        return (f'<circle cx="{num(px(xv))}" cy="{num(py(yv))}" r="{num(size / 2)}" fill="{face or "none"}" '
+                f'stroke="{edge}" stroke-width="{num(ew)}"/>\n'), False
     if kind == "arrow":
-        return _arrow(item, px, py), False
+        return arrow(item, px, py), False
     _, xv, yv, s, size, color, anchor, baseline, dx, dy = item  # text
     x, y = px(xv) + dx, py(yv) - dy
-    y += _clear(_box(x, y, s, size, anchor, baseline), placed, f, -1 if baseline == "bottom" or dy > 0 else 1)
-    return _text(x, y, s, size, color, anchor, baseline), False
-
-
-PAD = 1.0  # pt kept between two labels
-
-
-def _box(x: float, y: float, s: str, size: float, anchor: str, baseline: str) -> tuple[float, float, float, float]:
-    """(left, top, right, bottom) of a label on the page, from the estimated width and the line height."""
-    w, n = text_width(s, size), len(s.split("\n"))
-    left = x - {"start": 0.0, "middle": w / 2, "end": w}[anchor]
-    first = _first_baseline(y, size, n, baseline)
-    return left, first - 0.76 * size, left + w, first + 1.2 * size * (n - 1) + 0.24 * size
-
-
-def _clear(box: tuple[float, float, float, float], placed: list, f: _Frame, way: int) -> float:
-    """How far (pt, down positive) a label must move, first `way` (-1 up, 1 down), to overlap no label placed
-    before it in its panel; the other way if the first leaves the frame. The label's box is then placed."""
-    def moved(direction: int) -> float:
-        shift = 0.0
-        for _ in range(4 * len(placed) + 1):
-            l, t, r, b = box[0], box[1] + shift, box[2], box[3] + shift
-            hit = next((o for o in placed if l < o[2] + PAD and o[0] < r + PAD and t < o[3] + PAD and o[1] < b + PAD),
-                       None)
-            if hit is None:
-                return shift
-            shift += (hit[1] - PAD - b) if direction < 0 else (hit[3] + PAD - t)
-        return shift
-
-    shift = moved(way)
-    inside = f.top <= box[1] and box[3] <= f.top + f.h
-    if shift and inside and not (f.top <= box[1] + shift and box[3] + shift <= f.top + f.h):
-        other = moved(-way)
-        if f.top <= box[1] + other and box[3] + other <= f.top + f.h:
-            shift = other
-    placed.append((box[0], box[1] + shift, box[2], box[3] + shift))
-    return shift
+    y += clear(label_box(x, y, s, size, anchor, baseline), placed, f.top, f.top + f.h,
+               -1 if baseline == "bottom" or dy > 0 else 1)
+    return text_element(x, y, s, size, color, anchor, baseline), False
 
 
 def _axes(f: _Frame, p: Panel, xt, yt, ylabels, yexp, xlabels) -> list[str]:
     """The frame, the ticks with their labels (x labels under the last panel only) and the y label."""
-    out = [f'<rect x="{_n(f.left)}" y="{_n(f.top)}" width="{_n(f.w)}" height="{_n(f.h)}" fill="none" '
+    out = [f'<rect x="{num(f.left)}" y="{num(f.top)}" width="{num(f.w)}" height="{num(f.h)}" fill="none" '
            f'stroke="black" stroke-width="0.8"/>\n']
     for t, label in zip(yt, ylabels):
-        out.append(_seg(f.left - TICK, f.py(t), f.left, f.py(t), "black", 0.8))
-        out.append(_text(f.left - TICK - 2.0, f.py(t), label, TICK_FONT, "black", "end", "middle"))
+        out.append(segment(f.left - TICK, f.py(t), f.left, f.py(t), "black", 0.8))
+        out.append(text_element(f.left - TICK - 2.0, f.py(t), label, TICK_FONT, "black", "end", "middle"))
     bottom = f.top + f.h
     for i, t in enumerate(xt):
-        out.append(_seg(f.px(t), bottom, f.px(t), bottom + TICK, "black", 0.8))
+        out.append(segment(f.px(t), bottom, f.px(t), bottom + TICK, "black", 0.8))
         if xlabels is not None:
-            out.append(_text(f.px(t), bottom + TICK + 1.5, xlabels[i], TICK_FONT, "black", "middle", "top"))
+            out.append(text_element(f.px(t), bottom + TICK + 1.5, xlabels[i], TICK_FONT, "black", "middle", "top"))
     if p.ylabel:
         label = p.ylabel + (_power(yexp) if yexp else "")
         cx, cy = 10.0, f.top + f.h / 2
-        out.append(f'<text x="{_n(cx)}" y="{_n(cy)}" font-size="8" text-anchor="middle" '
-                   f'transform="rotate(-90 {_n(cx)} {_n(cy)})">{escape(label)}</text>\n')
+        out.append(f'<text x="{num(cx)}" y="{num(cy)}" font-size="8" text-anchor="middle" '
+                   f'transform="rotate(-90 {num(cx)} {num(cy)})">{escape(label)}</text>\n')
     return out
 
 
@@ -375,64 +339,8 @@ def _wrap(text: str, size: float, width: float) -> list[str]:
     return lines
 
 
-def _seg(x1: float, y1: float, x2: float, y2: float, color: str, width: float, extra: str = "") -> str:
-    return (f'<line x1="{_n(x1)}" y1="{_n(y1)}" x2="{_n(x2)}" y2="{_n(y2)}" stroke="{color}" '
-            f'stroke-width="{_n(width)}"{extra}/>\n')
-
-
-def _points(xs: list[float], ys: list[float], px, py) -> str:
-    return " ".join(f"{_n(px(a))},{_n(py(b))}" for a, b in zip(xs, ys))
-
-
 def _power(exp: int) -> str:
     """What an axis label adds when its tick labels are in units of 10^exp."""
     return f", \u00d710{str(exp).translate(_SUPERSCRIPT)}"
 
 
-def _dash(dash: str | None, opacity: float) -> str:
-    out = f' stroke-dasharray="{DASHES[dash]}"' if dash else ""
-    return out + (f' stroke-opacity="{opacity:g}"' if opacity != 1 else "")
-
-
-def _arrow(item: tuple, px, py) -> str:
-    """A shaft from start to 2 pt short of the tip, and an open (two strokes) or filled head at the tip."""
-    _, (sx, sy), (tx, ty), color, width, filled = item
-    ax, ay, bx, by = px(sx), py(sy), px(tx), py(ty)
-    length = math.hypot(bx - ax, by - ay) or 1.0
-    ux, uy = (bx - ax) / length, (by - ay) / length
-    bx, by = bx - 2.0 * ux, by - 2.0 * uy  # stop short of the member line, as a drawn arrow does
-    head, half = 5.0, 2.2
-    lx, ly = bx - head * ux + half * uy, by - head * uy - half * ux
-    rx, ry = bx - head * ux - half * uy, by - head * uy + half * ux
-    shaft = _seg(ax, ay, bx, by, color, width)
-    if filled:
-        return shaft + (f'<polygon points="{_n(lx)},{_n(ly)} {_n(bx)},{_n(by)} {_n(rx)},{_n(ry)}" fill="{color}" '
-                        f'stroke="none"/>\n')
-    return shaft + (f'<polyline points="{_n(lx)},{_n(ly)} {_n(bx)},{_n(by)} {_n(rx)},{_n(ry)}" fill="none" '
-                    f'stroke="{color}" stroke-width="{_n(width)}"/>\n')
-
-
-def _first_baseline(y: float, size: float, n: int, baseline: str) -> float:
-    """The baseline of a block's first line when its bottom, top, middle or first baseline is at y."""
-    step = 1.2 * size
-    if baseline == "bottom":
-        return y - 0.24 * size - step * (n - 1)
-    if baseline == "top":
-        return y + 0.76 * size
-    if baseline == "middle":
-        return y + 0.36 * size - step * (n - 1) / 2
-    return y
-
-
-def _text(x: float, y: float, s: str, size: float, color: str, anchor: str, baseline: str = "baseline") -> str:
-    """Text at a point; lines below one another; `baseline` puts the block's bottom, top or middle at y."""
-    lines = s.split("\n")
-    step = 1.2 * size
-    first = _first_baseline(y, size, len(lines), baseline)
-    fill = "" if color == "black" else f' fill="{color}"'
-    anchor_attr = "" if anchor == "start" else f' text-anchor="{anchor}"'
-    if len(lines) == 1:
-        return f'<text x="{_n(x)}" y="{_n(first)}" font-size="{_n(size)}"{anchor_attr}{fill}>{escape(s)}</text>\n'
-    spans = "".join(f'<tspan x="{_n(x)}" y="{_n(first + i * step)}">{escape(line)}</tspan>'
-                    for i, line in enumerate(lines))
-    return f'<text font-size="{_n(size)}"{anchor_attr}{fill}>{spans}</text>\n'

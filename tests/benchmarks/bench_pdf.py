@@ -1,6 +1,7 @@
 """PDF timings: the sheets of each example (typesetting only, in process, median of RUNS after one warm-up),
 then whole-process builds of a calc set of 100 generated members with --jobs 2 (packages, PDFs, index and set
-PDF), and the no-change rebuild of the same 100. Not a test; read the table.
+PDF), the no-change rebuild of the same 100, and the calc set alone of those 100 built members (`write_set` in
+process, its index.json removed first, least of RUNS). Not a test; read the table.
 
 Run: python tests/benchmarks/bench_pdf.py [RUNS]
 Target (issue): under 2 s for each line."""
@@ -65,10 +66,25 @@ def main() -> None:
         again = wall(["build", str(folder), "-o", str(out), "--jobs", "2"], cache)
         sheets = subprocess.run(["pdfinfo", str(out / "calc-set.pdf")], capture_output=True, text=True).stdout
         count = next((line.split()[-1] for line in sheets.splitlines() if line.startswith("Pages:")), "?")
+        alone = calc_set(out, runs)
     print()
     print(f"{'command':52} {'wall':>8}")
     print(f"{'build --jobs 2, 100 members (set of ' + count + ' sheets)':52} {first:7.1f} s")
     print(f"{'build --jobs 2, 100 members, nothing changed':52} {again:7.1f} s")
+    print(f"{'calc set of 100 built members (write_set)':52} {alone:7.2f} s")
+
+
+def calc_set(out: Path, runs: int) -> float:
+    """Least wall seconds of writing the set of the packages in `out` again (index.json removed each time)."""
+    from beamlang.report.pdf.calcset import write_set
+    folders = [p.name for p in sorted(out.iterdir()) if (p / "build.json").is_file()]
+    times = []
+    for _ in range(runs):
+        (out / "index.json").unlink()
+        t0 = time.perf_counter()
+        write_set(out, folders, "a4")
+        times.append(time.perf_counter() - t0)
+    return min(times)
 
 
 if __name__ == "__main__":

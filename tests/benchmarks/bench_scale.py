@@ -150,13 +150,12 @@ def sympy_beam(member) -> None:
 
 def moving_envelope(member) -> None:
     """The envelope of every case and combination with a moving group (the engine alone, solve included)."""
-    from beamlang.analysis.results import factored_loads
     from beamlang.engine.moving import envelope
     from beamlang.engine.solve import solve
     sol = solve(member)
     for t in sol.targets:
         if member.moving(t.name) is not None:
-            envelope(sol, t, factored_loads(sol, t))
+            envelope(sol, t)
 
 
 class Rows:

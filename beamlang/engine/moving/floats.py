@@ -6,6 +6,7 @@ bounds' margin (`boxes.MARGIN` times the terms' size) covers the rounding of the
 
 from __future__ import annotations
 
+from fractions import Fraction
 from math import comb
 
 from beamlang.engine.moving.bivariate import Bi
@@ -83,13 +84,24 @@ class FloatCells:
             return None
         C, A = s.copy(), np.abs(s)
         for i, t, side in forces_on(cell, offsets):
-            K = [self.kernels.shifted_float(q, cell.s, t, side, offsets[i]) for q in QS]
-            if any(k is None for k in K):
+            K = self.kernels.shifted_floats(cell.s, t, side, offsets[i])
+            if K is None:
                 return None
             w = self.factor * float(self.kernels.load.forces[i])
-            C += w * np.array([k[0] for k in K])
-            A += abs(w) * np.array([k[1] for k in K])
+            C += w * K[0]
+            A += abs(w) * K[1]
         return C, A
+
+    def static_at(self, q: str, x: Fraction) -> Fraction:
+        """The target's static q at x, exact (`Piecewise.at`: right of a breakpoint)."""
+        if (q, x) not in self._static:
+            self._static[(q, x)] = _curve(self.target.curves, q).at(x)
+        return self._static[(q, x)]
+
+    def static(self, s: int):
+        """The target's static pieces on segment s in floats, (quantity, x degree), or None when too large."""
+        a = self._static_of(s)
+        return None if a is None else a[:, :, 0]
 
     def _static_of(self, s: int):
         import numpy as np
@@ -145,22 +157,32 @@ def critical_bounds(g, pa, pb, n: int = 8) -> tuple[float, float] | None:
     """(hi, lo) of g over the parts of [pa, pb] (n of them) where g' can vanish, None when it cannot in any:
     from g's exact Taylor form at pa, in floats, each bound widened by MARGIN times its terms' size."""
     a = [float(k) for k in g.taylor(pa).coeffs]
-    if len(a) < 2:
+    m = len(a)
+    if m < 2:
         return None
     width = float(pb - pa)
+    sizes = [abs(ak) for ak in a]
+    d_sizes = [abs(k * ak) for k, ak in enumerate(a)]
     hi = lo = None
     for part in range(n):
         h0, half = (part + 0.5) * width / n, width / (2 * n)
         half += 4e-16 * (h0 + half)  # the part's float ends rounded outward
         t = _taylor(a, h0)
         reach = h0 + half
-        d_spread = sum(abs(k * tk) * half ** (k - 1) for k, tk in enumerate(t) if k > 1)
-        d_size = sum(abs(k * ak) * reach ** (k - 1) for k, ak in enumerate(a) if k)
+        d_spread = d_size = 0.0  # the sums in plain loops (the same terms in the same order, quicker)
+        for k in range(2, m):
+            d_spread += abs(k * t[k]) * half ** (k - 1)
+        for k in range(1, m):
+            d_size += d_sizes[k] * reach ** (k - 1)
         d_slack = MARGIN * (d_size + d_spread) + 1e-300
         if abs(t[1]) > d_spread + d_slack:
             continue  # g' keeps one sign on this part
-        spread = sum(abs(tk) * half**k for k, tk in enumerate(t) if k)
-        slack = MARGIN * (sum(abs(ak) * reach**k for k, ak in enumerate(a)) + spread) + 1e-300
+        spread = size = 0.0
+        for k in range(1, m):
+            spread += abs(t[k]) * half**k
+        for k in range(m):
+            size += sizes[k] * reach**k
+        slack = MARGIN * (size + spread) + 1e-300
         top, bottom = t[0] + spread + slack, t[0] - spread - slack
         hi, lo = (top, bottom) if hi is None else (max(hi, top), min(lo, bottom))
     return None if hi is None else (hi, lo)
@@ -175,23 +197,22 @@ def _taylor(a: list[float], h: float) -> list[float]:
     return out
 
 
-def piece_bounds(pieces, xs) -> list[tuple[float, float]]:
-    """(hi, lo) of each exact piece k of a piecewise polynomial over [xs[k], xs[k+1]] (floats, Taylor form at
-    the middle, widened by MARGIN times the terms' size), all pieces at once."""
+def coefficient_bounds(P, M, a, b) -> list[tuple[float, float]]:
+    """(hi, lo) of each float polynomial (rows of P, ascending in x) over [a_k, b_k], with M >= |P| the
+    magnitudes of the terms summed into its coefficients: the Taylor form at the middle, widened by MARGIN
+    times the terms' size, all rows at once."""
     import numpy as np
-    m = max((len(p.coeffs) for p in pieces), default=0)
+    m = P.shape[1]
     if m == 0:
-        return [(1e-300, -1e-300)] * len(pieces)
-    P = np.array([[float(c) for c in p.coeffs] + [0.0] * (m - len(p.coeffs)) for p in pieces])
-    a, b = np.array([float(x) for x in xs[:-1]]), np.array([float(x) for x in xs[1:]])
+        return [(1e-300, -1e-300)] * len(P)
     mid, half = (a + b) / 2, (b - a) / 2
-    half = half + 4e-16 * (np.abs(mid) + half)
+    half = half + 4e-16 * (np.abs(mid) + half)  # the interval's float ends rounded outward
     e = np.arange(m)[None, :] - np.arange(m)[:, None]
     binom = np.array([[comb(i, k) for i in range(m)] for k in range(m)], dtype=float)
     powers = mid[:, None] ** np.arange(m)
-    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (pieces, k, i)
+    B = np.where(e >= 0, powers[:, np.maximum(e, 0)], 0.0) * binom  # (rows, k, i)
     T = np.einsum("nki,ni->nk", B, P)
     spread = (np.abs(T[:, 1:]) * half[:, None] ** np.arange(1, m)).sum(axis=1)
-    size = (np.abs(P) * (np.abs(mid) + half)[:, None] ** np.arange(m)).sum(axis=1)
+    size = (M * (np.abs(mid) + half)[:, None] ** np.arange(m)).sum(axis=1)
     slack = MARGIN * (size + spread) + 1e-300
     return list(zip((T[:, 0] + spread + slack).tolist(), (T[:, 0] - spread - slack).tolist()))

@@ -68,14 +68,17 @@ class _Kernels:
             self._cache[key] = _shift_p(self.field(q, s, t, side), d)
         return self._cache[key]
 
-    def shifted_float(self, q: str, s: int, t: int, side: str, d: Fraction):
-        """`shifted` in floats with a bound of its terms' magnitudes (`floats.shifted`), or None when too large."""
-        key = ("df", q, s, t, side, d)
+    def shifted_floats(self, s: int, t: int, side: str, d: Fraction):
+        """`shifted` in floats for v, theta, M and V, stacked (quantity, x degree, p degree), with a bound of
+        its terms' magnitudes (`floats.shift_matrix`), or None when too large."""
+        key = ("df", s, t, side, d)
         if key not in self._cache:
+            import numpy as np
             from beamlang.engine.moving.floats import shift_matrix
-            K = self.field_float(q, s, t, side)
+            K = [self.field_float(q, s, t, side) for q in QUANTITIES]
             B = self._cache.setdefault(("B", d), shift_matrix(float(d)))
-            self._cache[key] = None if K is None else (K[0] @ B[0], K[1] @ B[1])
+            self._cache[key] = None if any(k is None for k in K) else (np.array([k[0] @ B[0] for k in K]),
+                                                                         np.array([k[1] @ B[1] for k in K]))
         return self._cache[key]
 
     def field_float(self, q: str, s: int, t: int, side: str):
@@ -93,6 +96,29 @@ class _Kernels:
         if s == t:
             k = t if side == "L" else t + 1
         return [_curve(curves, q).pieces[k] for _, curves in self.samples(t)]
+
+    def fields_float(self, s: int, t: int, side: str):
+        """`field_float` of v, theta, M and V stacked, arrays (quantity, x degree, xi degree), with E: MARGIN * E
+        bounds the error of the float kernel and of a few dozen float operations on it (A - |K| keeps the scale
+        of the interpolation's rounding, `floats.interpolated`; 1e-5 |K| covers the rest); None when too large."""
+        key = ("ff4", s, t, side)
+        if key not in self._cache:
+            import numpy as np
+            K = [self.field_float(q, s, t, side) for q in QUANTITIES]
+            if any(k is None for k in K):
+                self._cache[key] = None
+            else:
+                C, A = np.array([k[0] for k in K]), np.array([k[1] for k in K])
+                self._cache[key] = C, A - (1 - 1e-5) * np.abs(C)
+        return self._cache[key]
+
+    def line(self, q: str, x0: Fraction, t: int) -> Poly:
+        """K_q(x0, xi) for xi in segment t (x0 a breakpoint, the curve's value right of it: `Piecewise.at`)."""
+        key = ("l", q, x0, t)
+        if key not in self._cache:
+            values = [_curve(c, q).at(x0) for _, c in self.samples(t)]
+            self._cache[key] = Poly(_trim_q(_lagrange_checked(self.basis(t), values)))
+        return self._cache[key]
 
     def reaction_float(self, kind: str, j: int, t: int) -> list[float]:
         key = ("rf", kind, j, t)

@@ -12,18 +12,17 @@ a polynomial in (x, p) on each cell of the (x, p) plane that the fixed breakpoin
 the lines x = p + d_i cut out. Its largest and smallest values over the whole plane are found without
 sampling: every cell's interior critical points (the resultant in x of df/dx and df/dp, whose real roots
 are isolated exactly), every edge's critical points (x fixed: influence lines; x = p + d_i: under a force;
-p fixed: the group standing still, solved and searched like any static case), and every corner.
+p fixed: the group standing still, built from the kernels and searched like a static case), and every corner.
 """
 
 from __future__ import annotations
 
 from fractions import Fraction
 
-from beamlang.engine.extrema import derivative_of
 from beamlang.engine.moving.bivariate import Bi, _at_p, _at_x, _d, _in_x, _on_diagonal, _resultant, _taylor2, _value
 from beamlang.engine.moving.bounds import _Best
 from beamlang.engine.moving.boxes import cell_bounds, interior_bounds
-from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at, piece_bounds
+from beamlang.engine.moving.floats import FloatCells, critical_bounds, line_bound, lines_at
 from beamlang.engine.moving.cells import (
     _Cell,
     _cell_at,
@@ -36,20 +35,24 @@ from beamlang.engine.moving.cells import (
     group_offsets,
 )
 from beamlang.engine.moving.found import Critical, Envelope
-from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _curve, _reaction_line, kernels_for, reaction_terms
+from beamlang.engine.moving.kernels import QUANTITIES, _cell_poly, _reaction_line, kernels_for, reaction_terms
+from beamlang.engine.moving.standing import reaction_at, standing, value_at
+from beamlang.engine.moving.standing import search as search_standing
 from beamlang.engine.roots import roots_in
-from beamlang.engine.solve import Curves, Solution, Target, curves_with
+from beamlang.engine.solve import Solution, Target
 from beamlang.engine.statics import region_bounds
 from beamlang.exact import Q
 from beamlang.model import LineLoad, Load, MomentLoad, PointLoad, Settlement
 from beamlang.poly import Poly
+from beamlang.stability import components
 
 
-def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, Load]]) -> Envelope:
-    """The envelope of `target`, whose moving load is found through the member; `static_loads` are its
-    factored static loads (for the group-standing configurations)."""
+def envelope(sol: Solution, target: Target) -> Envelope:
+    """The envelope of `target`, whose moving load is found through the member (its static curves, the
+    target's own, with the group's forces added by superposition of the unit-force kernels)."""
     member = sol.member
     factor, load = member.moving(target.name)
+    rate = Q(factor)  # in the engine's rational type, so products with the kernels stay in it (fast)
     kernels = kernels_for(sol, load)
     found: dict[str, list[Critical]] = {q: [] for q in QUANTITIES}
     fixed_x = tuple(sorted({sp.x for sp in member.supports} | {r.x for r in member.report_points}))
@@ -58,26 +61,27 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
     inner: list = []  # every cell's interior, searched once the edges have set the values to beat
     stretches = [st.x1 for st in member.stretches] + [member.length] if member.stepped else None
     best = _Best(list(region_bounds(member)), stretches)
-    static = tuple(scaled(ld, k) for k, ld in static_loads)
     floats = FloatCells(kernels, target, factor)
+    own, still, moments = _fixed_keys(member)
     for rev in directions(load):
         offsets = group_offsets(load, rev)
         events = _events(sol.xs, offsets, load)
-        for p in events:  # the group standing at every event: a static case, searched exactly
-            wheels = _wheels(load, offsets, p)
-            curves = curves_with(sol, static + tuple(PointLoad(x, factor * F, load.span) for x, F in wheels))
-            _standing(found, curves, member.length, p, rev, best)
-            standing = [((q, x0), Critical(_curve(curves, q).at(x0), x0, p, rev, "group standing", True))
-                        for x0 in fixed_x for q in ("v", "theta", "M")]
-            standing += [((kind, j), Critical(value, member.supports[j].x, p, rev, "group standing", True))
-                         for j, reaction in enumerate(curves.reactions) for kind, value in zip(("R", "Rm"), reaction)]
-            for key, c in standing:
+        for p in events:  # the group standing at every event: a static case, by superposition of the kernels
+            group = standing(floats, rate, _wheels(load, offsets, p))
+            search_standing(group, found, p, rev, best)
+            fixed = [((q, x0), Critical(value_at(group, q, x0), x0, p, rev, "group standing", True))
+                     for x0 in fixed_x for q in ("v", "theta", "M")]
+            fixed += [((kind, j), Critical(reaction_at(group, kind, j), sp.x, p, rev, "group standing", True))
+                      for j, sp in enumerate(member.supports) for kind in ("R", "Rm")]
+            for key, c in fixed:
                 at_fixed.setdefault(key, []).append(c)
                 best.note(key, c)
         for pa, pb in zip(events, events[1:]):
             on = _on_segments(sol.xs, load, offsets, (pa + pb) / 2)
             here = _cells(sol.xs, offsets, on)
             bounds = _cell_bounds(floats, here, offsets, pa, pb, sol.xs)
+            made: dict = {}  # (quantity, cell) -> its polynomial, for the lines through the cell
+            fresh = _fresh_ends(load, offsets, on, pa, pb)
             for k, cell in enumerate(here):
                 cells += 1
                 mid = (sol.xs[cell.s] + sol.xs[cell.s + 1]) / 2
@@ -85,7 +89,7 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
                     b = bounds.get((k, q))
                     if b is not None and not best.wanted((q,), *b, mid):
                         continue  # nothing in the cell, edges included, can beat the values found
-                    f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                    f = made[(q, cell)] = _cell_poly(kernels, target, q, cell, offsets, rate)
                     found[q] += _cell_edges(f, q, sol.xs, offsets, cell, pa, pb, rev, best)
                     inner.append((q, f, offsets, cell, pa, pb, rev))
             lines = [(x0, q, cell) for x0, cell in ((x0, _cell_at(sol.xs, offsets, on, x0)) for x0 in fixed_x)
@@ -94,19 +98,20 @@ def envelope(sol: Solution, target: Target, static_loads: list[tuple[Fraction, L
             known = [k for k, a in enumerate(arrays) if a is not None]
             line_bounds = dict(zip(known, lines_at([arrays[k] for k in known], [lines[k][0] for k in known], pa, pb)))
             for k, (x0, q, cell) in enumerate(lines):  # influence lines of the fixed points: polynomials in p
-                if k in line_bounds and not best.wanted(((q, x0), q), *line_bounds[k], x0):
+                keys = own.get((q, x0), (q,))
+                if (q, x0) in still or k in line_bounds and not best.wanted(keys, *line_bounds[k], x0):
                     continue
-                f = _cell_poly(kernels, target, q, cell, offsets, factor)
+                f = made.get((q, cell)) or _cell_poly(kernels, target, q, cell, offsets, rate)
                 at_fixed[(q, x0)] += _on_line(_at_x(f, x0), lambda p, x0=x0: x0, pa, pb, rev, "influence line",
-                                              best, ((q, x0), q))
+                                              best, keys, ends=fresh)
             for j, sp in enumerate(member.supports):
-                for kind in ("R", "Rm"):
-                    terms = reaction_terms(kernels, kind, j, target, on, offsets, factor)
+                for kind in ("R", "Rm") if (j, "moment") in moments else ("R",):
+                    terms = reaction_terms(kernels, kind, j, target, on, offsets, rate)
                     if not best.wanted(((kind, j),), *line_bound(terms, pa, pb)):
                         continue
-                    g = _reaction_line(kernels, kind, j, target, on, offsets, factor)
+                    g = _reaction_line(kernels, kind, j, target, on, offsets, rate)
                     at_fixed[(kind, j)] += _on_line(g, lambda p, x=sp.x: x, pa, pb, rev, "influence line", best,
-                                                    ((kind, j),))
+                                                    ((kind, j),), ends=fresh)
     reactions = tuple(_pair(at_fixed[("R", j)]) for j in range(len(member.supports)))
     moments = tuple(_pair(at_fixed[("Rm", j)]) for j in range(len(member.supports)))
     slopes = tuple(_largest_abs(at_fixed[("theta", sp.x)]) for sp in member.supports)
@@ -138,30 +143,30 @@ def _pair(items) -> tuple[Critical | None, Critical | None]:
     return max(items, key=lambda c: c.value, default=None), min(items, key=lambda c: c.value, default=None)
 
 
-def _standing(found, curves: Curves, L: Fraction, p: Fraction, rev: bool, best: "_Best") -> None:
-    """Every segment end and, in a segment whose float bound could beat the values found, every zero of the
-    derivative (`extrema.candidates`, pruned) of each response with the group standing at p."""
-    for q in QUANTITIES:
-        c = _curve(curves, q)
-        d = curves.slope if q == "v" else (curves.V if q == "M" else derivative_of(c))
-        for k, (piece, (hi, lo)) in enumerate(zip(c.pieces, piece_bounds(c.pieces, c.xs))):
-            a, b = c.xs[k], c.xs[k + 1]
-            if a < 0 or b > L:
-                continue
-            found_here = [Critical(piece(a), a, p, rev, "group standing", True)]
-            if best.wanted((q,), hi, lo, (a + b) / 2):
-                found_here += [Critical(piece(r.x), r.x, p, rev, "group standing", r.exact is not None)
-                               for r in roots_in(d.pieces[k], a, b)]
-            found_here.append(Critical(piece(b), b, p, rev, "group standing", True))
-            for crit in found_here:
-                found[q].append(crit)
-                best.note(q, crit)
+def _fixed_keys(member) -> tuple[dict, set, set]:
+    """What the lines through the fixed points must beat: their own extremes where the envelope reports them
+    (deflection at a report point, slope at a support; else those of the whole response only); the lines that
+    are constant (deflection at a rigid support: its prescribed movement, for every position); and the support
+    components with a moment (other supports' moment is zero for every position)."""
+    points, supports = {r.x for r in member.report_points}, {sp.x for sp in member.supports}
+    own = {("v", x): (("v", x), "v") for x in points} | {("theta", x): (("theta", x), "theta") for x in supports}
+    still = {("v", sp.x) for sp in member.supports if sp.kind != "spring"} - set(own)
+    return own, still, {(r.support, r.kind) for r in components(member.supports)}
 
 
-def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None) -> list[Critical]:
+def _fresh_ends(load, offsets, on, pa, pb) -> tuple[Fraction, ...]:
+    """The ends of a p interval where a line through a fixed point takes a value the group standing there does
+    not: where a force of that standing is off the travel inside the interval (it steps on or off there). At the
+    other ends the responses at a fixed point and the reactions are continuous in p, so the line's limit is the
+    standing's value, found and noted already."""
+    return tuple(p for p in (pa, pb) if any(t is None and load.lo <= p + d <= load.hi for d, t in zip(offsets, on)))
+
+
+def _on_line(g: Poly, x_of, pa, pb, rev, how: str, best: "_Best", keys, x_mid=None, ends=None) -> list[Critical]:
     """The ends (limits from inside: a force just beside a breakpoint) and interior critical points in p of a
-    response along a line of the plane; the interior only where its bound could beat what `best` holds."""
-    out = [Critical(g(p), x_of(p), p, rev, how, True) for p in (pa, pb)]
+    response along a line of the plane; the interior only where its bound could beat what `best` holds. `ends`:
+    the ends to take (default both)."""
+    out = [Critical(g(p), x_of(p), p, rev, how, True) for p in ((pa, pb) if ends is None else ends)]
     bound = critical_bounds(g, pa, pb) if g.degree >= 2 else None  # where g' can vanish
     if bound is not None and best.wanted(keys, *bound, x_mid):
         for r in roots_in(g.derivative(), pa, pb):

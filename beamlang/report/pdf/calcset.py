@@ -2,26 +2,29 @@
 
 The set PDF opens with a contents sheet (every member, its section, governing check and ratio, status and its
 sheets in the set), then every member's sheets; each sheet is numbered within its member and through the set.
-It is made from the packages on disk (the contents typeset, every member sheet embedded from the member's own PDF),
-so members that an incremental build left alone are in it too."""
+It is made from the packages on disk (the contents and the set numbers typeset, every member sheet copied from the
+member's own PDF with its number laid over it, `overlay.py`), so members that an incremental build left alone are in
+it too."""
 
 from __future__ import annotations
 
 import hashlib
 import json
 import re
+from concurrent.futures import ThreadPoolExecutor
+from importlib.metadata import version
 from pathlib import Path
 
 from beamlang import __version__
 from beamlang.report.pdf import member_info
-from beamlang.report.pdf.markup import string, text
+from beamlang.report.pdf.markup import text
+from beamlang.report.pdf.overlay import laid_over
 from beamlang.report.pdf.sheet import Info, bl_member, body_size, compile_pdf, document, iso_date, typst_paper
 from beamlang.report.tex import cell, md
 
 SET_PDF = "calc-set.pdf"
 SET_RECORD = "index.json"
 _PAGES = re.compile(rb"/Type/Pages/Count (\d+)")
-_PASSES = 4
 COLUMNS = ("member", "title", "section", "governing check", "ratio", "status", "sheets in the set")
 
 
@@ -50,18 +53,23 @@ def _ratio(rec: dict) -> str:
     return "-" if rec["governing"] is None else f"{rec['governing']['ratio']:.3f}"
 
 
-def _contents(records: list[dict], sheets: list[tuple[int, int]]) -> str:
+def _contents(records: list[dict], counts: list[int]) -> str:
     rows = []
-    for rec, (first, last) in zip(records, sheets):
+    for rec, n, after in zip(records, counts, _after(counts)):
         gov = rec["governing"]["check"] if rec["governing"] else "-"
-        rows.append(", ".join(f"[{text(v)}]" for v in (rec["mark"], rec["title"], rec["section"], gov,
-                                                      _ratio(rec), _status(rec), f"{first} to {last}")))
+        rows.append(", ".join([*(f"[{text(v)}]" for v in (rec["mark"], rec["title"], rec["section"], gov,
+                                                          _ratio(rec), _status(rec))), f"bl-set-range({n}, {after})"]))
     header = ", ".join(f"[{text(c)}]" for c in COLUMNS)
     n = len(records)
     summary = (f"{n} member{'s' * (n != 1)}; {sum(_status(r) == 'PASS' for r in records)} pass every check, "
                f"{sum(_status(r) == 'FAIL' for r in records)} fail a check.")
     return (f"#heading(level: 1)[Calc set: contents]\n\n{text(summary)} {text(_CAUTION)}\n\n"
-            f"#bl-table({len(COLUMNS)}, ({header},), (\n  " + ",\n  ".join(rows) + ",\n))\n")
+            f"#bl-table({len(COLUMNS)}, tall: true, ({header},), (\n  " + ",\n  ".join(rows) + ",\n))\n")
+
+
+def _after(counts: list[int]) -> list[int]:
+    """For each member, the sheets of the set from its first to the end (its own and those after it)."""
+    return [sum(counts[i:]) for i in range(len(counts))]
 
 
 _CAUTION = ("Each member's package states its assumptions, what it does not check and its cautions; the set is to be "
@@ -76,36 +84,22 @@ def _ranges(first: int, counts: list[int]) -> list[tuple[int, int]]:
     return ranges
 
 
-def set_source(out: Path, records: list[dict], paper: str) -> tuple[str, list[tuple[int, int]], int]:
-    """The set's Typst source (it reads the members' PDFs by their path under `out`, the typst root), each
-    member's first and last sheet in the set and the set's sheet count.
+def set_source(records: list[dict], counts: list[int], paper: str) -> str:
+    """The set's frame in Typst: the contents sheets, then for each member as many pages as it has sheets (`counts`),
+    each carrying only its set sheet number, to be laid over the member's own sheet (`overlay.laid_over`).
 
-    The contents are typeset alone until the sheet count they assume is the count they take (the numbers they
-    list rarely change it; a second pass settles it); then every member sheet is embedded whole, as drawn."""
+    Each member's sheets in the set are counted back from the set's last sheet (its sheets and those after it), so
+    the contents' own sheet count, which the numbers depend on, is settled by Typst within the one compile."""
     dates = sorted(d for r in records if (d := r["fields"].get("date", "")) and iso_date(d))
     info = Info(project=_common(records, "project"), job=_common(records, "job"), mark="Calc set",
                 title="contents", by=_common(records, "by"), checked=_common(records, "checked"),
                 date=dates[-1] if dates else "", revision="", tool=f"beamlang {__version__}")
     date = iso_date(dates[-1]) if dates else None
-    title = f"Calc set: {info.project}"
-    counts = [page_count((out / r["folder"] / f"{r['folder']}.pdf").read_bytes()) for r in records]
-    contents_sheets = 1
-    for _ in range(_PASSES):
-        sheets = _ranges(contents_sheets + 1, counts)
-        contents = bl_member(info, paper, _contents(records, sheets))
-        found = page_count(compile_pdf(document(contents, paper, title, date, in_set=True), {}))
-        if found == contents_sheets:
-            break
-        contents_sheets = found
-    else:
-        raise RuntimeError(f"the contents' sheet count did not settle in {_PASSES} passes")
-    total = contents_sheets + sum(counts)
-    files = [string(f"/{r['folder']}/{r['folder']}.pdf") for r in records]
-    members = "".join(
-        f"#bl-set-sheets({file}, {typst_paper(r['paper'])}, {body_size(r['paper'])}.width, "
-        f"{member_info(_Member(r)).typst()}, {n}, {first}, {total})\n"
-        for r, file, n, (first, _last) in zip(records, files, counts, sheets))
-    return document(contents + members, paper, title, date, in_set=True), sheets, total
+    members = ",\n  ".join(
+        f"({typst_paper(r['paper'])}, {body_size(r['paper'])}.width, {member_info(_Member(r)).typst()}, {n}, {after})"
+        for r, n, after in zip(records, counts, _after(counts)))
+    body = bl_member(info, paper, _contents(records, counts)) + f"#bl-set-sheets((\n  {members},\n))\n"
+    return document(body, paper, f"Calc set: {info.project}", date, in_set=True)
 
 
 def index_markdown(records: list[dict], sheets: list[tuple[int, int]], link: str) -> str:
@@ -130,20 +124,25 @@ def page_count(pdf: bytes) -> int:
 
 def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
     """index.md, index.html, index.json and calc-set.pdf for the packages in `folders` (names under `out`);
-    nothing is written when the members and the paper are those of the last set (index.json's key)."""
+    nothing is written when the members, the paper and pikepdf (which writes the set) are those of the last set
+    (index.json's key)."""
     from beamlang.report.html import member_html
     records = _records(out, folders)
-    key = hashlib.sha256(json.dumps([paper, [[r["folder"], r["key"]] for r in records]]).encode()).hexdigest()
+    key = hashlib.sha256(json.dumps([paper, [[r["folder"], r["key"]] for r in records],
+                                     version("pikepdf")]).encode()).hexdigest()
     try:
         if json.loads((out / SET_RECORD).read_text(encoding="utf-8"))["key"] == key and (out / SET_PDF).is_file():
             return []
     except (OSError, ValueError, KeyError):
         pass
-    source, sheets, total = set_source(out, records, paper)
-    pdf = compile_pdf(source, {}, root=out)
-    if page_count(pdf) != total:
-        raise RuntimeError(f"the set has {page_count(pdf)} sheets, not the contents' and the members' {total}")
-    index = {"key": key, "paper": paper, "sheets": page_count(pdf),
+    own = [out / r["folder"] / f"{r['folder']}.pdf" for r in records]
+    counts = [page_count(path.read_bytes()) for path in own]
+    with ThreadPoolExecutor(max_workers=1) as typesetter:  # typst runs without the GIL, beside the copying
+        frame = typesetter.submit(compile_pdf, set_source(records, counts, paper), {})
+        pdf = laid_over(frame.result, own)
+    total = page_count(frame.result())
+    sheets = _ranges(total - sum(counts) + 1, counts)
+    index = {"key": key, "paper": paper, "sheets": total,
              "members": [{"mark": r["mark"], "folder": r["folder"], "section": r["section"],
                           "governing": r["governing"], "status": _status(r), "sheets": list(s)}
                          for r, s in zip(records, sheets)]}

@@ -8,6 +8,7 @@ tables, display formulas and figures call the functions of `template.typ` (`bl-t
 from __future__ import annotations
 
 import math
+import re
 from functools import lru_cache
 
 from beamlang.report.pdf.math import to_typst
@@ -26,9 +27,10 @@ def string(s: str) -> str:
 
 
 # A table surely fits on a sheet when this over-estimate of its height does: the smaller text area of A4 and US
-# letter (sheet.body_size), every character of the cell's Markdown source as wide as a wide capital at the
-# table's 8 pt, one line more than that gives, a tall line (superscripts) and the cell insets. On tables made
-# to be awkward (tests/test_pdf_estimates.py) it is 1.8 to 3.3 times the measured height. A table it cannot
+# letter (sheet.body_size), every character of the cell's Markdown source (a formula's by `characters`) as wide
+# as a wide capital at the table's 8 pt, in columns no wider than the typesetter makes them (`_column_widths`), one
+# line more than that gives, a tall line (superscripts) and the cell insets. On tables made to be awkward
+# (tests/test_pdf_estimates.py) it is 1.37 to 4.6 times the measured height. A table it cannot
 # place is measured by the typesetter (bl-table), which costs another layout of it; most tables never need it.
 _CHAR_MM, _LINE_MM, _ROW_MM, _INSET_MM = 2.0, 5.0, 2.0, 2.5
 # A display formula surely fits the text width when its TeX source does at 1.2 em of the 9.5 pt body per
@@ -50,6 +52,20 @@ def body_mm() -> tuple[float, float]:
     return min(w for w, _ in PAPERS.values()) - MARGINS[0], min(h for _, h in PAPERS.values()) - MARGINS[1]
 
 
+# A table is surely taller than any sheet when even its rows at their least height are: a row with any text or
+# formula is at least its insets and one line at 8 pt (measured in Typst: 10.26 pt, 3.62 mm), an empty row its
+# insets (5 pt). `_ROOM_MM` is what bl-table leaves below a sheet's text height before it calls a table tall.
+_LEAST_ROW_MM, _EMPTY_ROW_MM, _ROOM_MM = 3.5, 1.7, 8.0
+
+
+def surely_tall(cells: list[list[str]]) -> bool:
+    """Whether a table of these cells' Markdown source is taller than the text of every sheet (A4 and US letter),
+    so that it breaks across sheets without being measured first."""
+    from beamlang.report.pdf.sheet import MARGINS, PAPERS
+    least = sum(_LEAST_ROW_MM if any(c.strip() for c in row) else _EMPTY_ROW_MM for row in cells)
+    return least > max(h for _, h in PAPERS.values()) - MARGINS[1] - _ROOM_MM
+
+
 def surely_fits(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source fits on one sheet whatever the column widths come to: an
     auto column wider than its fair share of the width (width / columns) is never narrowed below that share, and
@@ -59,12 +75,64 @@ def surely_fits(cells: list[list[str]]) -> bool:
 
 def estimate_mm(cells: list[list[str]]) -> float:
     """The over-estimate of a table's height in mm (`surely_fits`)."""
-    usable = body_mm()[0] / len(cells[0]) - _INSET_MM
+    counts = [[characters(c) for c in row] for row in cells]
+    widths = _column_widths(counts)
     height = 0.0
-    for row in cells:
-        lines = max((1 + math.ceil(len(c) * _CHAR_MM / usable) for c in row), default=1)
+    for row in counts:
+        lines = max((1 + math.ceil(n * _CHAR_MM / (w - _INSET_MM)) for n, w in zip(row, widths)), default=1)
         height += _ROW_MM + lines * _LINE_MM
     return height
+
+
+def _column_widths(counts: list[list[float]]) -> list[float]:
+    """Each column's width, no more than the typesetter gives it: auto columns whose one-line widths fit the text
+    keep them; otherwise a column narrower than the fair share of what the narrower ones leave keeps its width and
+    the wider ones share the rest equally (Typst's rule for auto columns). A one-line width here is the estimate's,
+    at least the true one, so a wide column's share is at most the true share."""
+    natural = [max(row[k] if k < len(row) else 0.0 for row in counts) * _CHAR_MM + _INSET_MM
+               for k in range(len(counts[0]))]
+    room = body_mm()[0]
+    if sum(natural) <= room:
+        return natural
+    fair, previous = room / len(natural), None
+    while fair != previous:
+        narrow = [w for w in natural if w <= fair]
+        if len(narrow) == len(natural):
+            return natural
+        previous, fair = fair, (room - sum(narrow)) / (len(natural) - len(narrow))
+    return [min(w, fair) for w in natural]
+
+
+# Inside `$...$` the TeX source is longer than what it draws: `\times 10^{-5}\,x^{3}` draws six glyphs. A
+# formula counts as characters of the estimate thus: a structural command, brace, script mark or space nothing; a
+# thin space a quarter; an operator or relation (+, -, =, <, >, and every other command: \times, \le, \theta) two,
+# for the glyph and the space math puts around it; a capital one and a half (an italic M or W is wider than a text
+# capital); any other character one (scripts are drawn smaller but counted whole; a fraction's parts are counted
+# side by side though they are drawn one above the other).
+_STRUCTURAL = frozenset({"frac", "dfrac", "tfrac", "mathrm", "mathit", "mathbf", "text", "textrm", "operatorname",
+                         "left", "right", "big", "Big", "begin", "end", "displaystyle", "sqrt"})
+_SPACES = {",": 0.25, ":": 0.25, ";": 0.5, "!": 0.0, " ": 0.25, "quad": 2.0, "qquad": 4.0}
+_TOKEN = re.compile(r"\\([A-Za-z]+|.)|(.)", re.DOTALL)
+
+
+def characters(cell: str) -> float:
+    """A cell's Markdown source as a count of text characters at least as wide as what it draws."""
+    parts = cell.split("$")
+    return sum(len(p) if k % 2 == 0 else _math_characters(p) for k, p in enumerate(parts))
+
+
+def _math_characters(tex: str) -> float:
+    count = 0.0
+    for command, ch in _TOKEN.findall(tex):
+        if command:
+            count += _SPACES.get(command, 0.0 if command in _STRUCTURAL else 2.0)
+        elif ch in "{}^_ \t\n&":
+            continue
+        elif ch in "+-=<>":
+            count += 2.0
+        else:
+            count += 1.5 if ch.isupper() else 1.0
+    return count
 
 
 def to_typst_markup(markdown: str, before_summary: str = "", changed: frozenset[int] = frozenset(),
@@ -149,7 +217,7 @@ class _Writer:
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
-        small = ", small: true" if surely_fits(raw) else ""
+        small = ", small: true" if surely_fits(raw) else ", tall: true" if surely_tall(raw) else ""
         return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n){small})\n" if rows[1:] else \
             f"\n#bl-table({ncols}, ({header},), (){small})\n"
 

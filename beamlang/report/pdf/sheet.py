@@ -83,12 +83,10 @@ def _template() -> str:
     return TEMPLATE.read_text(encoding="utf-8")
 
 
-def compile_pdf(source: str, figures: dict[str, str], root: Path | None = None) -> bytes:
-    """PDF bytes; `figures` maps each sys.inputs key to SVG text; `root` is the folder the files the source reads
-    by path are under (the calc set's member PDFs). Raises TypstError (our bug) on a bad source."""
+def compile_pdf(source: str, figures: dict[str, str]) -> bytes:
+    """PDF bytes; `figures` maps each sys.inputs key to SVG text. Raises TypstError (our bug) on a bad source."""
     import typst
-    return typst.compile(source.encode("utf-8"), format="pdf", sys_inputs=figures, ignore_system_fonts=True,
-                         root=None if root is None else str(root))
+    return typst.compile(source.encode("utf-8"), format="pdf", sys_inputs=figures, ignore_system_fonts=True)
 
 
 def query(source: str, figures: dict[str, str], selector: str) -> list:

@@ -10,7 +10,7 @@ from lsprotocol import types
 from beamlang.source import split_lines
 from beamlang.language import syntax as s
 from beamlang.language.build.sections import MATERIAL_PROPERTIES
-from beamlang.language.parse import accepted_after, literals
+from beamlang.language.grammar import accepted_after, literals
 from beamlang.language.sections import DIMENSION_KIND, SHAPE_DIMENSIONS
 from beamlang.language.units import COMMON_UNITS, factor_of, is_us
 from beamlang.language.vocabulary import (FIELDS, FORCE_DIRECTIONS, FORMS, LOADS, SHAPES, SUPPORT_KINDS, SYSTEMS,
