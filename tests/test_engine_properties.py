@@ -234,6 +234,7 @@ def test_point_load_changes_are_its_force_and_moment(at, force):
 def test_real_member_curves_are_the_primary_beam_under_loads_and_redundants(text):
     # the curves are summed from the unit curves; the reference integrates the primary beam under the loads
     # and the redundants found, with their reactions added where they were released
+    from beamlang.engine import primary as P
     from beamlang.engine import solve as S
     sol = analyse_text(text).solution
     primary = sol.primary
@@ -243,8 +244,8 @@ def test_real_member_curves_are_the_primary_beam_under_loads_and_redundants(text
         if t.kind != "case" or not t.solved.redundants:
             continue
         found = t.solved
-        acting = list(found.loads) + [S._unit(sol.member, r, x) for x, r in zip(found.redundants, primary.redundants)]
-        ref = S._on_primary(sol.member, sol.xs, sol.EI, primary, acting)
+        acting = list(found.loads) + [P.unit(sol.member, r, x) for x, r in zip(found.redundants, primary.redundants)]
+        ref = P.on_primary(sol.member, sol.xs, sol.EI, primary, acting)
         reactions = list(ref.reactions)
         for x, r in zip(found.redundants, primary.redundants):
             force, moment = reactions[r.support]
