@@ -5,16 +5,16 @@ from __future__ import annotations
 from fractions import Fraction as F
 
 import numpy as np
+from engine_helpers import analyse_text, member_text, result
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-from beamlang.model import LineLoad, MomentLoad, PointLoad
-from beamlang.engine.roots import roots_in
-from beamlang.poly import Poly
-from beamlang.engine.statics import _changes, intensity, resultant
-from beamlang.engine.fem import MIN_ELEMENT, element_stiffness, fe_nodes
-from engine_helpers import analyse_text, member_text, result
 from strategies import members
+
+from beamlang.engine.fem import MIN_ELEMENT, element_stiffness, fe_nodes
+from beamlang.engine.roots import roots_in
+from beamlang.engine.statics import _changes, intensity, resultant
+from beamlang.model import LineLoad, MomentLoad, PointLoad
+from beamlang.poly import Poly
 
 SETTINGS = settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 

@@ -8,8 +8,8 @@ from fractions import Fraction
 
 from beamlang.analysis.results import factored_loads
 from beamlang.engine.moving import standing_case, standing_loads
-from beamlang.engine.roots import square_free
 from beamlang.engine.primary import prescribed
+from beamlang.engine.roots import square_free
 from beamlang.engine.solve import Solution, curves_with, load_solution
 from beamlang.engine.statics import formula_ends
 from beamlang.engine.symbolic import load_formula, worth_deriving

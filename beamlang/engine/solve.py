@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from fractions import Fraction
 
 from beamlang.engine.banded import solve_banded
@@ -10,7 +10,7 @@ from beamlang.engine.curves import Curves
 from beamlang.engine.primary import Primary, displacement, linsolve, make_primary, on_primary, prescribed, unit
 from beamlang.engine.statics import breakpoints
 from beamlang.exact import Q
-from beamlang.model import Load, LineLoad, Member, MomentLoad, MovingLoad, PointLoad
+from beamlang.model import LineLoad, Load, Member, MomentLoad, MovingLoad, PointLoad
 from beamlang.poly import Piecewise
 
 BANDED_FROM = 6  # redundants from which a load is solved in banded stiffness form (linear in the segments)
