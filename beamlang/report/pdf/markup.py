@@ -46,10 +46,15 @@ LEAD_CHARACTERS = 240
 
 
 @lru_cache(maxsize=1)
+def _text_areas() -> tuple[tuple[float, float], ...]:
+    """The text width and height of every paper's sheets (`sheet.text_area_mm`), in mm."""
+    from beamlang.report.pdf.sheet import PAPERS, text_area_mm  # sheet imports this module
+    return tuple(text_area_mm(paper) for paper in PAPERS)
+
+
 def body_mm() -> tuple[float, float]:
-    """The smaller text width and height of the sheets (`sheet.PAPERS` less `sheet.MARGINS`), in mm."""
-    from beamlang.report.pdf.sheet import MARGINS, PAPERS  # sheet imports this module
-    return min(w for w, _ in PAPERS.values()) - MARGINS[0], min(h for _, h in PAPERS.values()) - MARGINS[1]
+    """The smaller text width and height of the sheets, in mm."""
+    return min(w for w, _ in _text_areas()), min(h for _, h in _text_areas())
 
 
 # A table is surely taller than any sheet when even its rows at their least height are: a row with any text or
@@ -61,9 +66,8 @@ _LEAST_ROW_MM, _EMPTY_ROW_MM, _ROOM_MM = 3.5, 1.7, 8.0
 def surely_tall(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source is taller than the text of every sheet (A4 and US letter),
     so that it breaks across sheets without being measured first."""
-    from beamlang.report.pdf.sheet import MARGINS, PAPERS
     least = sum(_LEAST_ROW_MM if any(c.strip() for c in row) else _EMPTY_ROW_MM for row in cells)
-    return least > max(h for _, h in PAPERS.values()) - MARGINS[1] - _ROOM_MM
+    return least > max(h for _, h in _text_areas()) - _ROOM_MM
 
 
 def surely_fits(cells: list[list[str]]) -> bool:

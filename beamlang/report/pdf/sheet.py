@@ -68,10 +68,16 @@ def typst_paper(paper: str) -> str:
     return '"a4"' if paper == "a4" else '"us-letter"'
 
 
+def text_area_mm(paper: str) -> tuple[float, float]:
+    """The text width and height of a sheet (the paper less the margins), in mm."""
+    width, height = PAPERS[paper]
+    return width - MARGINS[0], height - MARGINS[1]
+
+
 def body_size(paper: str) -> str:
     """The text area of a sheet as a Typst dictionary (what a table or figure may fill)."""
-    width, height = PAPERS[paper]
-    return f"(width: {width - MARGINS[0]:.1f}mm, height: {height - MARGINS[1]:.1f}mm)"
+    width, height = text_area_mm(paper)
+    return f"(width: {width:.1f}mm, height: {height:.1f}mm)"
 
 
 def bl_member(info: Info, paper: str, body: str) -> str:
