@@ -10,7 +10,7 @@ from dataclasses import dataclass
 
 from beamlang import __version__
 from beamlang.report.pdf.markup import text, to_typst_markup
-from beamlang.report.pdf.sheet import Info, bl_member, compile_pdf, document, iso_date
+from beamlang.report.pdf.sheet import Info, bl_member, body_size, compile_pdf, document, iso_date, typst_paper
 
 PAPER_WORDS = {"A4": "a4", "letter": "letter"}  # the `paper` line (language/build/geometry.PAPERS)
 
@@ -63,13 +63,17 @@ def pdf_figures(svgs: dict[str, str]) -> dict[str, str]:
     return {key: svg.replace(f'font-family="{FONT}"', 'font-family="DejaVu Sans Mono"') for key, svg in svgs.items()}
 
 
-def member_body(member, markdown: str, paper: str, options: Options = Options()) -> str:
-    """One member's `bl-member` call: its title-block facts, paper and converted Markdown, with the revision table
-    before the summary and the values changed since the previous revision marked."""
+def member_markup(markdown: str, options: Options = Options()) -> str:
+    """The converted Markdown of one member, with the revision table before the summary and the values changed
+    since the previous revision marked."""
     revisions = revision_table(options.revisions)
     mark = options.revisions[-1].revision if options.revisions and options.marked else ""
-    body = to_typst_markup(markdown, revisions, frozenset(options.marked), mark)
-    return bl_member(member_info(member), paper, body)
+    return to_typst_markup(markdown, revisions, frozenset(options.marked), mark)
+
+
+def member_body(member, markdown: str, paper: str, options: Options = Options()) -> str:
+    """One member's `bl-member` call: its title-block facts, paper and converted Markdown (`member_markup`)."""
+    return bl_member(member_info(member), paper, member_markup(markdown, options))
 
 
 def revision_table(rows: tuple[Revision, ...]) -> str:
@@ -92,5 +96,16 @@ def member_source(member, markdown: str, options: Options = Options()) -> str:
 
 
 def member_pdf(member, markdown: str, svgs: dict[str, str], options: Options = Options()) -> bytes:
-    """The member's sheets; `svgs` maps each figure path the Markdown uses to its SVG text."""
-    return compile_pdf(member_source(member, markdown, options), pdf_figures(svgs))
+    """The member's sheets; `svgs` maps each figure path the Markdown uses to its SVG text. A long member is typeset
+    in parts, each in a process of its own (`parts.py`)."""
+    from beamlang.report.pdf.parts import split, typeset_parts
+    paper = paper_of(member, options)
+    chunks = split(member_markup(markdown, options))
+    if len(chunks) == 1:
+        return compile_pdf(member_source(member, markdown, options), pdf_figures(svgs))
+    title, date, info = f"{member.mark}: {member.title}", pdf_date(member, options), member_info(member)
+    sources = [document(bl_member(info, paper, chunk), paper, title, date, in_set=False, part=True)
+               for chunk in chunks]
+    frame = lambda n: document(f"#bl-part-sheets({typst_paper(paper)}, {body_size(paper)}.width, {n})\n",  # noqa: E731
+                               paper, title, date, in_set=False, part=True)
+    return typeset_parts(sources, pdf_figures(svgs), frame)

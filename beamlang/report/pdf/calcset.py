@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import hashlib
 import json
-import re
 from concurrent.futures import ThreadPoolExecutor
 from importlib.metadata import version
 from pathlib import Path
@@ -19,12 +18,12 @@ from beamlang import __version__
 from beamlang.report.pdf import member_info
 from beamlang.report.pdf.markup import text
 from beamlang.report.pdf.overlay import laid_over
+from beamlang.report.pdf.joined import sheet_count
 from beamlang.report.pdf.sheet import Info, bl_member, body_size, compile_pdf, document, iso_date, typst_paper
 from beamlang.report.tex import cell, md
 
 SET_PDF = "calc-set.pdf"
 SET_RECORD = "index.json"
-_PAGES = re.compile(rb"/Type/Pages/Count (\d+)")
 COLUMNS = ("member", "title", "section", "governing check", "ratio", "status", "sheets in the set")
 
 
@@ -114,14 +113,6 @@ def index_markdown(records: list[dict], sheets: list[tuple[int, int]], link: str
     return "\n".join(lines + ["", md(_CAUTION), ""])
 
 
-def page_count(pdf: bytes) -> int:
-    """The number of sheets of a PDF typst wrote (its one page-tree node)."""
-    found = _PAGES.findall(pdf)
-    if len(found) != 1:
-        raise ValueError("not a PDF with one page tree")
-    return int(found[0])
-
-
 def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
     """index.md, index.html, index.json and calc-set.pdf for the packages in `folders` (names under `out`);
     nothing is written when the members, the paper and pikepdf (which writes the set) are those of the last set
@@ -136,11 +127,11 @@ def write_set(out: Path, folders: list[str], paper: str) -> list[Path]:
     except (OSError, ValueError, KeyError):
         pass
     own = [out / r["folder"] / f"{r['folder']}.pdf" for r in records]
-    counts = [page_count(path.read_bytes()) for path in own]
+    counts = [sheet_count(path.read_bytes()) for path in own]
     with ThreadPoolExecutor(max_workers=1) as typesetter:  # typst runs without the GIL, beside the copying
         frame = typesetter.submit(compile_pdf, set_source(records, counts, paper), {})
         pdf = laid_over(frame.result, own)
-    total = page_count(frame.result())
+    total = sheet_count(frame.result())
     sheets = _ranges(total - sum(counts) + 1, counts)
     index = {"key": key, "paper": paper, "sheets": total,
              "members": [{"mark": r["mark"], "folder": r["folder"], "section": r["section"],

@@ -1,5 +1,6 @@
 """Overlay: the members' own PDFs + the set's frame PDF (its contents sheets, then one page per member sheet that
-carries only that sheet's set number) -> the calc set's PDF bytes, through pikepdf (qpdf).
+carries only that sheet's set number) -> the calc set's PDF bytes, through pikepdf (qpdf); and the drawing of such
+frame pages over sheets, which a member typeset in parts also uses for its sheet numbers (`parts.py`).
 
 Every member sheet is copied whole, its content streams and resources untouched, so its text, figures and fonts are
 those its own PDF has; its frame page is drawn over it as a form XObject: the sheet's contents become `q`, its own
@@ -32,6 +33,25 @@ def _version(text: str) -> tuple[int, ...]:
     return tuple(int(part) for part in text.split("."))
 
 
+def drawn_over(out, frame, first: int, name: str) -> None:
+    """The pages of the open PDF `frame` from its `first` on, drawn in turn over the sheets of `out` as the form
+    XObject `name`: each sheet's contents become `q`, its own streams, `Q name Do` (two small streams that every
+    sheet shares)."""
+    import pikepdf
+    push, draw = out.make_stream(b"q\n"), out.make_stream(f"\nQ {name} Do\n".encode("ascii"))
+    # the frame pages as form XObjects, copied in one call (one copy of the fonts they share)
+    forms = out.copy_foreign(frame.make_indirect(pikepdf.Array([_form(page.obj) for page in frame.pages[first:]])))
+    for sheet, form in zip(out.pages, forms):
+        page = sheet.obj
+        own = page.Contents
+        page.Contents = pikepdf.Array([push, *(own if isinstance(own, pikepdf.Array) else [own]), draw])
+        # the sheet's own resources and XObjects (sheets may share them), with its number added
+        resources = pikepdf.Dictionary(page.Resources)
+        resources.XObject = pikepdf.Dictionary(resources.get(pikepdf.Name.XObject, {}))
+        resources.XObject[name] = form
+        page.Resources = resources
+
+
 def laid_over(frame: Callable[[], bytes], members: list[Path]) -> bytes:
     """The frame's contents sheets, then every sheet of each member PDF in turn with the frame's next page drawn over
     it. The members' sheets are copied first, while the frame may still be typeset (`frame()` waits for it)."""
@@ -47,19 +67,7 @@ def laid_over(frame: Callable[[], bytes], members: list[Path]) -> bytes:
         contents = len(numbers.pages) - len(out.pages)
         if contents < 1:
             raise ValueError(f"the frame has {len(numbers.pages)} pages for {len(out.pages)} member sheets")
-        push, draw = out.make_stream(b"q\n"), out.make_stream(f"\nQ {NUMBER} Do\n".encode("ascii"))
-        # the frame pages as form XObjects, copied in one call (one copy of the fonts they share)
-        forms = out.copy_foreign(numbers.make_indirect(pikepdf.Array(
-            [_form(page.obj) for page in numbers.pages[contents:]])))
-        for sheet, form in zip(out.pages, forms):
-            page = sheet.obj
-            own = page.Contents
-            page.Contents = pikepdf.Array([push, *(own if isinstance(own, pikepdf.Array) else [own]), draw])
-            # the sheet's own resources and XObjects (sheets may share them), with its number added
-            resources = pikepdf.Dictionary(page.Resources)
-            resources.XObject = pikepdf.Dictionary(resources.get(pikepdf.Name.XObject, {}))
-            resources.XObject[NUMBER] = form
-            page.Resources = resources
+        drawn_over(out, numbers, contents, NUMBER)
         for k, page in enumerate(numbers.pages[:contents]):
             out.pages.insert(k, page)
         out.docinfo = out.copy_foreign(numbers.docinfo)

@@ -55,11 +55,13 @@ def iso_date(text: str) -> tuple[int, int, int] | None:
     return (y, mo, d) if 1 <= mo <= 12 and 1 <= d <= 31 else None
 
 
-def document(body: str, paper: str, title: str, date: tuple[int, int, int] | None, in_set: bool) -> str:
-    """The whole Typst source: bindings, the template, document metadata, then `body` (bl-member calls)."""
+def document(body: str, paper: str, title: str, date: tuple[int, int, int] | None, in_set: bool,
+             part: bool = False) -> str:
+    """The whole Typst source: bindings, the template, document metadata, then `body` (bl-member calls). `part`:
+    one part of a member typeset in parts (`parts.py`), whose title blocks leave the sheet number blank."""
     when = "none" if date is None else f"datetime(year: {date[0]}, month: {date[1]}, day: {date[2]})"
     head = (f"#let bl-paper = {typst_paper(paper)}\n#let bl-body = {body_size(paper)}\n"
-            f"#let bl-set = {'true' if in_set else 'false'}\n")
+            f"#let bl-set = {'true' if in_set else 'false'}\n#let bl-part = {'true' if part else 'false'}\n")
     meta = f"#set document(title: {string(title)}, author: (), date: {when})\n"
     return head + _template() + meta + body + LAYOUT
 
