@@ -140,3 +140,23 @@ def test_the_joined_pdf_has_the_outline_and_tags_of_one_compile_and_is_well_form
         assert headers and headers <= ids  # every table cell's header names a cell of this PDF
         assert f"<xmpTPg:NPages>{len(many.pages)}</xmpTPg:NPages>".encode() in many.Root.Metadata.read_bytes()
         assert str(many.docinfo.Title) == str(one.docinfo.Title)
+
+
+@poppler
+def test_a_member_typeset_in_parts_takes_its_place_in_the_calc_set(pdfs, tmp_path):
+    import json
+
+    from beamlang.report.pdf.calcset import write_set
+    whole, split, _again = pdfs
+    folder = tmp_path / "set"
+    shutil.copytree(whole.parent, folder / whole.parent.name)
+    (folder / whole.parent.name / whole.name).write_bytes(split.read_bytes())
+    assert write_set(folder, [whole.parent.name], "a4")
+    record = json.loads((folder / "index.json").read_text(encoding="utf-8"))
+    own = sheet_count(split.read_bytes())
+    assert record["sheets"] == own + 1 and record["members"][0]["sheets"] == [2, own + 1]
+    pages = subprocess.run(["pdftotext", "-layout", str(folder / "calc-set.pdf"), "-"], check=True,
+                           capture_output=True, text=True).stdout.split("\f")[:-1]
+    for s, page in enumerate(pages[1:], start=2):
+        flat = " ".join(page.split())
+        assert f"Sheet {s - 1} of {own}" in flat and f"Set sheet {s} of {own + 1}" in flat, s
