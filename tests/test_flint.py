@@ -169,3 +169,57 @@ def test_roots_are_identical_when_every_bracket_is_guessed(p, a, width):
         patch.setattr(roots, "_rational_guess", _every_guess)
         reference = shape(roots.roots_in(p, a, b))
     assert shape(roots.roots_in(p, a, b)) == reference
+
+
+def _factored_both(member, load) -> list[tuple[str, str]]:
+    """Each segment's general formula of one load, factored by FLINT (symbolic.factored) and by sympy's
+    factor(together()) that it replaces, as sympy's srepr."""
+    import sympy
+
+    from beamlang.engine import symbolic
+    from beamlang.engine.solve import solve
+    m, _, _ = symbolic.symbolic_member(member, load)
+    x = sympy.Symbol("x")
+    pairs = []
+    for p in solve(m).targets[0].curves.v.pieces:
+        by_sympy = sympy.factor(sympy.together(sum((symbolic._expr(c) * x**i for i, c in enumerate(p.coeffs)),
+                                                   sympy.Integer(0))))
+        pairs.append((sympy.srepr(symbolic.factored(p.coeffs, x)), sympy.srepr(by_sympy)))
+    return pairs
+
+
+def test_general_formulas_factored_by_flint_are_sympys_on_the_examples():
+    from pathlib import Path
+
+    from beamlang.language.frontend import load
+    seen = 0
+    for name in ("canopy-cantilever", "deck-joist-overhang-us", "floor-joist-patterned-us", "footbridge-deck-beam",
+                 "lintel-propped", "press-frame-fixed-us", "mezzanine-edge-beam"):
+        member = load(Path(__file__).resolve().parents[1] / "examples" / f"{name}.beam").member
+        for case in member.cases:
+            for ld in case.loads:
+                for mine, theirs in _factored_both(member, ld):
+                    assert mine == theirs, (name, ld)
+                    seen += 1
+    assert seen > 40
+
+
+@settings(max_examples=12, deadline=None)
+@given(st.sampled_from(["pin at 0 m", "fixed at 0 m"]), st.sampled_from(["roller at span", "roller at 4 m"]),
+       st.integers(1, 59), st.integers(1, 59), st.sampled_from(["point 3 kN down at {a} m",
+                                                                  "uniform 2 kN/m down from {a} m to {b} m",
+                                                                  "linear 1 kN/m to 3 kN/m up from {a} m to {b} m",
+                                                                  "moment 4 kN*m clockwise at {a} m"]))
+def test_general_formulas_factored_by_flint_are_sympys_on_random_layouts(left, right, i, j, load_line):
+    from beamlang.language.build import build
+    from beamlang.language.parse import parse
+    from beamlang.source import Source
+    a, b = sorted((i / 10, j / 10))
+    if a == b:
+        b = a + 0.05
+    text = "\n".join(['member T-1 "random layout (invented)"', "material E 200 GPa yield 250 MPa",
+                      "section properties I 8e7 mm^4 depth 300 mm", "span 6 m", f"support {left}",
+                      f"support {right}", "case a", "  " + load_line.format(a=f"{a:g}", b=f"{b:g}")]) + "\n"
+    member = build(parse(Source("t.beam", text)))
+    for mine, theirs in _factored_both(member, member.cases[0].loads[0]):
+        assert mine == theirs
