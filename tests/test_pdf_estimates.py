@@ -148,3 +148,12 @@ def test_a_long_general_formula_is_broken_into_lines_of_the_same_sum():
     assert " ".join(joined.removesuffix(") \\qquad (0 \\le x \\le 1)").split()) == " ".join(sympy_tex(big).split())
     short = _display(w * x / (E * I), "")
     assert "aligned" not in short
+
+
+def test_a_long_table_breaks_freely_without_being_measured():
+    from beamlang.report.pdf.markup import LONG_TABLE_ROWS, breaks_freely, to_typst_markup
+    rows = [["a", "b"]] + [["1", "$x$"]] * LONG_TABLE_ROWS
+    assert not surely_tall(rows) and breaks_freely(rows) and not breaks_freely(rows[:-1])
+    markdown = "| a | b |\n|---|---|\n" + "".join("| 1 | $x$ |\n" for _ in range(LONG_TABLE_ROWS))
+    assert to_typst_markup(markdown).count("tall: true") == 1
+    assert to_typst_markup(markdown.rsplit("| 1", 1)[0]).count("tall: true") == 0

@@ -63,6 +63,20 @@ def body_mm() -> tuple[float, float]:
 _LEAST_ROW_MM, _EMPTY_ROW_MM, _ROOM_MM = 3.5, 1.7, 8.0
 
 
+# A table of this many body rows or more breaks wherever a sheet ends, its header repeated on each sheet, without
+# being measured, as long tables do in a printed calc: kept whole, it could push most of a sheet's rows to the next
+# sheet and leave the rest of this one blank, and measuring it costs the typesetter another layout of it (the
+# 20-case member's four tables of 61 to 77 rows: 0.4 to 0.7 s and 75 MiB of its PDF, measured 2026-12-05). No
+# table of the examples is this long.
+LONG_TABLE_ROWS = 50
+
+
+def breaks_freely(cells: list[list[str]]) -> bool:
+    """Whether a table (header row first) is placed breakable without being measured: surely taller than a sheet,
+    or long (`LONG_TABLE_ROWS`)."""
+    return len(cells) - 1 >= LONG_TABLE_ROWS or surely_tall(cells)
+
+
 def surely_tall(cells: list[list[str]]) -> bool:
     """Whether a table of these cells' Markdown source is taller than the text of every sheet (A4 and US letter),
     so that it breaks across sheets without being measured first."""
@@ -221,7 +235,7 @@ class _Writer:
         ncols = len(rows[0])
         header = ", ".join(rows[0])
         body = ",\n  ".join(", ".join(r + ["[]"] * (ncols - len(r))) for r in rows[1:])
-        small = ", small: true" if surely_fits(raw) else ", tall: true" if surely_tall(raw) else ""
+        small = ", small: true" if surely_fits(raw) else ", tall: true" if breaks_freely(raw) else ""
         return f"\n#bl-table({ncols}, ({header},), (\n  {body},\n){small})\n" if rows[1:] else \
             f"\n#bl-table({ncols}, ({header},), (){small})\n"
 
